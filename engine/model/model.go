@@ -1,0 +1,188 @@
+package model
+
+// Freedom components.
+const (
+	X  = 0
+	Y  = 1
+	Z  = 2
+	RX = 3
+	RY = 4
+	RZ = 5
+)
+
+// ComponentNames are the wire names of the freedom components, by index.
+var ComponentNames = [6]string{"x", "y", "z", "rx", "ry", "rz"}
+
+// MemberKind tells bars from beams.
+type MemberKind uint8
+
+// Member kinds.
+const (
+	Bar  MemberKind = iota // pin-jointed, axial force only
+	Beam                   // rigid-jointed: axial, shear, bending (and torsion in 3D)
+)
+
+// Model is a compiled model: indices and numbers only. Slices are aligned
+// with the Spec's arrays. A Model is read-only once compiled; WithParameters
+// returns a new one.
+type Model struct {
+	Dim   int // 2 or 3
+	Units UnitsSpec
+
+	ParamNames  []string
+	ParamValues []float64
+
+	NodeIDs []string
+	// Coords holds node i's coordinates at Coords[i*Dim : (i+1)*Dim].
+	Coords []float64
+
+	Members      []Member
+	Materials    []Material
+	Sections     []Section
+	Supports     []Support
+	Cases        []LoadCase
+	Combinations []Combination
+
+	bindings []binding
+}
+
+// Member is a compiled member.
+type Member struct {
+	ID             string
+	Ends           [2]int
+	Material       int
+	Section        int
+	Kind           MemberKind
+	Orientation    [3]float64 // unit-free reference vector; zero means the default
+	BucklingFactor float64    // effective-length factor k, 1 by default
+}
+
+// Material is a compiled material. Optional limits are 0 when not given
+// (a given limit is always positive).
+type Material struct {
+	ID               string
+	ElasticModulus   float64
+	ShearModulus     float64
+	WeightDensity    float64
+	TensionLimit     float64
+	CompressionLimit float64
+	CarbonFactor     float64
+	HasCarbonFactor  bool
+	ThermalExpansion float64
+}
+
+// Section is a compiled section. SecondMoment is 0 when not given (bars).
+type Section struct {
+	ID              string
+	Area            float64
+	SecondMoment    float64 // about local z (in-plane bending in 2D)
+	SecondMomentY   float64 // about local y (3D)
+	TorsionConstant float64 // 3D
+}
+
+// Support is a compiled support. Arrays are indexed by component (X..RZ).
+type Support struct {
+	Node         int
+	Fixed        [6]bool
+	Spring       [6]float64 // stiffness, 0 when none
+	Displacement [6]float64 // prescribed value of a fixed component
+}
+
+// LoadCase is a compiled load case.
+type LoadCase struct {
+	ID          string
+	SelfWeight  bool
+	Nodal       []NodalLoad
+	MemberLoads []MemberLoad
+}
+
+// NodalLoad is a force and moment at a node, in global axes. Entries beyond
+// the model's dimension are zero; in 2D only Moment[2] (about z) is used.
+type NodalLoad struct {
+	Node   int
+	Force  [3]float64
+	Moment [3]float64
+}
+
+// MemberLoadKind tells the kinds of member load apart.
+type MemberLoadKind uint8
+
+// Member load kinds.
+const (
+	Uniform MemberLoadKind = iota // constant intensity over the whole length
+	Linear                        // intensity varying linearly from Value to EndValue
+	Point                         // force Value at Distance from the first end
+	Thermal                       // free axial strain Strain
+)
+
+// MemberLoad is a compiled member load. Vectors have Dim meaningful
+// entries; Local means they are in the member's local axes (x along the
+// member from its first end).
+type MemberLoad struct {
+	Member   int
+	Kind     MemberLoadKind
+	Local    bool
+	Value    [3]float64
+	EndValue [3]float64
+	Distance float64
+	Strain   float64
+}
+
+// Combination is a compiled factored sum of cases.
+type Combination struct {
+	ID    string
+	Terms []Term
+}
+
+// Term is one case of a combination with its factor.
+type Term struct {
+	Case   int
+	Factor float64
+}
+
+// DOFsPerNode returns the translational freedom count (Dim) and the
+// rotational count (1 in 2D, 3 in 3D) of the model.
+func (m *Model) DOFsPerNode() (translational, rotational int) {
+	if m.Dim == 2 {
+		return 2, 1
+	}
+	return 3, 3
+}
+
+// NodeCount returns the number of nodes.
+func (m *Model) NodeCount() int { return len(m.NodeIDs) }
+
+// Node returns node i's coordinates as a 3-vector (z = 0 in 2D).
+func (m *Model) Node(i int) [3]float64 {
+	var p [3]float64
+	copy(p[:], m.Coords[i*m.Dim:(i+1)*m.Dim])
+	return p
+}
+
+// Length returns the length of member e.
+func (m *Model) Length(e int) float64 {
+	a, b := m.Node(m.Members[e].Ends[0]), m.Node(m.Members[e].Ends[1])
+	dx, dy, dz := b[0]-a[0], b[1]-a[1], b[2]-a[2]
+	return sqrt(dx*dx + dy*dy + dz*dz)
+}
+
+// CaseIndex returns the index of the load case with the given id, or -1.
+func (m *Model) CaseIndex(id string) int {
+	for i := range m.Cases {
+		if m.Cases[i].ID == id {
+			return i
+		}
+	}
+	return -1
+}
+
+// CombinationIndex returns the index of the combination with the given id,
+// or -1.
+func (m *Model) CombinationIndex(id string) int {
+	for i := range m.Combinations {
+		if m.Combinations[i].ID == id {
+			return i
+		}
+	}
+	return -1
+}

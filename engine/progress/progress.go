@@ -1,0 +1,27 @@
+// Package progress defines the small callback interface through which long
+// engine work reports how far it has got.
+package progress
+
+// Reporter receives progress from long engine work. Stage is a short
+// lower-case phrase ("ordering", "factorising", "step"); done counts from 0
+// to total (total 0 when unknown); partial is an optional intermediate result
+// that must marshal to JSON (nil when there is none). Implementations must be
+// safe for concurrent use: parallel work reports from several goroutines.
+type Reporter interface {
+	Progress(stage string, done, total int, partial any)
+}
+
+// Discard is a Reporter that drops everything.
+var Discard Reporter = discard{}
+
+type discard struct{}
+
+func (discard) Progress(string, int, int, any) {}
+
+// Or returns r, or Discard when r is nil.
+func Or(r Reporter) Reporter {
+	if r == nil {
+		return Discard
+	}
+	return r
+}
