@@ -1,0 +1,9 @@
+package protocol
+
+// MethodTypes lists the params and result types of the engine methods, for
+// the schema generator.
+func MethodTypes() []any {
+	return []any{
+		SolveParams{}, ReciprocateParams{}, LoadPathParams{}, SweepParams{}, LayoutParams{},
+	}
+}

@@ -1,0 +1,182 @@
+package protocol
+
+// Model is a structure in consistent units. Results are arrays aligned with
+// the input arrays: the i-th axial force is that of members[i].
+type Model struct {
+	// Dimension is 2 (plane, gravity along −y) or 3 (space, gravity along −z).
+	Dimension int `json:"dimension" jsonschema:"enum=2,enum=3"`
+	// Units declares the length and force units; stress is force/length²,
+	// weight density force/length³. Results come back in the same units.
+	Units *Units `json:"units,omitempty"`
+	// Parameters are named numbers that expression strings elsewhere in the
+	// model may use, and that sweeps vary.
+	Parameters map[string]float64 `json:"parameters,omitempty"`
+	// Materials lists the materials members refer to by id.
+	Materials []Material `json:"materials"`
+	// Sections lists the cross-sections members refer to by id.
+	Sections []Section `json:"sections"`
+	// Nodes lists the joints.
+	Nodes []Node `json:"nodes"`
+	// Members lists the bars and beams.
+	Members []Member `json:"members"`
+	// Supports fix freedoms of nodes.
+	Supports []Support `json:"supports,omitempty"`
+	// LoadCases lists the load cases.
+	LoadCases []LoadCase `json:"load_cases,omitempty"`
+	// Combinations are factored sums of load cases.
+	Combinations []Combination `json:"combinations,omitempty"`
+}
+
+// Units names the unit of length and of force. Both default to m and kN.
+type Units struct {
+	// Length is one of m, cm, mm, ft, in.
+	Length string `json:"length,omitempty" jsonschema:"enum=m,enum=cm,enum=mm,enum=ft,enum=in"`
+	// Force is one of N, kN, MN, lbf, kip.
+	Force string `json:"force,omitempty" jsonschema:"enum=N,enum=kN,enum=MN,enum=lbf,enum=kip"`
+}
+
+// Material is a member material. Stresses are force/length².
+type Material struct {
+	// ID names the material; unique among materials.
+	ID string `json:"id" jsonschema:"minLength=1"`
+	// ElasticModulus is Young's modulus E (stress), positive.
+	ElasticModulus Number `json:"elastic_modulus"`
+	// ShearModulus is G (stress) for torsion of 3D beams; default E/2.6
+	// (Poisson's ratio 0.3).
+	ShearModulus *Number `json:"shear_modulus,omitempty"`
+	// WeightDensity is weight per volume (force/length³) for self-weight,
+	// mass and carbon; default 0.
+	WeightDensity *Number `json:"weight_density,omitempty"`
+	// TensionLimit is the design stress in tension, positive; needed for
+	// utilisation and sizing.
+	TensionLimit *Number `json:"tension_limit,omitempty"`
+	// CompressionLimit is the design stress in compression (a positive
+	// magnitude); needed for utilisation and sizing.
+	CompressionLimit *Number `json:"compression_limit,omitempty"`
+	// CarbonFactor is embodied carbon in kg CO2e per kg of material.
+	CarbonFactor *Number `json:"carbon_factor,omitempty"`
+	// ThermalExpansion is the coefficient of thermal expansion (strain per
+	// degree) for thermal loads given as a temperature change.
+	ThermalExpansion *Number `json:"thermal_expansion,omitempty"`
+}
+
+// Section is a member cross-section.
+type Section struct {
+	// ID names the section; unique among sections.
+	ID string `json:"id" jsonschema:"minLength=1"`
+	// Area is the cross-section area (length²), positive.
+	Area Number `json:"area"`
+	// SecondMoment is the second moment of area about the local z axis
+	// (length⁴): in-plane bending in 2D. Needed by beams and for Euler
+	// buckling.
+	SecondMoment *Number `json:"second_moment,omitempty"`
+	// SecondMomentY is the second moment about the local y axis (3D
+	// beams); default second_moment.
+	SecondMomentY *Number `json:"second_moment_y,omitempty"`
+	// TorsionConstant is St Venant's torsion constant J (3D beams);
+	// default 2 × second_moment (a round section).
+	TorsionConstant *Number `json:"torsion_constant,omitempty"`
+}
+
+// Node is a joint.
+type Node struct {
+	// ID names the node; unique among nodes.
+	ID string `json:"id" jsonschema:"minLength=1"`
+	// At is the position: dimension coordinates.
+	At []Number `json:"at" jsonschema:"minItems=2,maxItems=3"`
+}
+
+// Member is a bar or a beam between two nodes.
+type Member struct {
+	// ID names the member; unique among members.
+	ID string `json:"id" jsonschema:"minLength=1"`
+	// Ends are the ids of the first and second node. The member's local x
+	// axis runs from the first to the second.
+	Ends [2]string `json:"ends"`
+	// Material is a material id.
+	Material string `json:"material"`
+	// Section is a section id.
+	Section string `json:"section"`
+	// Type is "bar" (pin-jointed, axial force only; the default) or "beam"
+	// (rigid-jointed: axial, shear, bending, and torsion in 3D).
+	Type string `json:"type,omitempty" jsonschema:"enum=bar,enum=beam"`
+	// Orientation (3D beams) is a vector that fixes the local y axis: the
+	// part of it normal to the member. Default global z, or global y for a
+	// vertical member.
+	Orientation []float64 `json:"orientation,omitempty" jsonschema:"minItems=3,maxItems=3"`
+	// BucklingFactor is the effective-length factor k for Euler buckling,
+	// π²EI/(kL)²; default 1.
+	BucklingFactor *float64 `json:"buckling_factor,omitempty"`
+}
+
+// Support fixes freedoms of a node, with optional springs and prescribed
+// displacements. Components: x, y, rz in 2D; x, y, z, rx, ry, rz in 3D.
+type Support struct {
+	// Node is the supported node's id.
+	Node string `json:"node"`
+	// Fix lists the fixed components.
+	Fix []string `json:"fix" jsonschema:"uniqueItems=true"`
+	// Springs maps components to elastic spring stiffness (force/length or
+	// moment/radian), positive.
+	Springs map[string]float64 `json:"springs,omitempty"`
+	// Displacement maps fixed components to a prescribed displacement
+	// (settlement), in length units or radians.
+	Displacement map[string]float64 `json:"displacement,omitempty"`
+}
+
+// LoadCase is one load case.
+type LoadCase struct {
+	// ID names the case; unique among cases and combinations.
+	ID string `json:"id" jsonschema:"minLength=1"`
+	// SelfWeight adds the members' weight (weight density × area × length)
+	// along gravity.
+	SelfWeight bool `json:"self_weight,omitempty"`
+	// Loads are forces (and moments) at nodes, in global axes.
+	Loads []NodalLoad `json:"loads,omitempty"`
+	// MemberLoads are loads along members.
+	MemberLoads []MemberLoad `json:"member_loads,omitempty"`
+}
+
+// NodalLoad is a force and optional moment at a node.
+type NodalLoad struct {
+	// Node is the loaded node's id.
+	Node string `json:"node"`
+	// Force has dimension components (force units), global axes.
+	Force []Number `json:"force,omitempty" jsonschema:"minItems=2,maxItems=3"`
+	// Moment has one component (about z) in 2D and three in 3D; only at
+	// nodes that a beam touches.
+	Moment []Number `json:"moment,omitempty" jsonschema:"minItems=1,maxItems=3"`
+}
+
+// MemberLoad is a load along a member.
+type MemberLoad struct {
+	// Member is the loaded member's id.
+	Member string `json:"member"`
+	// Kind is "uniform" (constant intensity over the member), "linear"
+	// (intensity from value at the first end to end_value at the second),
+	// "point" (force value at distance from the first end) or "thermal"
+	// (free axial strain).
+	Kind string `json:"kind" jsonschema:"enum=uniform,enum=linear,enum=point,enum=thermal"`
+	// Axes is "global" (the default) or "local" (x along the member).
+	Axes string `json:"axes,omitempty" jsonschema:"enum=global,enum=local"`
+	// Value is the intensity (force/length) for uniform and linear, the
+	// force for point: dimension components.
+	Value []Number `json:"value,omitempty" jsonschema:"minItems=2,maxItems=3"`
+	// EndValue is the intensity at the second end for linear.
+	EndValue []Number `json:"end_value,omitempty" jsonschema:"minItems=2,maxItems=3"`
+	// Distance is where a point load acts, from the first end (length).
+	Distance *Number `json:"distance,omitempty"`
+	// Strain is the free thermal strain (positive lengthens).
+	Strain *Number `json:"strain,omitempty"`
+	// TemperatureChange times the material's thermal_expansion gives the
+	// strain when strain is absent.
+	TemperatureChange *Number `json:"temperature_change,omitempty"`
+}
+
+// Combination is a factored sum of load cases.
+type Combination struct {
+	// ID names the combination; unique among cases and combinations.
+	ID string `json:"id" jsonschema:"minLength=1"`
+	// Factors maps load-case ids to their factors.
+	Factors map[string]float64 `json:"factors"`
+}

@@ -1,0 +1,205 @@
+package protocol
+
+// DescribeParams are the (empty) params of describe.
+type DescribeParams struct{}
+
+// SolveParams are the params of solve: a linear-elastic stiffness analysis.
+type SolveParams struct {
+	// Model is the structure to analyse.
+	Model Model `json:"model"`
+	// Cases lists the load cases and combinations to report, by id;
+	// default every case and then every combination.
+	Cases []string `json:"cases,omitempty"`
+}
+
+// ReciprocateParams are the params of reciprocate: the reciprocal force
+// diagram of a planar (2D) network and its Airy stress function, or, with
+// edit, the form that fits an edited force diagram.
+type ReciprocateParams struct {
+	// Model is the planar network (dimension 2).
+	Model Model `json:"model"`
+	// Case is the load case or combination whose forces are drawn; default
+	// the first case. Ignored when forces are given.
+	Case string `json:"case,omitempty"`
+	// Forces gives the member axial forces (tension positive) instead of
+	// solving the model: one per member, aligned with model.members.
+	Forces []float64 `json:"forces,omitempty"`
+	// SelfStress picks a state of self-stress (0-based) to draw for a
+	// network without loads; the states come from the equilibrium matrix's
+	// null space.
+	SelfStress *int `json:"self_stress,omitempty" jsonschema:"minimum=0"`
+	// Perpendicular draws each force-diagram segment perpendicular to its
+	// member instead of parallel.
+	Perpendicular bool `json:"perpendicular,omitempty"`
+	// Picture asks for an SVG drawing of the form and force diagrams in
+	// the result.
+	Picture bool `json:"picture,omitempty"`
+	// Edit, when given, runs the reverse direction: the form whose members
+	// are parallel to an edited force diagram.
+	Edit *DiagramEdit `json:"edit,omitempty"`
+}
+
+// DiagramEdit is an edited force diagram for design by forces.
+type DiagramEdit struct {
+	// Points maps space labels (Bow's notation, as returned by a previous
+	// reciprocate) to their new positions in the force diagram.
+	Points map[string][]float64 `json:"points"`
+	// Fixed lists node ids to keep in place besides the supported nodes.
+	Fixed []string `json:"fixed,omitempty"`
+}
+
+// LoadPathParams are the params of load-path: Maxwell's load path, member
+// sizing and material quantities.
+type LoadPathParams struct {
+	// Model is the structure.
+	Model Model `json:"model"`
+	// Cases lists the load cases and combinations to evaluate and to size
+	// for (the envelope); default every case and combination.
+	Cases []string `json:"cases,omitempty"`
+	// Forces gives the member axial forces of one case (tension positive)
+	// instead of solving; reactions then come from the loads by least
+	// squares over the supports.
+	Forces []float64 `json:"forces,omitempty"`
+	// Sizing, when given, sizes every member from the material limits and
+	// reports areas, volume, mass and carbon.
+	Sizing *Sizing `json:"sizing,omitempty"`
+	// FloorArea, when positive, adds quantities per unit of floor or deck
+	// area (length²).
+	FloorArea float64 `json:"floor_area,omitempty" jsonschema:"minimum=0"`
+}
+
+// Sizing declares how members are sized.
+type Sizing struct {
+	// Shape is the section family for Euler buckling of compression
+	// members, geometrically similar sections with I = c·A²: "tube" (needs
+	// diameter_to_thickness), "solid-round", "solid-square", or "custom"
+	// (needs coefficient). "none" ignores buckling.
+	Shape string `json:"shape" jsonschema:"enum=tube,enum=solid-round,enum=solid-square,enum=custom,enum=none"`
+	// DiameterToThickness is D/t of a tube family.
+	DiameterToThickness float64 `json:"diameter_to_thickness,omitempty" jsonschema:"exclusiveMinimum=2"`
+	// Coefficient is c in I = c·A² for a custom family.
+	Coefficient float64 `json:"coefficient,omitempty" jsonschema:"minimum=0"`
+	// MinimumArea is the least area any member gets (length²).
+	MinimumArea float64 `json:"minimum_area,omitempty" jsonschema:"minimum=0"`
+}
+
+// SweepParams are the params of sweep-parameter.
+type SweepParams struct {
+	// Model is the structure; the swept parameters must be among its
+	// parameters.
+	Model Model `json:"model"`
+	// Parameters are the swept parameters: one (a line) or two (a grid,
+	// the second varying fastest).
+	Parameters []SweepAxis `json:"parameters" jsonschema:"minItems=1,maxItems=2"`
+	// Metrics lists what to evaluate at each step: load_path, volume,
+	// mass, carbon, max_displacement, max_utilisation. Default load_path
+	// and volume when the materials have limits, load_path otherwise.
+	Metrics []string `json:"metrics,omitempty" jsonschema:"uniqueItems=true"`
+	// Cases lists the load cases and combinations evaluated at each step
+	// (metrics take the envelope); default every one.
+	Cases []string `json:"cases,omitempty"`
+	// Sizing is used for volume, mass and carbon; default shape "none".
+	Sizing *Sizing `json:"sizing,omitempty"`
+	// Objective, when given, refines the best step to an optimum.
+	Objective *Objective `json:"objective,omitempty"`
+	// Shard computes only one shard of the steps, with global indices.
+	Shard *Shard `json:"shard,omitempty"`
+	// Steps is "full" (the default: the final result lists every step) or
+	// "summary" (the final result omits the steps, which have streamed).
+	Steps string `json:"steps,omitempty" jsonschema:"enum=full,enum=summary"`
+}
+
+// SweepAxis is one swept parameter: explicit values, or a range.
+type SweepAxis struct {
+	// Name is a model parameter.
+	Name string `json:"name" jsonschema:"minLength=1"`
+	// Values lists the values to take, in order.
+	Values []float64 `json:"values,omitempty" jsonschema:"minItems=1"`
+	// From is the first value of a range.
+	From *float64 `json:"from,omitempty"`
+	// To is the last value of a range.
+	To *float64 `json:"to,omitempty"`
+	// Count is the number of evenly spaced values of a range (at least 2,
+	// or 1 for from alone).
+	Count int `json:"count,omitempty" jsonschema:"minimum=1"`
+}
+
+// Objective asks for the optimum of one metric.
+type Objective struct {
+	// Metric is the metric to optimise.
+	Metric string `json:"metric" jsonschema:"enum=load_path,enum=volume,enum=mass,enum=carbon,enum=max_displacement,enum=max_utilisation"`
+	// Goal is "minimise" (the default) or "maximise".
+	Goal string `json:"goal,omitempty" jsonschema:"enum=minimise,enum=maximise"`
+	// Tolerance is the relative tolerance on the parameter; default 1e-6.
+	Tolerance float64 `json:"tolerance,omitempty" jsonschema:"exclusiveMinimum=0"`
+}
+
+// Shard selects one of count interleaved shards: steps whose global index
+// modulo count equals index.
+type Shard struct {
+	// Index is this shard's number, 0 ≤ index < count.
+	Index int `json:"index" jsonschema:"minimum=0"`
+	// Count is the number of shards.
+	Count int `json:"count" jsonschema:"minimum=1"`
+}
+
+// LayoutParams are the params of optimise-layout: the least-volume
+// pin-jointed layout by the ground-structure method.
+type LayoutParams struct {
+	// Units declares the length and force units.
+	Units *Units `json:"units,omitempty"`
+	// Domain is the region the layout may occupy; ignored when nodes are
+	// given.
+	Domain *Domain `json:"domain,omitempty"`
+	// Divisions is the number of grid divisions along x and y over the
+	// domain's bounding box.
+	Divisions []int `json:"divisions,omitempty" jsonschema:"minItems=2,maxItems=2"`
+	// Nodes are the host's own candidate node positions instead of a grid.
+	Nodes [][]float64 `json:"nodes,omitempty"`
+	// Connectivity limits candidate members to grid steps of at most this
+	// many divisions in x and y; 0 connects every pair.
+	Connectivity int `json:"connectivity,omitempty" jsonschema:"minimum=0"`
+	// Supports are points (snapped to the nearest node) with fixed
+	// components x and/or y.
+	Supports []LayoutSupport `json:"supports" jsonschema:"minItems=1"`
+	// Cases are load cases of point loads.
+	Cases []LayoutCase `json:"cases" jsonschema:"minItems=1"`
+	// TensionLimit is the design stress in tension.
+	TensionLimit float64 `json:"tension_limit" jsonschema:"exclusiveMinimum=0"`
+	// CompressionLimit is the design stress in compression (a magnitude).
+	CompressionLimit float64 `json:"compression_limit" jsonschema:"exclusiveMinimum=0"`
+	// Picture asks for an SVG drawing of the layout in the result.
+	Picture bool `json:"picture,omitempty"`
+}
+
+// Domain is a polygon with optional polygonal holes.
+type Domain struct {
+	// Outline lists the corners in order.
+	Outline [][]float64 `json:"outline" jsonschema:"minItems=3"`
+	// Holes lists polygons inside the outline that members may not cross.
+	Holes [][][]float64 `json:"holes,omitempty"`
+}
+
+// LayoutSupport is a support of a layout problem.
+type LayoutSupport struct {
+	// At is the support's position.
+	At []float64 `json:"at" jsonschema:"minItems=2,maxItems=2"`
+	// Fix lists the fixed components, x and/or y.
+	Fix []string `json:"fix" jsonschema:"minItems=1,uniqueItems=true"`
+}
+
+// LayoutCase is a load case of a layout problem.
+type LayoutCase struct {
+	// ID names the case.
+	ID string `json:"id" jsonschema:"minLength=1"`
+	// Loads are point loads.
+	Loads []LayoutLoad `json:"loads" jsonschema:"minItems=1"`
+}
+
+// LayoutLoad is a point load.
+type LayoutLoad struct {
+	// At is the load's position.
+	At []float64 `json:"at" jsonschema:"minItems=2,maxItems=2"`
+	// Force is the force vector.
+	Force []float64 `json:"force" jsonschema:"minItems=2,maxItems=2"`
+}

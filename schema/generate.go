@@ -1,0 +1,62 @@
+package schema
+
+import (
+	"bytes"
+	"encoding/json"
+	"fmt"
+	"reflect"
+
+	"github.com/invopop/jsonschema"
+
+	"gusset/protocol"
+)
+
+// ID is the published schema's $id.
+const ID = "urn:gusset:protocol:1"
+
+// Definitions lists the types whose definitions the schema publishes, by
+// the name they get in $defs: the envelope, and the params and result of
+// every method.
+func Definitions() []any {
+	return append([]any{
+		protocol.Request{}, protocol.Response{}, protocol.Notification{}, protocol.Progress{},
+		protocol.DescribeParams{}, protocol.DescribeResult{},
+		protocol.CancelParams{}, protocol.CancelResult{},
+	}, protocol.MethodTypes()...)
+}
+
+// Generate reflects the protocol types into the schema document. protocolDir
+// is the directory of package protocol's source, read for the doc comments
+// that become descriptions.
+func Generate(protocolDir string) ([]byte, error) {
+	r := &jsonschema.Reflector{}
+	if err := r.AddGoComments("gusset/protocol", protocolDir); err != nil {
+		return nil, fmt.Errorf("schema: reading doc comments: %w", err)
+	}
+	root := &jsonschema.Schema{
+		Version:     jsonschema.Version,
+		ID:          ID,
+		Title:       "Gusset wire protocol",
+		Description: "JSON-RPC 2.0 messages, one per line, exchanged with the gusset solver process. Each method's params and result are definitions in $defs (see the describe method for which is which). Results are for preliminary design: a qualified engineer checks the design against the local codes and standards.",
+		Ref:         "#/$defs/Request",
+		Definitions: jsonschema.Definitions{},
+	}
+	for _, v := range Definitions() {
+		s := r.Reflect(v)
+		for name, def := range s.Definitions {
+			if old, dup := root.Definitions[name]; dup {
+				a, _ := json.Marshal(old)
+				b, _ := json.Marshal(def)
+				if !bytes.Equal(a, b) {
+					return nil, fmt.Errorf("schema: two different types are named %s (%v)", name, reflect.TypeOf(v))
+				}
+			}
+			root.Definitions[name] = def
+		}
+	}
+	out, err := json.MarshalIndent(root, "", "  ")
+	if err != nil {
+		return nil, err
+	}
+	return append(out, '\n'), nil
+}

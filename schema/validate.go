@@ -1,0 +1,161 @@
+package schema
+
+import (
+	"bytes"
+	_ "embed"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"math"
+	"sort"
+	"strconv"
+	"strings"
+	"sync"
+
+	"github.com/santhosh-tekuri/jsonschema/v5"
+
+	"gusset/protocol"
+)
+
+// Document is the published schema, embedded.
+//
+//go:embed gusset.schema.json
+var Document []byte
+
+// MaxProblems caps the problems reported for one request.
+const MaxProblems = 50
+
+// Validator validates params against the definition of each method.
+type Validator struct {
+	mu      sync.Mutex
+	schemas map[string]*jsonschema.Schema
+	params  map[string]string // method -> params definition name
+}
+
+// NewValidator compiles the embedded schema's params definitions for the
+// given methods (method name -> params definition name).
+func NewValidator(params map[string]string) (*Validator, error) {
+	c := jsonschema.NewCompiler()
+	if err := c.AddResource(ID, bytes.NewReader(Document)); err != nil {
+		return nil, fmt.Errorf("schema: embedded document: %w", err)
+	}
+	v := &Validator{schemas: map[string]*jsonschema.Schema{}, params: params}
+	for method, def := range params {
+		s, err := c.Compile(ID + "#/$defs/" + def)
+		if err != nil {
+			return nil, fmt.Errorf("schema: compiling %s: %w", def, err)
+		}
+		v.schemas[method] = s
+	}
+	return v, nil
+}
+
+// Validate checks a method's params. It returns nil when they are valid,
+// and otherwise an invalid-params error whose problems point into the
+// request ("/params/...").
+func (v *Validator) Validate(method string, params json.RawMessage) *protocol.Error {
+	s := v.schemas[method]
+	if s == nil {
+		return nil
+	}
+	dec := json.NewDecoder(bytes.NewReader(params))
+	dec.UseNumber()
+	var doc any
+	if err := dec.Decode(&doc); err != nil {
+		return protocol.NewError(protocol.CodeInvalidParams, "invalid params", "The params could not be read: "+err.Error()+".")
+	}
+	var problems []protocol.Problem
+	outOfRange(doc, "/params", &problems)
+	if len(problems) > 0 {
+		return protocol.NewError(protocol.CodeInvalidParams, "invalid params",
+			"A number is outside the range of double precision (about ±1.8e308); use finite values.", problems...)
+	}
+	err := s.Validate(doc)
+	if err == nil {
+		return nil
+	}
+	var ve *jsonschema.ValidationError
+	if !errors.As(err, &ve) {
+		return protocol.NewError(protocol.CodeInvalidParams, "invalid params", err.Error())
+	}
+	leaves(ve, &problems)
+	sort.SliceStable(problems, func(i, j int) bool { return problems[i].Path < problems[j].Path })
+	problems = dedupe(problems)
+	total := len(problems)
+	if total > MaxProblems {
+		problems = problems[:MaxProblems]
+	}
+	msg := fmt.Sprintf("The params of %s do not follow the schema: %s at %s", method, problems[0].Message, displayPath(problems[0].Path))
+	if total > 1 {
+		msg += fmt.Sprintf(" (and %d more problems)", total-1)
+	}
+	return protocol.NewError(protocol.CodeInvalidParams, "invalid params", msg+".", problems...)
+}
+
+func displayPath(p string) string {
+	if p == "/params" || p == "" {
+		return "the params"
+	}
+	return p
+}
+
+// leaves collects the innermost causes; for a oneOf whose branches all
+// fail, the branch errors are merged into one message at that location.
+func leaves(e *jsonschema.ValidationError, out *[]protocol.Problem) {
+	if len(e.Causes) == 0 {
+		*out = append(*out, protocol.Problem{Path: "/params" + e.InstanceLocation, Message: e.Message})
+		return
+	}
+	if strings.HasSuffix(e.KeywordLocation, "/oneOf") {
+		var msgs []string
+		for _, c := range e.Causes {
+			var sub []protocol.Problem
+			leaves(c, &sub)
+			for _, p := range sub {
+				msgs = append(msgs, p.Message)
+			}
+		}
+		*out = append(*out, protocol.Problem{Path: "/params" + e.InstanceLocation, Message: "expected a number or an expression string: " + strings.Join(msgs, "; or ")})
+		return
+	}
+	for _, c := range e.Causes {
+		leaves(c, out)
+	}
+}
+
+func dedupe(ps []protocol.Problem) []protocol.Problem {
+	out := ps[:0]
+	for i, p := range ps {
+		if i > 0 && p == ps[i-1] {
+			continue
+		}
+		out = append(out, p)
+	}
+	return out
+}
+
+// outOfRange reports numbers that do not fit a float64 (1e400 parses as
+// JSON but not as a double).
+func outOfRange(v any, path string, out *[]protocol.Problem) {
+	switch t := v.(type) {
+	case json.Number:
+		if f, err := strconv.ParseFloat(string(t), 64); err != nil || math.IsInf(f, 0) {
+			*out = append(*out, protocol.Problem{Path: path, Message: fmt.Sprintf("%s is out of range for a double-precision number", string(t))})
+		}
+	case map[string]any:
+		for k, e := range t {
+			outOfRange(e, path+"/"+escape(k), out)
+		}
+	case []any:
+		for i, e := range t {
+			outOfRange(e, path+"/"+strconv.Itoa(i), out)
+		}
+	}
+	if len(*out) > MaxProblems {
+		*out = (*out)[:MaxProblems]
+	}
+}
+
+func escape(s string) string {
+	return strings.ReplaceAll(strings.ReplaceAll(s, "~", "~0"), "/", "~1")
+}
