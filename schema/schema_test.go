@@ -1,0 +1,94 @@
+package schema
+
+import (
+	"bytes"
+	"encoding/json"
+	"fmt"
+	"os"
+	"testing"
+
+	"gusset/protocol"
+)
+
+// TestCommittedSchemaIsCurrent fails when the protocol types changed and
+// gusset.schema.json was not regenerated (run go generate ./protocol).
+func TestCommittedSchemaIsCurrent(t *testing.T) {
+	want, err := Generate("../protocol")
+	if err != nil {
+		t.Fatal(err)
+	}
+	got, err := os.ReadFile("gusset.schema.json")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !bytes.Equal(got, want) {
+		t.Fatal("schema/gusset.schema.json is stale: run `go generate ./protocol` and commit the result")
+	}
+	if !bytes.Equal(Document, got) {
+		t.Fatal("the embedded schema differs from the file: rebuild")
+	}
+}
+
+// TestDescriptionsPresent guards against the doc comments silently
+// vanishing (a wrong base path for AddGoComments drops them all).
+func TestDescriptionsPresent(t *testing.T) {
+	var doc struct {
+		Defs map[string]struct {
+			Description string `json:"description"`
+		} `json:"$defs"`
+	}
+	if err := json.Unmarshal(Document, &doc); err != nil {
+		t.Fatal(err)
+	}
+	for _, name := range []string{"Model", "Member", "SolveParams", "Request"} {
+		if doc.Defs[name].Description == "" {
+			t.Errorf("$defs/%s has no description", name)
+		}
+	}
+}
+
+func TestValidatorPointers(t *testing.T) {
+	v, err := NewValidator(map[string]string{"solve": "SolveParams"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	model := `{"dimension":2,"materials":[{"id":"s","elastic_modulus":1}],"sections":[{"id":"a","area":1}],` +
+		`"nodes":[{"id":"A","at":[0,0]},{"id":"B","at":[1,%s]}],"members":[{"id":"AB","ends":["A","B"],"material":"s","section":"a"%s}]}`
+	cases := []struct {
+		name, coord, member string
+		path             string
+	}{
+		{"valid", `0`, ``, ""},
+		{"expression allowed", `"depth"`, ``, ""},
+		{"number as string where no expression", `0`, `,"buckling_factor":"1"`, "/params/model/members/0/buckling_factor"},
+		{"boolean coordinate", `true`, ``, "/params/model/nodes/1/at/1"},
+		{"unknown field", `0`, `,"colour":"red"`, "/params/model/members/0"},
+		{"huge number", `1e400`, ``, "/params/model/nodes/1/at/1"},
+		{"bad type", `0`, `,"type":"cable"`, "/params/model/members/0/type"},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			params := []byte(`{"model":` + fmt.Sprintf(model, c.coord, c.member) + `}`)
+			e := v.Validate("solve", params)
+			if c.path == "" {
+				if e != nil {
+					t.Fatalf("unexpected error: %+v", e.Data.Problems)
+				}
+				return
+			}
+			if e == nil {
+				t.Fatal("no error")
+			}
+			if e.Code != protocol.CodeInvalidParams {
+				t.Errorf("code %d", e.Code)
+			}
+			found := false
+			for _, p := range e.Data.Problems {
+				found = found || p.Path == c.path
+			}
+			if !found {
+				t.Errorf("problems %+v lack path %s", e.Data.Problems, c.path)
+			}
+		})
+	}
+}
