@@ -56,7 +56,7 @@ func TestValidatorPointers(t *testing.T) {
 		`"nodes":[{"id":"A","at":[0,0]},{"id":"B","at":[1,%s]}],"members":[{"id":"AB","ends":["A","B"],"material":"s","section":"a"%s}]}`
 	cases := []struct {
 		name, coord, member string
-		path             string
+		path                string
 	}{
 		{"valid", `0`, ``, ""},
 		{"expression allowed", `"depth"`, ``, ""},

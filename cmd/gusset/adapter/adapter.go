@@ -1,0 +1,152 @@
+package adapter
+
+import (
+	"bytes"
+	"context"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"strings"
+
+	"gusset/engine/fault"
+	"gusset/engine/model"
+	"gusset/protocol"
+	"gusset/schema"
+)
+
+// Caution is carried by every result a person might build from.
+const Caution = "Preliminary design aid: a qualified engineer must check the design against the local codes and standards."
+
+// entry is one engine method: its description and handler.
+type entry struct {
+	method  protocol.Method
+	handler func(a *Adapter) protocol.Handler
+}
+
+// registry lists the engine methods; each method's file adds itself.
+var registry []entry
+
+// Adapter holds the limits the handlers enforce and the schema validator.
+type Adapter struct {
+	Limits    protocol.Limits
+	validator *schema.Validator
+}
+
+// Register adds every engine method to the server, with schema validation
+// of params and the mapping of engine errors to wire codes.
+func Register(s *protocol.Server) error {
+	s.Limits = s.Limits.WithDefaults()
+	params := map[string]string{"cancel": "CancelParams", "describe": "DescribeParams"}
+	for _, e := range registry {
+		params[e.method.Name] = e.method.Params
+	}
+	v, err := schema.NewValidator(params)
+	if err != nil {
+		return err
+	}
+	a := &Adapter{Limits: s.Limits, validator: v}
+	for _, e := range registry {
+		s.Handle(e.method, e.handler(a))
+	}
+	// Engine methods validate their params in decode; the server checks
+	// only the small params of its own methods.
+	s.Validate = func(method string, params json.RawMessage) *protocol.Error {
+		if method == "cancel" || method == "describe" {
+			return v.ValidateFull(method, params)
+		}
+		return nil
+	}
+	s.Classify = Classify
+	s.SchemaID = schema.ID
+	return nil
+}
+
+// Classify maps an error to a wire error: protocol errors keep their code,
+// engine faults get their kind's application code, anything else is an
+// internal error.
+func Classify(err error) *protocol.Error {
+	var pe *protocol.Error
+	if errors.As(err, &pe) {
+		return pe
+	}
+	if fe, ok := fault.As(err); ok {
+		return located("", fe)
+	}
+	return protocol.NewError(protocol.CodeInternal, "internal error", err.Error())
+}
+
+// located converts an engine fault to a wire error, prefixing its problem
+// paths with the pointer of the object the engine was given.
+func located(prefix string, fe *fault.Error) *protocol.Error {
+	problems := make([]protocol.Problem, len(fe.Problems))
+	for i, p := range fe.Problems {
+		path := p.Path
+		if path != "" && !strings.HasPrefix(path, "/") {
+			path = "/" + path
+		}
+		problems[i] = protocol.Problem{Path: prefix + path, Message: p.Message}
+	}
+	e := protocol.NewError(fe.Kind.Code(), fe.Kind.String(), fe.Message, problems...)
+	e.Data.Detail = fe.Detail
+	return e
+}
+
+// at converts err to a wire error located under prefix when it is an engine
+// fault, and leaves other errors as they are.
+func at(prefix string, err error) error {
+	if err == nil {
+		return nil
+	}
+	if fe, ok := fault.As(err); ok {
+		return located(prefix, fe)
+	}
+	return err
+}
+
+// decode validates params against the method's schema and unmarshals them
+// into v, before any engine code runs. The fast path decodes strictly
+// (unknown fields and wrong types are errors) and validates a sample of
+// the result (see schema.Validator.ValidateSample); the model compiler then
+// checks every element. When either step fails, the full schema validation
+// of the original bytes supplies precise pointers.
+func (a *Adapter) decode(method string, params json.RawMessage, v any) error {
+	dec := json.NewDecoder(bytes.NewReader(params))
+	dec.DisallowUnknownFields()
+	err := dec.Decode(v)
+	if err == nil {
+		if e := a.validator.ValidateSample(method, v); e == nil {
+			return nil
+		} else if full := a.validator.ValidateFull(method, params); full != nil {
+			return full
+		} else {
+			return e
+		}
+	}
+	if e := a.validator.ValidateFull(method, params); e != nil {
+		return e
+	}
+	return protocol.NewError(protocol.CodeInvalidParams, "invalid params", "The params could not be decoded: "+err.Error()+".")
+}
+
+// compile checks the model against the size limits and compiles it.
+func (a *Adapter) compile(ctx context.Context, w *protocol.Model, pointer string) (*model.Model, error) {
+	if n := len(w.Nodes); n > a.Limits.MaxNodes {
+		e := protocol.NewError(protocol.CodeLimitExceeded, "limit exceeded",
+			fmt.Sprintf("The model has %d nodes, more than the limit of %d. Start the server with a larger --max-nodes or split the model.", n, a.Limits.MaxNodes),
+			protocol.Problem{Path: pointer + "/nodes", Message: fmt.Sprintf("%d nodes; the limit is %d", n, a.Limits.MaxNodes)})
+		e.Data.Detail = map[string]int{"limit": a.Limits.MaxNodes, "value": n}
+		return nil, e
+	}
+	if n := len(w.Members); n > a.Limits.MaxMembers {
+		e := protocol.NewError(protocol.CodeLimitExceeded, "limit exceeded",
+			fmt.Sprintf("The model has %d members, more than the limit of %d. Start the server with a larger --max-members or split the model.", n, a.Limits.MaxMembers),
+			protocol.Problem{Path: pointer + "/members", Message: fmt.Sprintf("%d members; the limit is %d", n, a.Limits.MaxMembers)})
+		e.Data.Detail = map[string]int{"limit": a.Limits.MaxMembers, "value": n}
+		return nil, e
+	}
+	if err := ctx.Err(); err != nil {
+		return nil, err
+	}
+	m, err := model.Compile(specOf(w))
+	return m, at(pointer, err)
+}

@@ -1,0 +1,97 @@
+package adapter
+
+import (
+	"sort"
+
+	"gusset/engine/model"
+	"gusset/protocol"
+)
+
+// specOf converts the wire model to the engine's input form. It copies
+// field by field; all checking is the compiler's.
+func specOf(w *protocol.Model) *model.Spec {
+	s := &model.Spec{Dimension: w.Dimension}
+	if w.Units != nil {
+		s.Units = model.UnitsSpec{Length: w.Units.Length, Force: w.Units.Force}
+	}
+	names := make([]string, 0, len(w.Parameters))
+	for name := range w.Parameters {
+		names = append(names, name)
+	}
+	sort.Strings(names)
+	for _, name := range names {
+		s.Parameters = append(s.Parameters, model.ParameterSpec{Name: name, Value: w.Parameters[name]})
+	}
+	s.Materials = make([]model.MaterialSpec, len(w.Materials))
+	for i, m := range w.Materials {
+		s.Materials[i] = model.MaterialSpec{
+			ID: m.ID, ElasticModulus: value(m.ElasticModulus), ShearModulus: optional(m.ShearModulus),
+			WeightDensity: optional(m.WeightDensity), TensionLimit: optional(m.TensionLimit),
+			CompressionLimit: optional(m.CompressionLimit), CarbonFactor: optional(m.CarbonFactor),
+			ThermalExpansion: optional(m.ThermalExpansion),
+		}
+	}
+	s.Sections = make([]model.SectionSpec, len(w.Sections))
+	for i, c := range w.Sections {
+		s.Sections[i] = model.SectionSpec{ID: c.ID, Area: value(c.Area), SecondMoment: optional(c.SecondMoment),
+			SecondMomentY: optional(c.SecondMomentY), TorsionConstant: optional(c.TorsionConstant)}
+	}
+	s.Nodes = make([]model.NodeSpec, len(w.Nodes))
+	for i, n := range w.Nodes {
+		s.Nodes[i] = model.NodeSpec{ID: n.ID, At: values(n.At)}
+	}
+	s.Members = make([]model.MemberSpec, len(w.Members))
+	for i, m := range w.Members {
+		s.Members[i] = model.MemberSpec{ID: m.ID, Ends: m.Ends, Material: m.Material, Section: m.Section,
+			Type: m.Type, Orientation: m.Orientation, BucklingFactor: m.BucklingFactor}
+	}
+	s.Supports = make([]model.SupportSpec, len(w.Supports))
+	for i, p := range w.Supports {
+		s.Supports[i] = model.SupportSpec{Node: p.Node, Fix: p.Fix, Springs: p.Springs, Displacement: p.Displacement}
+	}
+	s.LoadCases = make([]model.LoadCaseSpec, len(w.LoadCases))
+	for i, c := range w.LoadCases {
+		lc := model.LoadCaseSpec{ID: c.ID, SelfWeight: c.SelfWeight}
+		for _, l := range c.Loads {
+			lc.Loads = append(lc.Loads, model.NodalLoadSpec{Node: l.Node, Force: values(l.Force), Moment: values(l.Moment)})
+		}
+		for _, l := range c.MemberLoads {
+			lc.MemberLoads = append(lc.MemberLoads, model.MemberLoadSpec{
+				Member: l.Member, Kind: l.Kind, Axes: l.Axes, Value: values(l.Value), EndValue: values(l.EndValue),
+				Distance: optional(l.Distance), Strain: optional(l.Strain), TemperatureChange: optional(l.TemperatureChange),
+			})
+		}
+		s.LoadCases[i] = lc
+	}
+	s.Combos = make([]model.CombinationSpec, len(w.Combinations))
+	for i, c := range w.Combinations {
+		s.Combos[i] = model.CombinationSpec{ID: c.ID, Factors: c.Factors}
+	}
+	return s
+}
+
+func value(n protocol.Number) model.Value {
+	if n.IsExpr {
+		return model.Expr(n.Expr)
+	}
+	return model.Num(n.Value)
+}
+
+func optional(n *protocol.Number) *model.Value {
+	if n == nil {
+		return nil
+	}
+	v := value(*n)
+	return &v
+}
+
+func values(ns []protocol.Number) []model.Value {
+	if ns == nil {
+		return nil
+	}
+	out := make([]model.Value, len(ns))
+	for i, n := range ns {
+		out[i] = value(n)
+	}
+	return out
+}
