@@ -4,6 +4,7 @@ package protocol
 // the schema generator.
 func MethodTypes() []any {
 	return []any{
-		SolveParams{}, ReciprocateParams{}, LoadPathParams{}, SweepParams{}, LayoutParams{},
+		SolveParams{}, SolveResult{}, Mechanism{},
+		ReciprocateParams{}, LoadPathParams{}, SweepParams{}, LayoutParams{},
 	}
 }

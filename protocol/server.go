@@ -151,6 +151,7 @@ type call struct {
 	cancel context.CancelCauseFunc
 	mu     sync.Mutex
 	done   bool
+	start  time.Time
 	last   map[string]time.Time
 }
 
@@ -433,6 +434,9 @@ func (s *Server) run(c *call, w *writer) (resp *Response) {
 	if err := context.Cause(c.ctx); err != nil {
 		return errorResponse(c.id, s.contextError(c.ctx))
 	}
+	c.mu.Lock()
+	c.start = time.Now()
+	c.mu.Unlock()
 	result, err := s.methods[c.method](c.ctx, c.params, &stream{s: s, c: c, w: w})
 	if err == nil {
 		if c.ctx.Err() != nil && context.Cause(c.ctx) != nil && !errors.Is(context.Cause(c.ctx), context.Canceled) {
@@ -493,15 +497,21 @@ func marshalResponse(r *Response) []byte {
 	return b
 }
 
-// stream sends a call's progress notifications, at most one per stage
-// every 100 ms unless they carry a partial result or finish the stage.
+// stream sends a call's progress notifications. Notifications without a
+// partial result start only once the request has run for progressDelay (a
+// small request gets no chatter), and then come at most one per stage
+// every progressInterval unless they start or finish the stage. Partial
+// results are always sent.
 type stream struct {
 	s *Server
 	c *call
 	w *writer
 }
 
-const progressInterval = 100 * time.Millisecond
+const (
+	progressDelay    = 50 * time.Millisecond
+	progressInterval = 100 * time.Millisecond
+)
 
 func (st *stream) Progress(stage string, done, total int, partial any) {
 	c := st.c
@@ -511,6 +521,10 @@ func (st *stream) Progress(stage string, done, total int, partial any) {
 		return
 	}
 	now := time.Now()
+	if partial == nil && now.Sub(c.start) < progressDelay {
+		c.mu.Unlock()
+		return
+	}
 	if partial == nil && done != total && done != 0 {
 		if last, ok := c.last[stage]; ok && now.Sub(last) < progressInterval {
 			c.mu.Unlock()

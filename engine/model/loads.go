@@ -137,21 +137,27 @@ func (c *compiler) loadCases() {
 func (c *compiler) nodalLoad(ci, j int) {
 	ls := &c.spec.LoadCases[ci].Loads[j]
 	load := &c.m.Cases[ci].Nodal[j]
-	base := "load_cases/" + strconv.Itoa(ci) + "/loads/" + strconv.Itoa(j)
+	// The path is built only when needed: large models have a load at
+	// almost every node, and nearly all of them are plain numbers.
+	base := func() string { return "load_cases/" + strconv.Itoa(ci) + "/loads/" + strconv.Itoa(j) }
 	if n, ok := c.nodeIndex[ls.Node]; ok {
 		load.Node = n
 	} else {
 		load.Node = -1
-		c.problem(base+"/node", "load names node %q, which does not exist", ls.Node)
+		c.problem(base()+"/node", "load names node %q, which does not exist", ls.Node)
 	}
 	if c.dim == 0 {
 		return
 	}
 	if len(ls.Force) != c.dim && ls.Force != nil {
-		c.problem(base+"/force", "force has %d entries; a %dD model needs %d", len(ls.Force), c.dim, c.dim)
+		c.problem(base()+"/force", "force has %d entries; a %dD model needs %d", len(ls.Force), c.dim, c.dim)
 	} else {
 		for k, v := range ls.Force {
-			load.Force[k] = c.fast(v, pathf("%s/force/%d", base, k), binding{target: targetNodal, group: ci,
+			if !v.IsExpr && finite(v.Num) {
+				load.Force[k] = v.Num
+				continue
+			}
+			load.Force[k] = c.fast(v, pathf("%s/force/%d", base(), k), binding{target: targetNodal, group: ci,
 				set: func(m *Model, x float64) { m.Cases[ci].Nodal[j].Force[k] = x }})
 		}
 	}
@@ -160,7 +166,7 @@ func (c *compiler) nodalLoad(ci, j int) {
 		moments = 1
 	}
 	if ls.Moment != nil && len(ls.Moment) != moments {
-		c.problem(base+"/moment", "moment has %d entries; a %dD model needs %d", len(ls.Moment), c.dim, moments)
+		c.problem(base()+"/moment", "moment has %d entries; a %dD model needs %d", len(ls.Moment), c.dim, moments)
 		return
 	}
 	for k, v := range ls.Moment {
@@ -168,7 +174,11 @@ func (c *compiler) nodalLoad(ci, j int) {
 		if c.dim == 2 {
 			slot = 2 // about z
 		}
-		load.Moment[slot] = c.fast(v, pathf("%s/moment/%d", base, k), binding{target: targetNodal, group: ci,
+		if !v.IsExpr && finite(v.Num) {
+			load.Moment[slot] = v.Num
+			continue
+		}
+		load.Moment[slot] = c.fast(v, pathf("%s/moment/%d", base(), k), binding{target: targetNodal, group: ci,
 			set: func(m *Model, x float64) { m.Cases[ci].Nodal[j].Moment[slot] = x }})
 	}
 }
@@ -176,7 +186,7 @@ func (c *compiler) nodalLoad(ci, j int) {
 func (c *compiler) memberLoad(ci, j int, memberIndex map[string]int) {
 	ls := &c.spec.LoadCases[ci].MemberLoads[j]
 	load := &c.m.Cases[ci].MemberLoads[j]
-	base := "load_cases/" + strconv.Itoa(ci) + "/member_loads/" + strconv.Itoa(j)
+	base := memberLoadPath(ci, j)
 	bind := func(set func(*MemberLoad, float64)) binding {
 		return binding{target: targetMemberLoads, group: ci,
 			set: func(m *Model, x float64) { set(&m.Cases[ci].MemberLoads[j], x) }}
@@ -201,6 +211,10 @@ func (c *compiler) memberLoad(ci, j int, memberIndex map[string]int) {
 			return
 		}
 		for k, v := range vals {
+			if !v.IsExpr && finite(v.Num) {
+				dst[k] = v.Num
+				continue
+			}
 			dst[k] = c.fast(v, pathf("%s/%s/%d", base, name, k), bind(func(ml *MemberLoad, x float64) {
 				if end {
 					ml.EndValue[k] = x
@@ -248,6 +262,12 @@ func (c *compiler) memberLoad(ci, j int, memberIndex map[string]int) {
 	default:
 		c.problem(base+"/kind", "member load kind %q is not one of uniform, linear, point, thermal", ls.Kind)
 	}
+}
+
+// memberLoadPath returns the pointer of a member load: one short string
+// per member load, cheap beside the load's own checks.
+func memberLoadPath(ci, j int) string {
+	return "load_cases/" + strconv.Itoa(ci) + "/member_loads/" + strconv.Itoa(j)
 }
 
 // thermal sets a thermal load's free strain: strain when given, else

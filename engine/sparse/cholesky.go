@@ -1,0 +1,521 @@
+package sparse
+
+import (
+	"context"
+	"fmt"
+	"math"
+	"runtime"
+	"slices"
+	"sort"
+	"strings"
+	"sync"
+	"sync/atomic"
+	"time"
+
+	"gonum.org/v1/gonum/blas"
+	"gonum.org/v1/gonum/blas/blas64"
+	"gonum.org/v1/gonum/lapack/lapack64"
+
+	"gusset/engine/progress"
+)
+
+// Options controls Factorize. The zero value is ready to use.
+type Options struct {
+	// Perm is the fill-reducing order, perm[new] = old; nil means Order(a).
+	Perm []int
+	// Workers is the number of goroutines that factorise independent
+	// subtrees of the elimination tree; 0 means runtime.GOMAXPROCS(0). The
+	// factor is bit-identical for every value.
+	Workers int
+	// Reporter receives the stages "ordering", "symbolic" and "factorising"
+	// (done and total count supernodes); nil reports nothing.
+	Reporter progress.Reporter
+	// PivotTolerance is the smallest accepted pivot relative to the largest
+	// absolute diagonal entry of A; 0 means 1e-13.
+	PivotTolerance float64
+	// Regularize makes Factorize succeed on deficient pivots: they are
+	// listed by Cholesky.Deficient instead of returned as a *PivotError.
+	Regularize bool
+}
+
+// PivotError reports the columns whose pivots were non-positive, NaN or at
+// most PivotTolerance times the largest diagonal entry: the freedoms that the
+// rest of the matrix does not restrain. Columns are original (unpermuted)
+// indices in ascending order; Pivots holds the pivot found for each, that is
+// the diagonal of the Schur complement when the column was reached.
+type PivotError struct {
+	Columns []int
+	Pivots  []float64
+}
+
+// Error lists the first deficient columns.
+func (e *PivotError) Error() string {
+	var b strings.Builder
+	fmt.Fprintf(&b, "sparse: matrix not positive definite: %d deficient pivot(s) at column(s)", len(e.Columns))
+	for k, c := range e.Columns {
+		if k == 8 {
+			b.WriteString(" ...")
+			break
+		}
+		fmt.Fprintf(&b, " %d (%.3g)", c, e.Pivots[k])
+	}
+	return b.String()
+}
+
+// Stats describes a factorisation.
+type Stats struct {
+	N          int     // order of the matrix
+	NonzerosA  int     // stored entries of A (lower triangle and diagonal)
+	NonzerosL  int     // entries of L (lower triangle and diagonal) implied by the structure of A
+	StoredL    int     // entries of L as stored, including the explicit zeros of merged supernodes
+	Supernodes int     // number of supernodes
+	Flops      float64 // floating-point operations of the numeric factorisation
+	Ordering   time.Duration
+	Symbolic   time.Duration
+	Numeric    time.Duration
+}
+
+// Cholesky is the sparse factorisation P·A·Pᵀ = L·Lᵀ of a symmetric positive
+// definite matrix A. It is safe for concurrent use by several solves.
+type Cholesky struct {
+	sym       *symbolic
+	val       []float64
+	normA     float64 // ‖A‖₁ = ‖A‖∞
+	deficient []int
+	pivots    []float64
+	stats     Stats
+	condOnce  sync.Once
+	condition float64
+}
+
+// defect records one deficient pivot.
+type defect struct {
+	column int // permuted index
+	pivot  float64
+}
+
+// Factorize computes the Cholesky factorisation of the symmetric matrix a.
+// It returns ctx.Err() when ctx is cancelled, which it checks between
+// supernodes, and a *PivotError naming every deficient column unless
+// opt.Regularize is set. Factorize panics if a is malformed or opt.Perm is
+// not a permutation.
+func Factorize(ctx context.Context, a *Matrix, opt Options) (*Cholesky, error) {
+	a.check()
+	rep := progress.Or(opt.Reporter)
+	tol := opt.PivotTolerance
+	if tol == 0 {
+		tol = 1e-13
+	}
+	workers := opt.Workers
+	if workers <= 0 {
+		workers = runtime.GOMAXPROCS(0)
+	}
+	if err := ctx.Err(); err != nil {
+		return nil, err
+	}
+	start := time.Now()
+	perm := opt.Perm
+	if perm == nil {
+		rep.Progress("ordering", 0, 1, nil)
+		perm = Order(a)
+		rep.Progress("ordering", 1, 1, nil)
+	} else {
+		validPerm(perm, a.N)
+	}
+	orderTime := time.Since(start)
+	if err := ctx.Err(); err != nil {
+		return nil, err
+	}
+
+	start = time.Now()
+	rep.Progress("symbolic", 0, 1, nil)
+	sym := analyse(a, perm)
+	rep.Progress("symbolic", 1, 1, nil)
+	symTime := time.Since(start)
+
+	start = time.Now()
+	c := &Cholesky{sym: sym, normA: a.NormInf()}
+	maxDiag := 0.0
+	for j := 0; j < a.N; j++ {
+		if p := a.ColPtr[j]; p < a.ColPtr[j+1] && a.RowIdx[p] == j {
+			if v := abs(a.Val[p]); v > maxDiag && !math.IsInf(v, 0) {
+				maxDiag = v // NaN fails the comparison and is skipped
+			}
+		}
+	}
+	f := &numeric{
+		sym:       sym,
+		aVal:      a.Val,
+		val:       make([]float64, sym.valPtr[sym.nsuper]),
+		threshold: tol * maxDiag,
+		updates:   make([][]float64, sym.nsuper),
+		defects:   make([][]defect, sym.nsuper),
+		rep:       rep,
+		done:      ctx.Done(),
+	}
+	if err := f.run(workers); err != nil {
+		return nil, ctx.Err()
+	}
+	c.val = f.val
+	for _, ds := range f.defects {
+		for _, d := range ds {
+			c.deficient = append(c.deficient, sym.perm[d.column])
+			c.pivots = append(c.pivots, d.pivot)
+		}
+	}
+	sortDefects(c.deficient, c.pivots)
+	c.stats = Stats{
+		N:          a.N,
+		NonzerosA:  a.Nonzeros(),
+		NonzerosL:  sym.nnzL,
+		StoredL:    sym.nnzStored,
+		Supernodes: sym.nsuper,
+		Flops:      sym.flops,
+		Ordering:   orderTime,
+		Symbolic:   symTime,
+		Numeric:    time.Since(start),
+	}
+	if len(c.deficient) > 0 && !opt.Regularize {
+		return nil, &PivotError{Columns: c.deficient, Pivots: c.pivots}
+	}
+	return c, nil
+}
+
+func sortDefects(cols []int, pivots []float64) {
+	idx := make([]int, len(cols))
+	for i := range idx {
+		idx[i] = i
+	}
+	sort.Slice(idx, func(x, y int) bool { return cols[idx[x]] < cols[idx[y]] })
+	c2, p2 := slices.Clone(cols), slices.Clone(pivots)
+	for k, i := range idx {
+		cols[k], pivots[k] = c2[i], p2[i]
+	}
+}
+
+// Deficient returns the original indices, ascending, of the columns whose
+// pivots were replaced by 1 with their off-diagonal entries in L zeroed (the
+// freedoms treated as constrained); it is empty for a positive definite A.
+func (c *Cholesky) Deficient() []int { return slices.Clone(c.deficient) }
+
+// Stats returns the sizes, work and timings of the factorisation.
+func (c *Cholesky) Stats() Stats { return c.stats }
+
+// errCancelled is internal: Factorize turns it into ctx.Err().
+var errCancelled = fmt.Errorf("sparse: cancelled")
+
+// numeric is the state of one multifrontal numeric factorisation. Each
+// supernode s assembles A's columns and its children's update matrices into
+// its block of L, factorises the diagonal block, solves for the rows below
+// it and leaves the update matrix U_s = −L21·L21ᵀ plus its children's
+// contributions for its parent. Children are assembled in ascending order,
+// so the operations on every entry are the same whatever the scheduling.
+type numeric struct {
+	sym       *symbolic
+	aVal      []float64
+	val       []float64
+	threshold float64
+	updates   [][]float64 // update matrix of each supernode, row-major upper, until its parent consumes it
+	defects   [][]defect
+	rep       progress.Reporter
+	done      <-chan struct{}
+	finished  atomic.Int64
+	pool      bufferPool
+}
+
+// workspace is one worker's scratch space.
+type workspace struct {
+	local  []int // local position of each permuted row in the current supernode
+	rel    []int
+	backup []float64
+}
+
+func newWorkspace(n int) *workspace {
+	return &workspace{local: make([]int, n)}
+}
+
+func (f *numeric) cancelled() bool {
+	select {
+	case <-f.done:
+		return true
+	default:
+		return false
+	}
+}
+
+func (f *numeric) report() {
+	total := f.sym.nsuper
+	k := int(f.finished.Add(1))
+	step := max(total/100, 1)
+	if k%step == 0 || k == total {
+		f.rep.Progress("factorising", k, total, nil)
+	}
+}
+
+// run factorises all supernodes with the given number of workers.
+func (f *numeric) run(workers int) error {
+	sym := f.sym
+	ns := sym.nsuper
+	f.rep.Progress("factorising", 0, ns, nil)
+	if workers == 1 || ns < 2 {
+		w := newWorkspace(sym.n)
+		for s := 0; s < ns; s++ {
+			if f.cancelled() {
+				return errCancelled
+			}
+			f.supernode(w, s)
+			f.report()
+		}
+		return nil
+	}
+
+	// Subtrees whose work is below a share of the total go to one worker
+	// each, in postorder; the supernodes above them are single tasks that
+	// become ready when their last child finishes.
+	subtree := slices.Clone(sym.cost)
+	firstDesc := make([]int, ns)
+	for s := range firstDesc {
+		firstDesc[s] = s
+	}
+	for s := 0; s < ns; s++ {
+		for _, c := range sym.childList[sym.childPtr[s]:sym.childPtr[s+1]] {
+			firstDesc[s] = min(firstDesc[s], firstDesc[c])
+			subtree[s] += subtree[c]
+		}
+	}
+	total := 0.0
+	for s := 0; s < ns; s++ {
+		if sym.superParent[s] < 0 {
+			total += subtree[s]
+		}
+	}
+	limit := total / float64(4*workers)
+	isTask := make([]bool, ns) // a subtree task rooted here
+	var tasks []int
+	pending := make([]atomic.Int32, ns)
+	for s := 0; s < ns; s++ {
+		p := sym.superParent[s]
+		if subtree[s] <= limit && (p < 0 || subtree[p] > limit) {
+			isTask[s] = true
+			tasks = append(tasks, s)
+		}
+	}
+	var top []int
+	for s := 0; s < ns; s++ {
+		if subtree[s] > limit {
+			top = append(top, s)
+			pending[s].Store(int32(sym.childPtr[s+1] - sym.childPtr[s]))
+			if sym.childPtr[s+1] == sym.childPtr[s] {
+				tasks = append(tasks, s)
+			}
+		}
+	}
+	// Largest first, for balance; ties by index keep it reproducible.
+	sort.SliceStable(tasks, func(x, y int) bool { return subtree[tasks[x]] > subtree[tasks[y]] })
+	ready := make(chan int, ns)
+	for _, t := range tasks {
+		ready <- t
+	}
+	remaining := atomic.Int64{}
+	remaining.Store(int64(len(tasks) - countLeaves(sym, top) + len(top)))
+	quit := make(chan struct{})
+	var quitOnce sync.Once
+	stop := func() { quitOnce.Do(func() { close(quit) }) }
+	var failed atomic.Bool
+	var wg sync.WaitGroup
+	for range workers {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			w := newWorkspace(sym.n)
+			for {
+				var t int
+				select {
+				case <-quit:
+					return
+				case t = <-ready:
+				}
+				lo := t
+				if isTask[t] {
+					lo = firstDesc[t]
+				}
+				for s := lo; s <= t; s++ {
+					if f.cancelled() {
+						failed.Store(true)
+						stop()
+						return
+					}
+					f.supernode(w, s)
+					f.report()
+				}
+				if p := sym.superParent[t]; p >= 0 && pending[p].Add(-1) == 0 {
+					ready <- p
+				}
+				if remaining.Add(-1) == 0 {
+					stop()
+					return
+				}
+			}
+		}()
+	}
+	wg.Wait()
+	if failed.Load() {
+		return errCancelled
+	}
+	return nil
+}
+
+// countLeaves counts the top supernodes without children, which are already
+// among the initial tasks.
+func countLeaves(sym *symbolic, top []int) int {
+	k := 0
+	for _, s := range top {
+		if sym.childPtr[s+1] == sym.childPtr[s] {
+			k++
+		}
+	}
+	return k
+}
+
+// supernode factorises supernode s; its children must be finished.
+func (f *numeric) supernode(w *workspace, s int) {
+	sym := f.sym
+	first := sym.superFirst[s]
+	ns := sym.superFirst[s+1] - first
+	rows := sym.rows[sym.rowPtr[s]:sym.rowPtr[s+1]]
+	rs := len(rows)
+	m := ns + rs
+	block := f.val[sym.valPtr[s]:sym.valPtr[s+1]]
+	local := w.local
+	for k := 0; k < ns; k++ {
+		local[first+k] = k
+	}
+	for t, r := range rows {
+		local[r] = ns + t
+	}
+
+	// Assemble A. Row k of block is column first+k of L.
+	for k := 0; k < ns; k++ {
+		j := first + k
+		dst := block[k*m : (k+1)*m]
+		for q := sym.lowPtr[j]; q < sym.lowPtr[j+1]; q++ {
+			dst[local[sym.lowRow[q]]] += f.aVal[sym.lowSrc[q]]
+		}
+	}
+	children := sym.childList[sym.childPtr[s]:sym.childPtr[s+1]]
+	// Children's update entries in this supernode's columns.
+	for _, c := range children {
+		crows := sym.rows[sym.rowPtr[c]:sym.rowPtr[c+1]]
+		rc := len(crows)
+		u := f.updates[c]
+		rel := w.rel[:0]
+		for _, r := range crows {
+			rel = append(rel, local[r])
+		}
+		w.rel = rel
+		for b := 0; b < rc && rel[b] < ns; b++ {
+			dst := block[rel[b]*m : (rel[b]+1)*m]
+			src := u[b*rc : (b+1)*rc]
+			for a := b; a < rc; a++ {
+				dst[rel[a]] += src[a]
+			}
+		}
+	}
+
+	f.factorDiagonal(w, s, block, ns, m)
+
+	if rs > 0 {
+		lower := blas64.General{Rows: ns, Cols: rs, Stride: m, Data: block[ns:]}
+		blas64.Trsm(blas.Left, blas.Trans, 1,
+			blas64.Triangular{Uplo: blas.Upper, Diag: blas.NonUnit, N: ns, Stride: m, Data: block},
+			lower)
+		for _, d := range f.defects[s] {
+			clear(block[(d.column-first)*m+ns : (d.column-first+1)*m])
+		}
+		u := f.pool.get(rs * rs)
+		updateMatrix(lower, u)
+		for _, c := range children {
+			crows := sym.rows[sym.rowPtr[c]:sym.rowPtr[c+1]]
+			rc := len(crows)
+			uc := f.updates[c]
+			rel := w.rel[:0]
+			for _, r := range crows {
+				rel = append(rel, local[r]-ns)
+			}
+			w.rel = rel
+			b := 0
+			for b < rc && rel[b] < 0 {
+				b++
+			}
+			for ; b < rc; b++ {
+				dst := u[rel[b]*rs : (rel[b]+1)*rs]
+				src := uc[b*rc : (b+1)*rc]
+				for a := b; a < rc; a++ {
+					dst[rel[a]] += src[a]
+				}
+			}
+		}
+		f.updates[s] = u
+	}
+	for _, c := range children {
+		f.pool.put(f.updates[c])
+		f.updates[c] = nil
+	}
+}
+
+// factorDiagonal factorises the ns×ns diagonal block in place (upper
+// triangle of the row-major block = L11ᵀ). The dense kernel does the work
+// when every pivot is acceptable; otherwise the block is redone column by
+// column from a saved copy, replacing each deficient pivot by 1 and zeroing
+// the rest of its column of L, so that all deficient columns are found.
+func (f *numeric) factorDiagonal(w *workspace, s int, block []float64, ns, m int) {
+	if cap(w.backup) < ns*ns {
+		w.backup = make([]float64, ns*ns)
+	}
+	backup := w.backup[:ns*ns]
+	for k := 0; k < ns; k++ {
+		copy(backup[k*ns+k:(k+1)*ns], block[k*m+k:k*m+ns])
+	}
+	_, ok := lapack64.Potrf(blas64.Symmetric{Uplo: blas.Upper, N: ns, Stride: m, Data: block})
+	if ok {
+		for k := 0; k < ns; k++ {
+			d := block[k*m+k]
+			if !(d*d > f.threshold) || math.IsInf(d, 1) {
+				ok = false
+				break
+			}
+		}
+	}
+	if ok {
+		return
+	}
+	for k := 0; k < ns; k++ {
+		copy(block[k*m+k:k*m+ns], backup[k*ns+k:(k+1)*ns])
+	}
+	first := f.sym.superFirst[s]
+	for k := 0; k < ns; k++ {
+		row := block[k*m : k*m+ns]
+		d := row[k]
+		if !(d > f.threshold) || math.IsInf(d, 1) {
+			f.defects[s] = append(f.defects[s], defect{column: first + k, pivot: d})
+			row[k] = 1
+			clear(row[k+1:])
+			continue
+		}
+		r := math.Sqrt(d)
+		row[k] = r
+		for l := k + 1; l < ns; l++ {
+			row[l] /= r
+		}
+		for i := k + 1; i < ns; i++ {
+			lki := row[i]
+			if lki == 0 {
+				continue
+			}
+			dst := block[i*m : i*m+ns]
+			for l := i; l < ns; l++ {
+				dst[l] -= lki * row[l]
+			}
+		}
+	}
+}

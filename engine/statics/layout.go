@@ -1,0 +1,165 @@
+package statics
+
+import (
+	"math"
+
+	"gusset/engine/model"
+)
+
+// Freedom is one nodal freedom: a node index and a component (model.X ..
+// model.RZ).
+type Freedom struct {
+	Node      int
+	Component int
+}
+
+// Quantity names one independent member force.
+type Quantity string
+
+// The member force quantities. Moments are about the member's local axes
+// (see MemberAxes), positive by the right-hand rule, acting on the member at
+// the named end.
+const (
+	Axial    Quantity = "axial"     // axial force, tension positive
+	Torsion  Quantity = "torsion"   // torque about the member axis (3D beams)
+	MomentZ1 Quantity = "moment_z1" // bending moment about local z at end 1
+	MomentZ2 Quantity = "moment_z2" // bending moment about local z at end 2
+	MomentY1 Quantity = "moment_y1" // bending moment about local y at end 1 (3D)
+	MomentY2 Quantity = "moment_y2" // bending moment about local y at end 2 (3D)
+)
+
+// Column is one column of the equilibrium matrix: a member and the force
+// quantity it carries.
+type Column struct {
+	Member   int
+	Quantity Quantity
+}
+
+// Layout describes the rows and columns of a model's equilibrium matrix.
+type Layout struct {
+	// Rows are the unconstrained freedoms, node by node, components in the
+	// order X, Y, (Z), then rotations at nodes that a beam touches.
+	Rows []Freedom
+	// Columns are the member forces, member by member.
+	Columns []Column
+	// Constraints counts the fixed components at nodes where the component
+	// exists (translations everywhere, rotations only at beam nodes).
+	Constraints int
+	// HasBeams reports whether any member is a beam.
+	HasBeams bool
+}
+
+// RotationalNodes reports, per node, whether a beam touches it (and so
+// whether the node has rotational freedoms).
+func RotationalNodes(m *model.Model) []bool {
+	rot := make([]bool, m.NodeCount())
+	for _, mem := range m.Members {
+		if mem.Kind == model.Beam {
+			rot[mem.Ends[0]] = true
+			rot[mem.Ends[1]] = true
+		}
+	}
+	return rot
+}
+
+// FixedComponents returns, per node, the union of the components fixed by
+// the model's supports.
+func FixedComponents(m *model.Model) [][6]bool {
+	fixed := make([][6]bool, m.NodeCount())
+	for _, s := range m.Supports {
+		for c := range 6 {
+			if s.Fixed[c] {
+				fixed[s.Node][c] = true
+			}
+		}
+	}
+	return fixed
+}
+
+// NodeComponents returns the components a node has in a model of dimension
+// dim: the translations, then the rotations when rotational is true.
+func NodeComponents(dim int, rotational bool) []int {
+	switch {
+	case dim == 2 && rotational:
+		return []int{model.X, model.Y, model.RZ}
+	case dim == 2:
+		return []int{model.X, model.Y}
+	case rotational:
+		return []int{model.X, model.Y, model.Z, model.RX, model.RY, model.RZ}
+	}
+	return []int{model.X, model.Y, model.Z}
+}
+
+// NewLayout returns the layout of m's equilibrium matrix.
+func NewLayout(m *model.Model) *Layout {
+	rot := RotationalNodes(m)
+	fixed := FixedComponents(m)
+	l := &Layout{}
+	for n := range m.NodeCount() {
+		for _, c := range NodeComponents(m.Dim, rot[n]) {
+			if fixed[n][c] {
+				l.Constraints++
+				continue
+			}
+			l.Rows = append(l.Rows, Freedom{Node: n, Component: c})
+		}
+	}
+	for e, mem := range m.Members {
+		if mem.Kind == model.Bar {
+			l.Columns = append(l.Columns, Column{e, Axial})
+			continue
+		}
+		l.HasBeams = true
+		if m.Dim == 2 {
+			l.Columns = append(l.Columns, Column{e, Axial}, Column{e, MomentZ1}, Column{e, MomentZ2})
+			continue
+		}
+		l.Columns = append(l.Columns, Column{e, Axial}, Column{e, Torsion},
+			Column{e, MomentZ1}, Column{e, MomentZ2}, Column{e, MomentY1}, Column{e, MomentY2})
+	}
+	return l
+}
+
+// MemberAxes returns the local axes of member e as the rows of a 3×3
+// matrix: x along the member from its first end to its second, y the part
+// of the member's Orientation normal to x (default: global z, or global y
+// when the member is vertical, that is within 1e-6 rad of global z), and
+// z = x × y. In a 2D model y is x turned a quarter turn anticlockwise and
+// z is global z. ok is false when the given orientation is parallel to the
+// member (or the member has zero length).
+func MemberAxes(m *model.Model, e int) (axes [3][3]float64, ok bool) {
+	mem := m.Members[e]
+	a, b := m.Node(mem.Ends[0]), m.Node(mem.Ends[1])
+	x := [3]float64{b[0] - a[0], b[1] - a[1], b[2] - a[2]}
+	length := math.Sqrt(dot(x, x))
+	if length == 0 {
+		return axes, false
+	}
+	for i := range x {
+		x[i] /= length
+	}
+	if m.Dim == 2 {
+		return [3][3]float64{x, {-x[1], x[0], 0}, {0, 0, 1}}, true
+	}
+	o := mem.Orientation
+	if o == ([3]float64{}) {
+		o = [3]float64{0, 0, 1}
+		if math.Abs(x[2]) > 1-1e-12 || math.Hypot(x[0], x[1]) < 1e-6 {
+			o = [3]float64{0, 1, 0}
+		}
+	}
+	// Gram–Schmidt: y is o less its component along x.
+	ox := dot(o, x)
+	y := [3]float64{o[0] - ox*x[0], o[1] - ox*x[1], o[2] - ox*x[2]}
+	ny := math.Sqrt(dot(y, y))
+	if ny <= 1e-9*math.Sqrt(dot(o, o)) {
+		return axes, false
+	}
+	for i := range y {
+		y[i] /= ny
+	}
+	z := [3]float64{x[1]*y[2] - x[2]*y[1], x[2]*y[0] - x[0]*y[2], x[0]*y[1] - x[1]*y[0]}
+	return [3][3]float64{x, y, z}, true
+}
+
+func dot(a, b [3]float64) float64 { return a[0]*b[0] + a[1]*b[1] + a[2]*b[2] }

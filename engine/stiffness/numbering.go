@@ -1,0 +1,111 @@
+package stiffness
+
+import (
+	"gusset/engine/model"
+	"gusset/engine/statics"
+)
+
+// numbering maps node components to global freedoms and global freedoms to
+// equations (the rows of the stiffness matrix of unconstrained freedoms).
+type numbering struct {
+	dim        int
+	rotational []bool    // per node: has rotations
+	first      []int     // per node: its first global freedom
+	total      int       // global freedoms
+	node       []int     // per freedom: its node
+	component  []int     // per freedom: model.X .. model.RZ
+	equation   []int     // per freedom: equation index, or -1 when fixed
+	prescribed []float64 // per freedom: prescribed value (fixed freedoms)
+	spring     []float64 // per freedom: spring stiffness (free freedoms)
+	equations  int
+	// freedomOf lists, per equation, its global freedom.
+	freedomOf []int
+	// supportOf gives, per freedom, the support that carries its reaction
+	// (the first that fixes or springs it), or -1.
+	supportOf []int
+	anyPrescribed bool
+}
+
+// componentOffset returns the position of component c within a node's
+// freedoms in a model of dimension dim.
+func componentOffset(dim, c int) int {
+	if dim == 2 && c == model.RZ {
+		return 2
+	}
+	return c
+}
+
+// hasComponent reports whether component c exists in a model of dimension
+// dim at a node with (or without) rotations.
+func hasComponent(dim, c int, rotational bool) bool {
+	if c < dim {
+		return true
+	}
+	if !rotational {
+		return false
+	}
+	return c >= model.RX && (dim == 3 || c == model.RZ)
+}
+
+func newNumbering(m *model.Model) *numbering {
+	nb := &numbering{dim: m.Dim, rotational: statics.RotationalNodes(m)}
+	nb.first = make([]int, m.NodeCount())
+	for n := range m.NodeCount() {
+		nb.first[n] = nb.total
+		for _, c := range statics.NodeComponents(m.Dim, nb.rotational[n]) {
+			nb.node = append(nb.node, n)
+			nb.component = append(nb.component, c)
+			nb.total++
+		}
+	}
+	nb.equation = make([]int, nb.total)
+	nb.prescribed = make([]float64, nb.total)
+	nb.spring = make([]float64, nb.total)
+	nb.supportOf = make([]int, nb.total)
+	for i := range nb.supportOf {
+		nb.supportOf[i] = -1
+	}
+	fixed := make([]bool, nb.total)
+	for si, s := range m.Supports {
+		for c := range 6 {
+			if !hasComponent(m.Dim, c, nb.rotational[s.Node]) {
+				continue
+			}
+			f := nb.first[s.Node] + componentOffset(m.Dim, c)
+			switch {
+			case s.Fixed[c]:
+				if !fixed[f] {
+					nb.prescribed[f] = s.Displacement[c]
+					nb.anyPrescribed = nb.anyPrescribed || s.Displacement[c] != 0
+				}
+				fixed[f] = true
+			case s.Spring[c] > 0:
+				nb.spring[f] += s.Spring[c]
+			default:
+				continue
+			}
+			if nb.supportOf[f] < 0 {
+				nb.supportOf[f] = si
+			}
+		}
+	}
+	for f := range nb.total {
+		if fixed[f] {
+			nb.equation[f] = -1
+			nb.spring[f] = 0
+			continue
+		}
+		nb.equation[f] = nb.equations
+		nb.freedomOf = append(nb.freedomOf, f)
+		nb.equations++
+	}
+	return nb
+}
+
+// freedom returns the global freedom of component c at node n, or -1.
+func (nb *numbering) freedom(n, c int) int {
+	if !hasComponent(nb.dim, c, nb.rotational[n]) {
+		return -1
+	}
+	return nb.first[n] + componentOffset(nb.dim, c)
+}

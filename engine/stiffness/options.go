@@ -1,0 +1,50 @@
+package stiffness
+
+import (
+	"gusset/engine/progress"
+)
+
+// Path selects the linear solver.
+type Path string
+
+// The solver paths.
+const (
+	Auto   Path = ""       // dense up to Options.DenseLimit freedoms, sparse above
+	Dense  Path = "dense"  // gonum's dense Cholesky (O(n²) memory, O(n³) time)
+	Sparse Path = "sparse" // the supernodal sparse Cholesky of package sparse
+)
+
+// Defaults of Options.
+const (
+	DefaultDenseLimit     = 200
+	DefaultStabilityLimit = 1000
+	DefaultPivotTolerance = 1e-13
+)
+
+// Options configures Solve. The zero value is ready to use.
+type Options struct {
+	// Cases lists the ids of the load cases and combinations to return, in
+	// that order; nil means every case, then every combination, in model
+	// order.
+	Cases []string
+	// Reporter receives the stages "assembling", "ordering",
+	// "factorising", "solving" and "recovering"; nil reports nothing.
+	Reporter progress.Reporter
+	// Workers bounds the goroutines of the sparse factorisation; 0 means
+	// GOMAXPROCS.
+	Workers int
+	// DenseLimit is the number of unconstrained freedoms at or below which
+	// the Auto path uses the dense solver; 0 means DefaultDenseLimit.
+	DenseLimit int
+	// Path forces a solver; Auto chooses by DenseLimit.
+	Path Path
+	// StabilityLimit is the largest equilibrium matrix (rows or columns)
+	// for which the stability report is computed by dense SVD (see
+	// statics.Options.DenseLimit); 0 means DefaultStabilityLimit, and a
+	// negative value skips the SVD.
+	StabilityLimit int
+	// PivotTolerance is the smallest accepted pivot of the stiffness
+	// matrix scaled to unit diagonal; a smaller pivot marks a mechanism.
+	// 0 means DefaultPivotTolerance.
+	PivotTolerance float64
+}

@@ -1,0 +1,247 @@
+package stiffness
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"time"
+
+	"gusset/engine/fault"
+	"gusset/engine/model"
+	"gusset/engine/progress"
+	"gusset/engine/statics"
+)
+
+// request is one case or combination to report.
+type request struct {
+	id          string
+	combination bool
+	terms       []model.Term
+}
+
+// Solve analyses m for the requested load cases and combinations. It
+// returns a *fault.Error of kind UnknownCase for an id in opt.Cases that
+// names neither a case nor a combination, InvalidModel for data the
+// analysis cannot use (a moment at a node without rotational freedom,
+// non-positive stiffness, a 3D beam's orientation along its axis, a point
+// load off its member), Unstable for a mechanism (its Detail is a
+// *Mechanism) or a part that no support holds, and ctx.Err() when ctx is
+// cancelled. Warnings report ill-conditioning, member stiffness ratios of
+// 1e12 and more, and disconnected parts.
+func Solve(ctx context.Context, m *model.Model, opt Options) (*Result, error) {
+	rep := progress.Or(opt.Reporter)
+	if opt.DenseLimit <= 0 {
+		opt.DenseLimit = DefaultDenseLimit
+	}
+	if opt.StabilityLimit == 0 {
+		opt.StabilityLimit = DefaultStabilityLimit
+	}
+	if opt.PivotTolerance <= 0 {
+		opt.PivotTolerance = DefaultPivotTolerance
+	}
+	requests, err := requested(m, opt.Cases)
+	if err != nil {
+		return nil, err
+	}
+	nb := newNumbering(m)
+	if err := validate(m, nb); err != nil {
+		return nil, err
+	}
+	res := &Result{}
+	warning, err := checkParts(m, nb)
+	if err != nil {
+		return nil, err
+	}
+	if warning != "" {
+		res.Warnings = append(res.Warnings, warning)
+	}
+	res.Warnings = append(res.Warnings, stiffnessRatio(m)...)
+
+	start := time.Now()
+	stability, err := statics.Analyse(ctx, m, statics.Options{DenseLimit: opt.StabilityLimit})
+	if err != nil {
+		return nil, err
+	}
+	res.Stability = stability
+	res.Stats.Stability = time.Since(start)
+
+	start = time.Now()
+	sys, err := assemble(ctx, m, nb, rep)
+	if err != nil {
+		return nil, err
+	}
+	res.Stats.Assemble = time.Since(start)
+	res.Stats.Freedoms = nb.total
+	res.Stats.Equations = nb.equations
+	res.Stats.NonzerosK = sys.k.Nonzeros()
+	path := opt.Path
+	if path == Auto {
+		path = Sparse
+		if nb.equations <= opt.DenseLimit {
+			path = Dense
+		}
+	}
+	res.Stats.Path = path
+	res.Stats.Order, res.Stats.Factor, err = sys.factorise(ctx, path, opt, rep)
+	var deficient *errDeficient
+	if errors.As(err, &deficient) {
+		if nb.equations <= opt.StabilityLimit {
+			return nil, mechanismError(m, nb, deficient.equations, sys.dense(), sys.scale)
+		}
+		return nil, mechanismError(m, nb, deficient.equations, nil, nil)
+	}
+	if err != nil {
+		return nil, err
+	}
+	res.Stats.NonzerosFactor = sys.fac.nonzeros()
+	res.Stats.ConditionNumber = sys.fac.condition()
+	if c := res.Stats.ConditionNumber; c >= illConditioned {
+		res.Warnings = append(res.Warnings, fmt.Sprintf(
+			"the stiffness matrix is ill-conditioned (condition estimate %.2g after scaling to unit diagonal): about %d of 16 significant digits may be lost",
+			c, digitsLost(c)))
+	}
+
+	start = time.Now()
+	solutions, err := solveCases(ctx, m, nb, sys, requests, rep)
+	if err != nil {
+		return nil, err
+	}
+	res.Stats.Solve = time.Since(start)
+
+	start = time.Now()
+	res.Cases = make([]CaseResult, len(requests))
+	for i, rq := range requests {
+		if err := ctx.Err(); err != nil {
+			return nil, err
+		}
+		rep.Progress("recovering", i, len(requests), nil)
+		u := make([]float64, nb.total)
+		for f := range u {
+			if eq := nb.equation[f]; eq >= 0 {
+				u[f] = solutions.settle(eq)
+				for _, t := range rq.terms {
+					u[f] += t.Factor * solutions.cases[t.Case][eq]
+				}
+			} else {
+				u[f] = nb.prescribed[f]
+			}
+		}
+		cr, err := recoverCase(m, nb, sys, newLoadSet(m, nb, rq.terms), u)
+		if err != nil {
+			return nil, err
+		}
+		cr.ID, cr.Combination = rq.id, rq.combination
+		res.Cases[i] = *cr
+	}
+	rep.Progress("recovering", len(requests), len(requests), nil)
+	res.Stats.Recover = time.Since(start)
+	return res, nil
+}
+
+// illConditioned is the condition estimate from which Solve warns: beyond
+// it fewer than four significant digits are safe (common practice).
+const illConditioned = 1e12
+
+func digitsLost(c float64) int {
+	d := 0
+	for ; c >= 10 && d < 16; c /= 10 {
+		d++
+	}
+	return d
+}
+
+// requested resolves the ids in cases, or lists every case and then every
+// combination.
+func requested(m *model.Model, cases []string) ([]request, error) {
+	var out []request
+	if cases == nil {
+		for i, lc := range m.Cases {
+			out = append(out, request{id: lc.ID, terms: []model.Term{{Case: i, Factor: 1}}})
+		}
+		for _, c := range m.Combinations {
+			out = append(out, request{id: c.ID, combination: true, terms: c.Terms})
+		}
+		return out, nil
+	}
+	for _, id := range cases {
+		if i := m.CaseIndex(id); i >= 0 {
+			out = append(out, request{id: id, terms: []model.Term{{Case: i, Factor: 1}}})
+			continue
+		}
+		if i := m.CombinationIndex(id); i >= 0 {
+			out = append(out, request{id: id, combination: true, terms: m.Combinations[i].Terms})
+			continue
+		}
+		return nil, fault.New(fault.UnknownCase, "no load case or combination is called %q", id)
+	}
+	return out, nil
+}
+
+// solutions holds the displacements of the unconstrained freedoms for each
+// load case needed (nil for the others) and for the settlement.
+type solutions struct {
+	cases       [][]float64
+	settlements []float64 // nil when nothing is prescribed
+}
+
+func (s *solutions) settle(eq int) float64 {
+	if s.settlements == nil {
+		return 0
+	}
+	return s.settlements[eq]
+}
+
+// solveCases solves for every case that a request needs, once each, and for
+// the prescribed displacements.
+func solveCases(ctx context.Context, m *model.Model, nb *numbering, sys *system, requests []request, rep progress.Reporter) (*solutions, error) {
+	sol := &solutions{cases: make([][]float64, len(m.Cases))}
+	var needed []int
+	for _, rq := range requests {
+		for _, t := range rq.terms {
+			if sol.cases[t.Case] == nil {
+				sol.cases[t.Case] = []float64{}
+				needed = append(needed, t.Case)
+			}
+		}
+	}
+	total := len(needed)
+	if nb.anyPrescribed {
+		total++
+		sol.settlements = make([]float64, nb.equations)
+		sys.solve(sol.settlements, sys.settle)
+	}
+	for i, c := range needed {
+		if err := ctx.Err(); err != nil {
+			return nil, err
+		}
+		rep.Progress("solving", i, total, nil)
+		ls := newLoadSet(m, nb, []model.Term{{Case: c, Factor: 1}})
+		u := make([]float64, nb.equations)
+		sys.solve(u, ls.rightHandSide(m, nb))
+		sol.cases[c] = u
+	}
+	rep.Progress("solving", total, total, nil)
+	return sol, nil
+}
+
+// stiffnessRatio warns when the axial stiffnesses EA/L of the members span
+// twelve orders of magnitude or more, where the smaller ones are lost in
+// round-off (common practice).
+func stiffnessRatio(m *model.Model) []string {
+	lo, hi := -1, -1
+	var kLo, kHi float64
+	for e, mem := range m.Members {
+		k := m.Materials[mem.Material].ElasticModulus * m.Sections[mem.Section].Area / m.Length(e)
+		if lo < 0 || k < kLo {
+			lo, kLo = e, k
+		}
+		if hi < 0 || k > kHi {
+			hi, kHi = e, k
+		}
+	}
+	if lo < 0 || !(kLo > 0) || kHi/kLo < 1e12 {
+		return nil
+	}
+	return []string{fmt.Sprintf("member stiffnesses EA/L span a ratio of %.2g (member %q %.3g, member %q %.3g): results for the softer members may be inaccurate",
+		kHi/kLo, m.Members[hi].ID, kHi, m.Members[lo].ID, kLo)}
+}

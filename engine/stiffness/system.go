@@ -1,0 +1,302 @@
+package stiffness
+
+import (
+	"context"
+	"errors"
+	"math"
+	"time"
+
+	"gonum.org/v1/gonum/mat"
+
+	"gusset/engine/model"
+	"gusset/engine/progress"
+	"gusset/engine/sparse"
+)
+
+// factor solves with a factorised matrix.
+type factor interface {
+	solve(dst, b []float64)
+	nonzeros() int
+	condition() float64
+}
+
+// system is the stiffness matrix of the unconstrained freedoms, scaled to
+// unit diagonal (S = D^(-1/2)·K·D^(-1/2)) so that pivots and condition
+// numbers do not depend on the mix of units of forces and moments.
+type system struct {
+	k      *sparse.Matrix // scaled, lower triangle
+	scale  []float64      // D^(-1/2)
+	settle []float64      // right-hand side of the prescribed displacements (unscaled)
+	fac    factor
+	zero   []int // equations with no stiffness at all
+}
+
+// assemble builds the system and the settlement right-hand side.
+func assemble(ctx context.Context, m *model.Model, nb *numbering, rep progress.Reporter) (*system, error) {
+	nnzHint := 0
+	for _, mem := range m.Members {
+		d := m.Dim
+		if mem.Kind == model.Beam {
+			d = 3 * (m.Dim - 1)
+		}
+		nnzHint += d * (2*d + 1)
+	}
+	b := sparse.NewBuilder(nb.equations, nnzHint+nb.equations)
+	sys := &system{settle: make([]float64, nb.equations)}
+	var el element
+	var kg [144]float64
+	total := len(m.Members)
+	for e := range m.Members {
+		if e%4096 == 0 {
+			if err := ctx.Err(); err != nil {
+				return nil, err
+			}
+			rep.Progress("assembling", e, total, nil)
+		}
+		el.build(m, nb, e)
+		el.globalStiffness(kg[:])
+		n := el.size
+		for i := range n {
+			ei := nb.equation[el.dofs[i]]
+			if ei < 0 {
+				continue
+			}
+			for j := range n {
+				fj := el.dofs[j]
+				ej := nb.equation[fj]
+				if ej < 0 {
+					if v := nb.prescribed[fj]; v != 0 {
+						sys.settle[ei] -= kg[i*n+j] * v
+					}
+					continue
+				}
+				if ej <= ei {
+					b.Add(ei, ej, kg[i*n+j])
+				}
+			}
+		}
+	}
+	for eq, f := range nb.freedomOf {
+		// Every equation gets a diagonal entry, so a freedom with no
+		// stiffness shows up as a zero pivot rather than a malformed
+		// matrix.
+		b.Add(eq, eq, nb.spring[f])
+	}
+	rep.Progress("assembling", total, total, nil)
+	sys.k = b.Matrix()
+	a := sys.k
+	sys.scale = make([]float64, a.N)
+	for j := range a.N {
+		d := a.Val[a.ColPtr[j]] // the diagonal comes first in each column
+		if d > 0 && !math.IsInf(d, 0) {
+			sys.scale[j] = 1 / math.Sqrt(d)
+		} else {
+			sys.scale[j] = 1
+			sys.zero = append(sys.zero, j)
+		}
+	}
+	for j := range a.N {
+		for p := a.ColPtr[j]; p < a.ColPtr[j+1]; p++ {
+			a.Val[p] *= sys.scale[j] * sys.scale[a.RowIdx[p]]
+		}
+	}
+	return sys, nil
+}
+
+// dense returns the scaled matrix as a dense symmetric matrix.
+func (sys *system) dense() *mat.SymDense {
+	a := sys.k
+	s := mat.NewSymDense(a.N, nil)
+	for j := range a.N {
+		for p := a.ColPtr[j]; p < a.ColPtr[j+1]; p++ {
+			s.SetSym(a.RowIdx[p], j, a.Val[p])
+		}
+	}
+	return s
+}
+
+// errDeficient carries the equations whose pivots vanished.
+type errDeficient struct{ equations []int }
+
+func (e *errDeficient) Error() string { return "stiffness: deficient pivots" }
+
+// factorise factorises the scaled matrix on the chosen path, returning an
+// *errDeficient for a mechanism, and the ordering and factor times.
+func (sys *system) factorise(ctx context.Context, path Path, opt Options, rep progress.Reporter) (order, fact time.Duration, err error) {
+	if len(sys.zero) > 0 {
+		return 0, 0, &errDeficient{sys.zero}
+	}
+	if sys.k.N == 0 {
+		sys.fac = denseFactor{}
+		return 0, 0, nil
+	}
+	if path == Dense {
+		start := time.Now()
+		rep.Progress("factorising", 0, 1, nil)
+		f, deficient := newDenseFactor(sys.dense(), opt.PivotTolerance)
+		if deficient != nil {
+			return 0, time.Since(start), &errDeficient{deficient}
+		}
+		rep.Progress("factorising", 1, 1, nil)
+		sys.fac = f
+		return 0, time.Since(start), nil
+	}
+	c, err := sparse.Factorize(ctx, sys.k, sparse.Options{Workers: opt.Workers, Reporter: rep, PivotTolerance: opt.PivotTolerance})
+	var pe *sparse.PivotError
+	if errors.As(err, &pe) {
+		return 0, 0, &errDeficient{pe.Columns}
+	}
+	if err != nil {
+		return 0, 0, err
+	}
+	st := c.Stats()
+	sys.fac = sparseFactor{c}
+	return st.Ordering + st.Symbolic, st.Numeric, nil
+}
+
+// solve writes K⁻¹·f into u (unscaled, equations only), with iterative
+// refinement on the scaled system while the residual stays above round-off
+// level.
+func (sys *system) solve(u, f []float64) {
+	n := len(f)
+	g := make([]float64, n)
+	for i := range g {
+		g[i] = f[i] * sys.scale[i]
+	}
+	y := make([]float64, n)
+	sys.fac.solve(y, g)
+	r := make([]float64, n)
+	sy := make([]float64, n)
+	normG := infNorm(g)
+	const target = 64 * 0x1p-52
+	residual := func() float64 {
+		sys.k.MulVec(sy, y)
+		for i := range r {
+			r[i] = g[i] - sy[i]
+		}
+		den := normG + infNorm(y)
+		if den == 0 {
+			return 0
+		}
+		return infNorm(r) / den
+	}
+	rel := residual()
+	d := make([]float64, n)
+	for step := 0; step < 3 && rel > target; step++ {
+		sys.fac.solve(d, r)
+		prev := append([]float64(nil), y...)
+		for i := range y {
+			y[i] += d[i]
+		}
+		next := residual()
+		if !(next < rel) {
+			copy(y, prev)
+			break
+		}
+		rel = next
+	}
+	for i := range u {
+		u[i] = y[i] * sys.scale[i]
+	}
+}
+
+func infNorm(x []float64) float64 {
+	var m float64
+	for _, v := range x {
+		m = max(m, math.Abs(v))
+	}
+	return m
+}
+
+type sparseFactor struct{ c *sparse.Cholesky }
+
+func (s sparseFactor) solve(dst, b []float64) { s.c.Solve(dst, b) }
+func (s sparseFactor) nonzeros() int          { return s.c.Stats().NonzerosL }
+func (s sparseFactor) condition() float64     { return s.c.ConditionEstimate() }
+
+// denseFactor is gonum's dense Cholesky factorisation.
+type denseFactor struct{ c *mat.Cholesky }
+
+func (d denseFactor) solve(dst, b []float64) {
+	if d.c == nil {
+		return
+	}
+	var x mat.VecDense
+	// The factorisation succeeded, so SolveVecTo fails only on a
+	// condition number beyond float64, already reported as a mechanism.
+	_ = d.c.SolveVecTo(&x, mat.NewVecDense(len(b), append([]float64(nil), b...)))
+	copy(dst, x.RawVector().Data)
+}
+
+func (d denseFactor) nonzeros() int {
+	if d.c == nil {
+		return 0
+	}
+	n := d.c.SymmetricDim()
+	return n * (n + 1) / 2
+}
+
+func (d denseFactor) condition() float64 {
+	if d.c == nil {
+		return 1
+	}
+	return d.c.Cond()
+}
+
+// newDenseFactor factorises s by gonum's Cholesky. When that fails, or its
+// condition estimate says the pivots have lost all accuracy, a plain
+// left-looking LDLᵀ sweep with the same pivot test as the sparse path
+// (pivot ≤ tol on the unit-diagonal matrix) finds the deficient columns.
+func newDenseFactor(s *mat.SymDense, tol float64) (denseFactor, []int) {
+	var c mat.Cholesky
+	ok := c.Factorize(s)
+	if ok && c.Cond()*tol < 1 {
+		return denseFactor{&c}, nil
+	}
+	n := s.SymmetricDim()
+	l := mat.NewDense(n, n, nil)
+	d := make([]float64, n)
+	var deficient []int
+	for j := range n {
+		pivot := s.At(j, j)
+		for k := range j {
+			pivot -= l.At(j, k) * l.At(j, k) * d[k]
+		}
+		if !(pivot > tol) {
+			// Hold the freedom fixed and carry on, to find every
+			// deficient column in one sweep.
+			deficient = append(deficient, j)
+			d[j] = 1
+			l.Set(j, j, 1)
+			continue
+		}
+		d[j] = pivot
+		l.Set(j, j, 1)
+		for i := j + 1; i < n; i++ {
+			v := s.At(i, j)
+			for k := range j {
+				v -= l.At(i, k) * l.At(j, k) * d[k]
+			}
+			l.Set(i, j, v/pivot)
+		}
+	}
+	if deficient == nil && ok {
+		return denseFactor{&c}, nil
+	}
+	if deficient == nil {
+		// gonum refused a matrix whose pivots all pass: report the
+		// smallest pivot's column rather than loop.
+		deficient = []int{argmin(d)}
+	}
+	return denseFactor{}, deficient
+}
+
+func argmin(x []float64) int {
+	best := 0
+	for i := range x {
+		if x[i] < x[best] {
+			best = i
+		}
+	}
+	return best
+}
