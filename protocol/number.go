@@ -5,8 +5,6 @@ import (
 	"encoding/json"
 	"reflect"
 	"strconv"
-
-	"github.com/invopop/jsonschema"
 )
 
 // Number is a number that may instead be written as an expression string
@@ -47,16 +45,3 @@ func (n *Number) UnmarshalJSON(b []byte) error {
 }
 
 var numberType = reflect.TypeOf(Number{})
-
-// JSONSchema describes Number as a number or an expression string.
-func (Number) JSONSchema() *jsonschema.Schema {
-	return &jsonschema.Schema{
-		Description: "A number, or an expression string over the model's parameters.",
-		OneOf: []*jsonschema.Schema{
-			{Type: "number"},
-			{Type: "string", MinLength: uint64Ptr(1), Description: "an expression over the model's parameters"},
-		},
-	}
-}
-
-func uint64Ptr(v uint64) *uint64 { return &v }

@@ -29,7 +29,7 @@ func Definitions() []any {
 // is the directory of package protocol's source, read for the doc comments
 // that become descriptions.
 func Generate(protocolDir string) ([]byte, error) {
-	r := &jsonschema.Reflector{}
+	r := &jsonschema.Reflector{Mapper: mapType}
 	if err := r.AddGoComments("gusset/protocol", protocolDir); err != nil {
 		return nil, fmt.Errorf("schema: reading doc comments: %w", err)
 	}
@@ -59,4 +59,23 @@ func Generate(protocolDir string) ([]byte, error) {
 		return nil, err
 	}
 	return append(out, '\n'), nil
+}
+
+var numberType = reflect.TypeOf(protocol.Number{})
+
+// mapType gives protocol.Number its schema: a number, or an expression
+// string (protocol imports nothing but the standard library, so the schema
+// of its custom-encoded types lives here).
+func mapType(t reflect.Type) *jsonschema.Schema {
+	if t != numberType {
+		return nil
+	}
+	minLength := uint64(1)
+	return &jsonschema.Schema{
+		Description: "A number, or an expression string over the model's parameters: arithmetic (+ - * / ^), parentheses, sqrt, sin, cos, tan, atan2, abs, min, max and pi; angles in radians.",
+		OneOf: []*jsonschema.Schema{
+			{Type: "number"},
+			{Type: "string", MinLength: &minLength, Description: "an expression over the model's parameters"},
+		},
+	}
 }
