@@ -325,17 +325,11 @@ func (p *parser) parseCall(name string, start int) *node {
 		}
 	}
 	if len(args) < fn.minArgs || (fn.maxArgs >= 0 && len(args) > fn.maxArgs) {
-		want := strconv.Itoa(fn.minArgs)
-		switch {
-		case fn.maxArgs < 0:
+		want := strconv.Itoa(fn.minArgs) + " argument"
+		if fn.maxArgs < 0 {
 			want = "at least " + want
-		case fn.minArgs == 1:
-			want += " argument"
-		}
-		if fn.maxArgs >= 0 && fn.minArgs != 1 {
-			want += " arguments"
-		} else if fn.maxArgs < 0 {
-			want += " argument"
+		} else if fn.minArgs != 1 {
+			want += "s"
 		}
 		p.fail(start, name+" takes "+want+", got "+strconv.Itoa(len(args)))
 		return nil

@@ -62,8 +62,8 @@ func Pratt(panels int, span, depth, load float64) *model.Spec {
 // square grid (node (i, j) at x = i, y = j is n{j·(nx+1)+i}), each square
 // braced by one diagonal, all bars. The left edge (x = 0) is pinned (x, y)
 // and load case "load" applies −10 kN along y at each right-edge node.
-// It has 3·nx·ny + nx + ny members and is statically indeterminate for
-// ny ≥ 1. GridTruss2D panics unless nx, ny ≥ 1.
+// It has 3·nx·ny + nx + ny members, no mechanism, and nx·ny − nx + ny
+// states of self-stress (the left-edge verticals between pins included). GridTruss2D panics unless nx, ny ≥ 1.
 func GridTruss2D(nx, ny int) *model.Spec {
 	if nx < 1 || ny < 1 {
 		panic("modelgen: GridTruss2D needs nx, ny ≥ 1")
@@ -101,7 +101,8 @@ func GridTruss2D(nx, ny int) *model.Spec {
 // centres of the top squares. Members: top chords, bottom chords and four
 // web diagonals from each bottom node to the corners of its top square,
 // 8·nx·ny members in all. Every top perimeter node is pinned (x, y, z),
-// which makes the grid stable (no mechanism) for all nx, ny ≥ 1. Load
+// which leaves no mechanism (the tests check the rank of the equilibrium
+// matrix for several sizes). Load
 // case "gravity" applies −10 kN along z at each unsupported top node, or
 // at every top node when none is free.
 // SpaceTruss3D panics unless nx, ny ≥ 1.
