@@ -15,7 +15,8 @@ import (
 // keyed by the raw JSON id whose values are subsets of the responses.
 // Objects match key by key; arrays of objects match when every wanted
 // element matches some element; other arrays element by element; numbers
-// within a relative 1e-9 (absolute 1e-12). Each want file names the source
+// within a relative 1e-9 (absolute 1e-12), or as {"approx": x, "rel": r}
+// within the relative tolerance r. Each want file names the source
 // of its values under "_source".
 func TestTranscripts(t *testing.T) {
 	inputs, err := filepath.Glob("../../testdata/transcripts/*.in.jsonl")
@@ -76,6 +77,14 @@ func TestTranscripts(t *testing.T) {
 func match(want, got any, path string) error {
 	switch w := want.(type) {
 	case map[string]any:
+		if target, isApprox := w["approx"].(float64); isApprox {
+			rel, _ := w["rel"].(float64)
+			g, ok := got.(float64)
+			if !ok || math.Abs(g-target) > rel*math.Abs(target) {
+				return fmt.Errorf("%s: want %v within %g relative, got %v", path, target, rel, brief(got))
+			}
+			return nil
+		}
 		g, ok := got.(map[string]any)
 		if !ok {
 			return fmt.Errorf("%s: want an object, got %v", path, brief(got))

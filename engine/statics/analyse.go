@@ -10,8 +10,9 @@ import (
 	"gusset/engine/model"
 )
 
-// DefaultDenseLimit is the default Options.DenseLimit.
-const DefaultDenseLimit = 3000
+// DefaultDenseLimit is the default Options.DenseLimit. A full SVD of a
+// 1000×1000 equilibrium matrix takes a few seconds on one core.
+const DefaultDenseLimit = 1000
 
 // DefaultRankTolerance is the default Options.RankTolerance.
 const DefaultRankTolerance = 1e-10
@@ -45,10 +46,15 @@ type Report struct {
 	// SelfStress − Mechanisms. It is known even when Computed is false.
 	MaxwellNumber int
 
-	// Computed reports whether the equilibrium matrix was small enough
-	// (Options.DenseLimit) for the rank to be found; when false, Rank,
-	// SelfStress and Mechanisms are zero and the states and modes are nil.
+	// Computed reports whether Rank, SelfStress and Mechanisms are known;
+	// when false they are zero. CountedBy says how: "svd" (the equilibrium
+	// matrix was small enough, Options.DenseLimit, and the states and
+	// modes are filled in) or "stiffness" (set by the stiffness solver from
+	// a successful factorisation of a model without springs, where a
+	// positive definite K = A·D·Aᵀ means rank A = Freedoms; states and
+	// modes are then nil).
 	Computed   bool
+	CountedBy  string
 	Rank       int // r, rank of the equilibrium matrix
 	SelfStress int // s = c − r
 	// Mechanisms is m = (n − k) − r, every independent inextensional
@@ -142,6 +148,7 @@ func Analyse(ctx context.Context, m *model.Model, opt Options) (*Report, error) 
 		return nil, err
 	}
 	r.Computed = true
+	r.CountedBy = "svd"
 	r.SelfStress = r.Columns - r.Rank
 	r.Mechanisms = r.Freedoms - r.Rank
 	for k := r.Rank; k < r.Columns; k++ {

@@ -22,7 +22,7 @@ type numbering struct {
 	freedomOf []int
 	// supportOf gives, per freedom, the support that carries its reaction
 	// (the first that fixes or springs it), or -1.
-	supportOf []int
+	supportOf     []int
 	anyPrescribed bool
 }
 

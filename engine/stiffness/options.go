@@ -17,7 +17,7 @@ const (
 // Defaults of Options.
 const (
 	DefaultDenseLimit     = 200
-	DefaultStabilityLimit = 1000
+	DefaultStabilityLimit = 300
 	DefaultPivotTolerance = 1e-13
 )
 
@@ -40,8 +40,11 @@ type Options struct {
 	Path Path
 	// StabilityLimit is the largest equilibrium matrix (rows or columns)
 	// for which the stability report is computed by dense SVD (see
-	// statics.Options.DenseLimit); 0 means DefaultStabilityLimit, and a
-	// negative value skips the SVD.
+	// statics.Options.DenseLimit; the SVD costs O(n³), about 0.1 s at the
+	// default); 0 means DefaultStabilityLimit, and a negative value skips
+	// the SVD. Above the limit the counts still come from the
+	// factorisation when the model has no springs. The same limit bounds
+	// the dense eigen-decomposition that finds a mechanism's modes.
 	StabilityLimit int
 	// PivotTolerance is the smallest accepted pivot of the stiffness
 	// matrix scaled to unit diagonal; a smaller pivot marks a mechanism.

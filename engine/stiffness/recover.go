@@ -105,18 +105,37 @@ func recoverCase(m *model.Model, nb *numbering, sys *system, ls *loadSet, u []fl
 			cr.ReactionSum[c] += cr.Reactions[si].Force[c]
 		}
 	}
+	cr.External = make([][]float64, m.NodeCount())
+	for n := range cr.External {
+		cr.External[n] = make([]float64, m.Dim)
+	}
 	for f := range nb.total {
 		if c := nb.component[f]; c < m.Dim {
 			cr.LoadSum[c] += ls.nodal[f] + equivalent[f]
+			cr.External[nb.node[f]][c] += ls.nodal[f] + equivalent[f]
 		}
 	}
-	var balance, loadNorm, reactionNorm float64
+	for si, r := range cr.Reactions {
+		for c := range m.Dim {
+			cr.External[m.Supports[si].Node][c] += r.Force[c]
+		}
+	}
+	// The scale is the larger of the resultant load and the sum of the
+	// reactions' magnitudes, so that self-equilibrated reactions (a
+	// settlement with no load) are measured against their own size.
+	var balance, loadNorm, reactionScale float64
 	for c := range m.Dim {
 		balance += sq(cr.LoadSum[c] + cr.ReactionSum[c])
 		loadNorm += sq(cr.LoadSum[c])
-		reactionNorm += sq(cr.ReactionSum[c])
 	}
-	if den := math.Sqrt(max(loadNorm, reactionNorm)); den > 0 {
+	for _, r := range cr.Reactions {
+		var rr float64
+		for _, v := range r.Force {
+			rr += v * v
+		}
+		reactionScale += math.Sqrt(rr)
+	}
+	if den := max(math.Sqrt(loadNorm), reactionScale); den > 0 {
 		cr.BalanceError = math.Sqrt(balance) / den
 	}
 	// Equilibrium of the unconstrained freedoms: what the members take

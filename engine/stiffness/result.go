@@ -62,10 +62,15 @@ type CaseResult struct {
 	// Residual is the scaled equilibrium residual ‖K·u − f‖ / ‖f‖ over
 	// the unconstrained freedoms (0 when f = 0).
 	Residual float64
+	// External holds per node the external force (Dim entries): the
+	// applied nodal loads, the member loads and self-weight carried to the
+	// node (equivalent nodal loads), and the reactions of its supports.
+	// These are the forces Maxwell's load-path theorem sums over.
+	External [][]float64
 	// LoadSum and ReactionSum are the resultant applied force (nodal and
 	// member loads, self-weight) and the resultant reaction force, Dim
-	// entries each; BalanceError is ‖LoadSum + ReactionSum‖ / max of the
-	// two norms (0 when both vanish).
+	// entries each; BalanceError is ‖LoadSum + ReactionSum‖ divided by
+	// the larger of ‖LoadSum‖ and Σ‖reaction force‖ (0 when both vanish).
 	LoadSum      []float64
 	ReactionSum  []float64
 	BalanceError float64

@@ -93,6 +93,14 @@ func Solve(ctx context.Context, m *model.Model, opt Options) (*Result, error) {
 	if err != nil {
 		return nil, err
 	}
+	if !stability.Computed && !hasSprings(m) {
+		// A positive definite K = A·D·Aᵀ means the equilibrium matrix
+		// has full row rank, which fixes the count without an SVD.
+		stability.Computed = true
+		stability.CountedBy = "stiffness"
+		stability.Rank = stability.Freedoms
+		stability.SelfStress = stability.Columns - stability.Rank
+	}
 	res.Stats.NonzerosFactor = sys.fac.nonzeros()
 	res.Stats.ConditionNumber = sys.fac.condition()
 	if c := res.Stats.ConditionNumber; c >= illConditioned {
@@ -222,6 +230,15 @@ func solveCases(ctx context.Context, m *model.Model, nb *numbering, sys *system,
 	}
 	rep.Progress("solving", total, total, nil)
 	return sol, nil
+}
+
+func hasSprings(m *model.Model) bool {
+	for _, s := range m.Supports {
+		if s.Spring != ([6]float64{}) {
+			return true
+		}
+	}
+	return false
 }
 
 // stiffnessRatio warns when the axial stiffnesses EA/L of the members span

@@ -1,0 +1,201 @@
+package adapter
+
+import (
+	"context"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"math"
+
+	"gusset/engine/model"
+	"gusset/engine/progress"
+	"gusset/engine/stiffness"
+	"gusset/engine/sweep"
+	"gusset/protocol"
+)
+
+func init() {
+	registry = append(registry, entry{
+		method: protocol.Method{Name: "sweep-parameter", Params: "SweepParams", Result: "SweepResult",
+			Summary: "Varies one or two parameters, streams every step's metrics, and refines the best step to an optimum (Brent's method; Nelder–Mead for two)."},
+		handler: func(a *Adapter) protocol.Handler { return a.sweep },
+	})
+}
+
+func (a *Adapter) sweep(ctx context.Context, params json.RawMessage, st protocol.Stream) (any, error) {
+	var p protocol.SweepParams
+	if err := a.decode("sweep-parameter", params, &p); err != nil {
+		return nil, err
+	}
+	m, err := a.compile(ctx, &p.Model, "/params/model")
+	if err != nil {
+		return nil, err
+	}
+	plan := sweep.Plan{Workers: a.Limits.Workers, MaxSteps: a.Limits.MaxSweepSteps}
+	names := make([]string, len(p.Parameters))
+	for i, axis := range p.Parameters {
+		values, err := axisValues(axis, fmt.Sprintf("/params/parameters/%d", i))
+		if err != nil {
+			return nil, err
+		}
+		if m.ParamIndex(axis.Name) < 0 {
+			return nil, protocol.NewError(protocol.CodeInvalidParams, "invalid params",
+				fmt.Sprintf("The model has no parameter %q; its parameters are %q.", axis.Name, m.ParamNames),
+				protocol.Problem{Path: fmt.Sprintf("/params/parameters/%d/name", i), Message: "not a model parameter"})
+		}
+		names[i] = axis.Name
+		plan.Axes = append(plan.Axes, sweep.Axis{Name: axis.Name, Values: values})
+	}
+	if p.Shard != nil {
+		plan.Shard = sweep.Shard{Index: p.Shard.Index, Count: p.Shard.Count}
+	}
+	if p.Objective != nil {
+		plan.Objective = p.Objective.Metric
+		plan.Maximise = p.Objective.Goal == "maximise"
+		plan.Tolerance = p.Objective.Tolerance
+	}
+	if n := plan.StepCount(); n > a.Limits.MaxSweepSteps {
+		return nil, protocol.NewError(protocol.CodeLimitExceeded, "limit exceeded",
+			fmt.Sprintf("The sweep has %d steps, more than the limit of %d. Use fewer values, shards, or start the server with a larger --max-sweep-steps.", n, a.Limits.MaxSweepSteps),
+			protocol.Problem{Path: "/params/parameters", Message: fmt.Sprintf("%d steps; the limit is %d", n, a.Limits.MaxSweepSteps)})
+	}
+	opt, err := sizingOptions(p.Sizing, "/params/sizing")
+	if err != nil {
+		return nil, err
+	}
+	metrics := p.Metrics
+	if len(metrics) == 0 {
+		metrics = []string{sweep.MetricLoadPath}
+		if p.Sizing != nil || hasLimits(m) {
+			metrics = append(metrics, sweep.MetricVolume)
+		}
+	}
+	if p.Objective != nil && !contains(metrics, p.Objective.Metric) {
+		metrics = append(metrics, p.Objective.Metric)
+	}
+	solver := func(ctx context.Context, mm *model.Model) (*sweep.Solution, error) {
+		r, err := stiffness.Solve(ctx, mm, stiffness.Options{Cases: p.Cases, Workers: 1, StabilityLimit: -1})
+		if err != nil {
+			return nil, err
+		}
+		sol := &sweep.Solution{Cases: loadPathCases(r)}
+		for _, c := range r.Cases {
+			for _, d := range c.Displacements {
+				var sum float64
+				for _, x := range d {
+					sum += x * x
+				}
+				sol.MaxDisplacement = math.Max(sol.MaxDisplacement, math.Sqrt(sum))
+			}
+			for _, u := range c.Utilisation {
+				sol.MaxUtilisation = math.Max(sol.MaxUtilisation, u)
+			}
+		}
+		return sol, nil
+	}
+	eval, err := sweep.ModelEvaluator(m, names, metrics, solver, opt)
+	if err != nil {
+		return nil, sweepError(err)
+	}
+	res, err := sweep.Run(ctx, plan, eval, stepReporter{st})
+	if err != nil {
+		return nil, sweepError(err)
+	}
+	out := &protocol.SweepResult{Parameters: names, Total: res.Total, Failed: res.Failed, Best: -1, Steps: []protocol.SweepStep{}, Caution: Caution}
+	if p.Steps != "summary" {
+		for _, s := range res.Steps {
+			out.Steps = append(out.Steps, wireStep(s))
+		}
+	}
+	if r := res.Refinement; r != nil {
+		out.Best = r.StartIndex
+		out.Refinement = &protocol.Refinement{Method: r.Method, StartIndex: r.StartIndex, Values: r.Values, Objective: r.Objective,
+			Metrics: r.Metrics, Evaluations: r.Evaluations, Converged: r.Converged, AtEdge: r.AtEdge, Message: r.Message}
+		if out.Refinement.Values == nil {
+			out.Refinement.Values = []float64{}
+		}
+		if out.Refinement.Metrics == nil {
+			out.Refinement.Metrics = map[string]float64{}
+		}
+	}
+	return out, nil
+}
+
+// stepReporter converts each streamed step to its wire form.
+type stepReporter struct{ st progress.Reporter }
+
+func (r stepReporter) Progress(stage string, done, total int, partial any) {
+	if s, ok := partial.(sweep.Step); ok {
+		partial = wireStep(s)
+	} else if s, ok := partial.(*sweep.Step); ok {
+		partial = wireStep(*s)
+	}
+	r.st.Progress(stage, done, total, partial)
+}
+
+func wireStep(s sweep.Step) protocol.SweepStep {
+	out := protocol.SweepStep{Index: s.Index, Values: s.Values, Metrics: s.Metrics, Error: s.Message}
+	if out.Metrics == nil {
+		out.Metrics = map[string]float64{}
+	}
+	return out
+}
+
+// axisValues turns explicit values or a range into the axis's values.
+func axisValues(axis protocol.SweepAxis, pointer string) ([]float64, error) {
+	bad := func(msg string) error {
+		return protocol.NewError(protocol.CodeInvalidParams, "invalid params", msg, protocol.Problem{Path: pointer, Message: msg})
+	}
+	switch {
+	case len(axis.Values) > 0 && (axis.From != nil || axis.To != nil || axis.Count != 0):
+		return nil, bad("Give either values or a range (from, to, count) for a swept parameter, not both.")
+	case len(axis.Values) > 0:
+		return axis.Values, nil
+	case axis.From == nil:
+		return nil, bad("A swept parameter needs values, or a range: from, to and count.")
+	case axis.Count == 1 && axis.To == nil:
+		return []float64{*axis.From}, nil
+	case axis.To == nil || axis.Count < 2:
+		return nil, bad("A range needs from, to and a count of at least 2 (or from alone with count 1).")
+	}
+	values, err := sweep.Range(*axis.From, *axis.To, axis.Count)
+	if err != nil {
+		return nil, bad(err.Error())
+	}
+	return values, nil
+}
+
+// sweepError maps the sweep's plan errors to the wire.
+func sweepError(err error) error {
+	var pe *sweep.PlanError
+	if errors.As(err, &pe) {
+		code, kind := protocol.CodeInvalidParams, "invalid params"
+		if errors.Is(err, sweep.ErrTooManySteps) {
+			code, kind = protocol.CodeLimitExceeded, "limit exceeded"
+		}
+		path := "/params" + pe.Path
+		if len(pe.Path) > 5 && pe.Path[:5] == "/axes" {
+			path = "/params/parameters" + pe.Path[5:]
+		}
+		return protocol.NewError(code, kind, pe.Message+".", protocol.Problem{Path: path, Message: pe.Message})
+	}
+	return at("/params/model", err)
+}
+
+func hasLimits(m *model.Model) bool {
+	for _, mat := range m.Materials {
+		if mat.TensionLimit <= 0 || mat.CompressionLimit <= 0 {
+			return false
+		}
+	}
+	return len(m.Materials) > 0
+}
+
+func contains(list []string, s string) bool {
+	for _, x := range list {
+		if x == s {
+			return true
+		}
+	}
+	return false
+}
