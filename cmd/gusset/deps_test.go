@@ -16,7 +16,9 @@ func TestDependencyDirection(t *testing.T) {
 	if err != nil {
 		t.Fatalf("go list: %v", err)
 	}
-	std := func(p string) bool { return !strings.Contains(strings.Split(p, "/")[0], ".") && !strings.HasPrefix(p, "gusset") }
+	std := func(p string) bool {
+		return !strings.Contains(strings.Split(p, "/")[0], ".") && !strings.HasPrefix(p, "gusset")
+	}
 	for _, line := range strings.Split(strings.TrimSpace(string(out)), "\n") {
 		pkg, imports, _ := strings.Cut(line, ":")
 		for _, imp := range strings.Fields(imports) {

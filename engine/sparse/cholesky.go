@@ -2,6 +2,7 @@ package sparse
 
 import (
 	"context"
+	"errors"
 	"fmt"
 	"math"
 	"runtime"
@@ -24,8 +25,10 @@ type Options struct {
 	// Perm is the fill-reducing order, perm[new] = old; nil means Order(a).
 	Perm []int
 	// Workers is the number of goroutines that factorise independent
-	// subtrees of the elimination tree; 0 means runtime.GOMAXPROCS(0). The
-	// factor is bit-identical for every value.
+	// subtrees of the elimination tree and share the dense operations of the
+	// large supernodes above them; 0 means runtime.GOMAXPROCS(0). The factor
+	// is bit-identical for every value. (gonum's Gemm may add goroutines of
+	// its own for large products, up to GOMAXPROCS.)
 	Workers int
 	// Reporter receives the stages "ordering", "symbolic" and "factorising"
 	// (done and total count supernodes); nil reports nothing.
@@ -78,13 +81,21 @@ type Stats struct {
 // Cholesky is the sparse factorisation P·A·Pᵀ = L·Lᵀ of a symmetric positive
 // definite matrix A. It is safe for concurrent use by several solves.
 type Cholesky struct {
-	sym       *symbolic
+	sym        *symbolic
+	pattern    uint64
+	workers    int
+	threshold  float64 // relative pivot tolerance
+	regularize bool
+	rep        progress.Reporter
+
+	ok        bool // the last numeric factorisation succeeded
 	val       []float64
 	normA     float64 // ‖A‖₁ = ‖A‖∞
 	deficient []int
 	pivots    []float64
 	stats     Stats
-	condOnce  sync.Once
+	condMu    sync.Mutex
+	condDone  bool
 	condition float64
 }
 
@@ -133,8 +144,64 @@ func Factorize(ctx context.Context, a *Matrix, opt Options) (*Cholesky, error) {
 	rep.Progress("symbolic", 1, 1, nil)
 	symTime := time.Since(start)
 
-	start = time.Now()
-	c := &Cholesky{sym: sym, normA: a.NormInf()}
+	c := &Cholesky{
+		sym:        sym,
+		pattern:    patternHash(a),
+		workers:    workers,
+		threshold:  tol,
+		regularize: opt.Regularize,
+		rep:        rep,
+	}
+	c.stats.Ordering, c.stats.Symbolic = orderTime, symTime
+	if err := c.numeric(ctx, a); err != nil {
+		return nil, err
+	}
+	return c, nil
+}
+
+// Refactorize recomputes the factorisation for new values of a matrix with
+// exactly the structure first factorised (as when an assembler fills a
+// NewPattern matrix again), reusing the ordering, the symbolic analysis and
+// the factor's storage, with the Options given to Factorize. It fails like
+// Factorize; after a failure c must not be used until a Refactorize
+// succeeds. It panics if a's structure differs. Refactorize must not run
+// concurrently with other methods of c.
+func (c *Cholesky) Refactorize(ctx context.Context, a *Matrix) error {
+	a.check()
+	if a.N != c.sym.n || patternHash(a) != c.pattern {
+		panic("sparse: Refactorize with a different structure")
+	}
+	return c.numeric(ctx, a)
+}
+
+// patternHash fingerprints a matrix structure (FNV-1a over the column
+// pointers and row indices).
+func patternHash(a *Matrix) uint64 {
+	h := uint64(14695981039346656037)
+	mix := func(v int) {
+		h ^= uint64(v)
+		h *= 1099511628211
+	}
+	mix(a.N)
+	for _, p := range a.ColPtr {
+		mix(p)
+	}
+	for _, i := range a.RowIdx[:a.Nonzeros()] {
+		mix(i)
+	}
+	return h
+}
+
+// numeric runs the numeric factorisation of a into c.
+func (c *Cholesky) numeric(ctx context.Context, a *Matrix) error {
+	c.ok = false
+	c.condDone = false
+	if err := ctx.Err(); err != nil {
+		return err
+	}
+	start := time.Now()
+	sym := c.sym
+	c.normA = a.NormInf()
 	maxDiag := 0.0
 	for j := 0; j < a.N; j++ {
 		if p := a.ColPtr[j]; p < a.ColPtr[j+1] && a.RowIdx[p] == j {
@@ -143,20 +210,29 @@ func Factorize(ctx context.Context, a *Matrix, opt Options) (*Cholesky, error) {
 			}
 		}
 	}
+	if c.val == nil {
+		c.val = make([]float64, sym.valPtr[sym.nsuper])
+	} else {
+		clear(c.val)
+	}
+	// Row k of a supernode's block is column first+k of L; A goes in first,
+	// in one sequential pass, and the children's updates are added to it.
+	for p, q := range sym.scatter {
+		c.val[q] = a.Val[p]
+	}
 	f := &numeric{
 		sym:       sym,
-		aVal:      a.Val,
-		val:       make([]float64, sym.valPtr[sym.nsuper]),
-		threshold: tol * maxDiag,
+		val:       c.val,
+		threshold: c.threshold * maxDiag,
 		updates:   make([][]float64, sym.nsuper),
 		defects:   make([][]defect, sym.nsuper),
-		rep:       rep,
+		rep:       c.rep,
 		done:      ctx.Done(),
 	}
-	if err := f.run(workers); err != nil {
-		return nil, ctx.Err()
+	if err := f.run(c.workers); err != nil {
+		return ctx.Err()
 	}
-	c.val = f.val
+	c.deficient, c.pivots = nil, nil
 	for _, ds := range f.defects {
 		for _, d := range ds {
 			c.deficient = append(c.deficient, sym.perm[d.column])
@@ -164,21 +240,18 @@ func Factorize(ctx context.Context, a *Matrix, opt Options) (*Cholesky, error) {
 		}
 	}
 	sortDefects(c.deficient, c.pivots)
-	c.stats = Stats{
-		N:          a.N,
-		NonzerosA:  a.Nonzeros(),
-		NonzerosL:  sym.nnzL,
-		StoredL:    sym.nnzStored,
-		Supernodes: sym.nsuper,
-		Flops:      sym.flops,
-		Ordering:   orderTime,
-		Symbolic:   symTime,
-		Numeric:    time.Since(start),
+	c.stats.N = a.N
+	c.stats.NonzerosA = a.Nonzeros()
+	c.stats.NonzerosL = sym.nnzL
+	c.stats.StoredL = sym.nnzStored
+	c.stats.Supernodes = sym.nsuper
+	c.stats.Flops = sym.flops
+	c.stats.Numeric = time.Since(start)
+	if len(c.deficient) > 0 && !c.regularize {
+		return &PivotError{Columns: slices.Clone(c.deficient), Pivots: slices.Clone(c.pivots)}
 	}
-	if len(c.deficient) > 0 && !opt.Regularize {
-		return nil, &PivotError{Columns: c.deficient, Pivots: c.pivots}
-	}
-	return c, nil
+	c.ok = true
+	return nil
 }
 
 func sortDefects(cols []int, pivots []float64) {
@@ -202,7 +275,7 @@ func (c *Cholesky) Deficient() []int { return slices.Clone(c.deficient) }
 func (c *Cholesky) Stats() Stats { return c.stats }
 
 // errCancelled is internal: Factorize turns it into ctx.Err().
-var errCancelled = fmt.Errorf("sparse: cancelled")
+var errCancelled = errors.New("sparse: cancelled")
 
 // numeric is the state of one multifrontal numeric factorisation. Each
 // supernode s assembles A's columns and its children's update matrices into
@@ -212,7 +285,6 @@ var errCancelled = fmt.Errorf("sparse: cancelled")
 // so the operations on every entry are the same whatever the scheduling.
 type numeric struct {
 	sym       *symbolic
-	aVal      []float64
 	val       []float64
 	threshold float64
 	updates   [][]float64 // update matrix of each supernode, row-major upper, until its parent consumes it
@@ -263,7 +335,7 @@ func (f *numeric) run(workers int) error {
 			if f.cancelled() {
 				return errCancelled
 			}
-			f.supernode(w, s)
+			f.supernode(w, s, 1)
 			f.report()
 		}
 		return nil
@@ -322,11 +394,13 @@ func (f *numeric) run(workers int) error {
 	var quitOnce sync.Once
 	stop := func() { quitOnce.Do(func() { close(quit) }) }
 	var failed atomic.Bool
+	var crash panicSlot
 	var wg sync.WaitGroup
 	for range workers {
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
+			defer crash.catch(stop)
 			w := newWorkspace(sym.n)
 			for {
 				var t int
@@ -335,9 +409,11 @@ func (f *numeric) run(workers int) error {
 					return
 				case t = <-ready:
 				}
-				lo := t
+				// A supernode above the subtrees often runs alone: its dense
+				// operations are then shared among the workers.
+				lo, wide := t, workers
 				if isTask[t] {
-					lo = firstDesc[t]
+					lo, wide = firstDesc[t], 1
 				}
 				for s := lo; s <= t; s++ {
 					if f.cancelled() {
@@ -345,7 +421,7 @@ func (f *numeric) run(workers int) error {
 						stop()
 						return
 					}
-					f.supernode(w, s)
+					f.supernode(w, s, wide)
 					f.report()
 				}
 				if p := sym.superParent[t]; p >= 0 && pending[p].Add(-1) == 0 {
@@ -359,6 +435,7 @@ func (f *numeric) run(workers int) error {
 		}()
 	}
 	wg.Wait()
+	crash.rethrow()
 	if failed.Load() {
 		return errCancelled
 	}
@@ -377,8 +454,9 @@ func countLeaves(sym *symbolic, top []int) int {
 	return k
 }
 
-// supernode factorises supernode s; its children must be finished.
-func (f *numeric) supernode(w *workspace, s int) {
+// supernode factorises supernode s; its children must be finished. Its
+// dense operations on the off-diagonal block use up to wide goroutines.
+func (f *numeric) supernode(w *workspace, s int, wide int) {
 	sym := f.sym
 	first := sym.superFirst[s]
 	ns := sym.superFirst[s+1] - first
@@ -394,14 +472,6 @@ func (f *numeric) supernode(w *workspace, s int) {
 		local[r] = ns + t
 	}
 
-	// Assemble A. Row k of block is column first+k of L.
-	for k := 0; k < ns; k++ {
-		j := first + k
-		dst := block[k*m : (k+1)*m]
-		for q := sym.lowPtr[j]; q < sym.lowPtr[j+1]; q++ {
-			dst[local[sym.lowRow[q]]] += f.aVal[sym.lowSrc[q]]
-		}
-	}
 	children := sym.childList[sym.childPtr[s]:sym.childPtr[s+1]]
 	// Children's update entries in this supernode's columns.
 	for _, c := range children {
@@ -426,14 +496,13 @@ func (f *numeric) supernode(w *workspace, s int) {
 
 	if rs > 0 {
 		lower := blas64.General{Rows: ns, Cols: rs, Stride: m, Data: block[ns:]}
-		blas64.Trsm(blas.Left, blas.Trans, 1,
-			blas64.Triangular{Uplo: blas.Upper, Diag: blas.NonUnit, N: ns, Stride: m, Data: block},
-			lower)
+		solveBelow(blas64.Triangular{Uplo: blas.Upper, Diag: blas.NonUnit, N: ns, Stride: m, Data: block},
+			lower, wide)
 		for _, d := range f.defects[s] {
 			clear(block[(d.column-first)*m+ns : (d.column-first+1)*m])
 		}
 		u := f.pool.get(rs * rs)
-		updateMatrix(lower, u)
+		updateMatrix(lower, u, wide)
 		for _, c := range children {
 			crows := sym.rows[sym.rowPtr[c]:sym.rowPtr[c+1]]
 			rc := len(crows)

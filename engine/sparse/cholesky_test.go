@@ -546,3 +546,109 @@ func TestStats(t *testing.T) {
 		t.Errorf("natural order: NonzerosL %d, want envelope %d", got, want)
 	}
 }
+
+// TestRefactorize refills a fixed pattern with new values, as a sweep
+// does, and compares the solution with gonum's dense Cholesky (reference
+// library); a deficient refill fails and a later good one recovers.
+func TestRefactorize(t *testing.T) {
+	a := randomSPD(120, "random", 21)
+	c, err := Factorize(context.Background(), a, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	b := randomVec(a.N, 22)
+	for round, scale := range []float64{0.5, -0.25} {
+		for j := 0; j < a.N; j++ {
+			for p := a.ColPtr[j]; p < a.ColPtr[j+1]; p++ {
+				if a.RowIdx[p] != j {
+					a.Val[p] *= scale
+				}
+			}
+		}
+		if err := c.Refactorize(context.Background(), a); err != nil {
+			t.Fatal(err)
+		}
+		var ref mat.Cholesky
+		ref.Factorize(dense(a))
+		var want mat.VecDense
+		ref.SolveVecTo(&want, mat.NewVecDense(a.N, b))
+		x := nanVec(a.N)
+		c.Solve(x, b)
+		for i := range x {
+			if !scalar.EqualWithinAbsOrRel(x[i], want.AtVec(i), 1e-12, 1e-12) {
+				t.Fatalf("round %d: x[%d] = %v, want %v", round, i, x[i], want.AtVec(i))
+			}
+		}
+	}
+	// Zero one diagonal entry and its column: the freedom is unrestrained.
+	saved := slices.Clone(a.Val)
+	for j := 0; j < a.N; j++ {
+		for p := a.ColPtr[j]; p < a.ColPtr[j+1]; p++ {
+			if a.RowIdx[p] == 17 || j == 17 {
+				a.Val[p] = 0
+			}
+		}
+	}
+	var pe *PivotError
+	if err := c.Refactorize(context.Background(), a); !errors.As(err, &pe) || !slices.Equal(pe.Columns, []int{17}) {
+		t.Fatalf("err = %v, want a PivotError at column 17", err)
+	}
+	copy(a.Val, saved)
+	if err := c.Refactorize(context.Background(), a); err != nil {
+		t.Fatal(err)
+	}
+	x := nanVec(a.N)
+	c.Solve(x, b)
+	if r := scaledResidual(a, x, b); r > float64(3*a.N+1) {
+		t.Errorf("scaled residual %.3g after recovery", r)
+	}
+	defer func() {
+		if recover() == nil {
+			t.Error("Refactorize with another structure did not panic")
+		}
+	}()
+	c.Refactorize(context.Background(), randomSPD(120, "banded", 1))
+}
+
+// TestSolveMany: several load cases solved together equal separate solves
+// (the contract), and each solves its system (scaled residual, Higham 2002
+// Theorem 10.4 bound 3n+1, from memory).
+func TestSolveMany(t *testing.T) {
+	a := gridTruss2D(20, 15, 9)
+	c, err := Factorize(context.Background(), a, Options{Workers: 2})
+	if err != nil {
+		t.Fatal(err)
+	}
+	var bs, xs [][]float64
+	for k := 0; k < 5; k++ {
+		bs = append(bs, randomVec(a.N, uint64(30+k)))
+		xs = append(xs, nanVec(a.N))
+	}
+	c.SolveMany(xs, bs)
+	for k := range bs {
+		one := nanVec(a.N)
+		c.Solve(one, bs[k])
+		if !slices.Equal(one, xs[k]) {
+			t.Errorf("case %d differs from Solve", k)
+		}
+		if r := scaledResidual(a, xs[k], bs[k]); r > float64(3*a.N+1) {
+			t.Errorf("case %d: scaled residual %.3g", k, r)
+		}
+	}
+}
+
+// TestEmpty: a 0×0 matrix factorises and solves trivially.
+func TestEmpty(t *testing.T) {
+	a := NewBuilder(0, 0).Matrix()
+	c, err := Factorize(context.Background(), a, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	c.Solve(nil, nil)
+	if got := c.SolveRefined(a, nil, nil, 2); got != 0 {
+		t.Errorf("relative residual %v, want 0", got)
+	}
+	if got := c.ConditionEstimate(); got != 0 {
+		t.Errorf("condition estimate %v, want 0", got)
+	}
+}

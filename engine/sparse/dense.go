@@ -2,6 +2,7 @@ package sparse
 
 import (
 	"sync"
+	"sync/atomic"
 
 	"gonum.org/v1/gonum/blas"
 	"gonum.org/v1/gonum/blas/blas64"
@@ -18,22 +19,101 @@ const syrkBlock = 64
 // blocked for the cache (gonum's Syrk streams the whole of A once per row of
 // u). The split depends on r only, so the result does not depend on the
 // number of workers.
-func updateMatrix(a blas64.General, u []float64) {
+// The strips are independent and run on up to workers goroutines.
+func updateMatrix(a blas64.General, u []float64, workers int) {
 	r := a.Cols
 	if r <= 2*syrkBlock {
 		blas64.Syrk(blas.Trans, -1, a, 0, blas64.Symmetric{Uplo: blas.Upper, N: r, Stride: r, Data: u})
 		return
 	}
-	for i0 := 0; i0 < r; i0 += syrkBlock {
+	strips := (r + syrkBlock - 1) / syrkBlock
+	parallelFor(workers, strips, func(k int) {
+		i0 := k * syrkBlock
 		i1 := min(i0+syrkBlock, r)
 		strip := blas64.General{Rows: a.Rows, Cols: i1 - i0, Stride: a.Stride, Data: a.Data[i0:]}
 		blas64.Syrk(blas.Trans, -1, strip, 0, blas64.Symmetric{Uplo: blas.Upper, N: i1 - i0, Stride: r, Data: u[i0*r+i0:]})
 		if i1 == r {
-			break
+			return
 		}
 		rest := blas64.General{Rows: a.Rows, Cols: r - i1, Stride: a.Stride, Data: a.Data[i1:]}
 		blas64.Gemm(blas.Trans, blas.NoTrans, -1, strip, rest, 0,
 			blas64.General{Rows: i1 - i0, Cols: r - i1, Stride: r, Data: u[i0*r+i1:]})
+	})
+}
+
+// trsmBlock is the width of the column chunks in which solveBelow splits
+// the off-diagonal block.
+const trsmBlock = 128
+
+// solveBelow overwrites the ns×r row-major b (stride ldb) with
+// L11⁻¹·b, where t holds L11ᵀ in its upper triangle: in L's terms,
+// L21 = A21·L11⁻ᵀ. Columns are independent, so chunks of trsmBlock columns
+// run on up to workers goroutines; the chunking depends on r only.
+func solveBelow(t blas64.Triangular, b blas64.General, workers int) {
+	chunks := (b.Cols + trsmBlock - 1) / trsmBlock
+	parallelFor(workers, chunks, func(k int) {
+		c0 := k * trsmBlock
+		c1 := min(c0+trsmBlock, b.Cols)
+		blas64.Trsm(blas.Left, blas.Trans, 1, t,
+			blas64.General{Rows: b.Rows, Cols: c1 - c0, Stride: b.Stride, Data: b.Data[c0:]})
+	})
+}
+
+// parallelFor calls body(k) for k in [0, count) on up to workers
+// goroutines, handing out indices in ascending order.
+func parallelFor(workers, count int, body func(k int)) {
+	if workers <= 1 || count <= 1 {
+		for k := 0; k < count; k++ {
+			body(k)
+		}
+		return
+	}
+	var next atomic.Int64
+	var crash panicSlot
+	var wg sync.WaitGroup
+	for range min(workers, count) {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			defer crash.catch(func() { next.Store(int64(count)) })
+			for {
+				k := int(next.Add(1)) - 1
+				if k >= count {
+					return
+				}
+				body(k)
+			}
+		}()
+	}
+	wg.Wait()
+	crash.rethrow()
+}
+
+// panicSlot carries the first panic of a helper goroutine back to the
+// goroutine that started it, where the caller can recover it: a panic left
+// in a helper goroutine would end the whole process.
+type panicSlot struct {
+	once  sync.Once
+	value any
+	hit   atomic.Bool
+}
+
+// catch, deferred in a helper goroutine, records a panic and calls stop so
+// the other helpers finish early.
+func (p *panicSlot) catch(stop func()) {
+	if r := recover(); r != nil {
+		p.once.Do(func() {
+			p.value = r
+			p.hit.Store(true)
+		})
+		stop()
+	}
+}
+
+// rethrow panics with the recorded value, if any, after the helpers ended.
+func (p *panicSlot) rethrow() {
+	if p.hit.Load() {
+		panic(p.value)
 	}
 }
 

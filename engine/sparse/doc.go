@@ -40,5 +40,6 @@
 //
 // Solve, SolveRefined (iterative refinement) and ConditionEstimate (Hager's
 // 1-norm estimator) reuse one factorisation for any number of right-hand
-// sides.
+// sides; Refactorize reuses the ordering, the analysis and the storage for
+// new values in the same pattern.
 package sparse

@@ -1,5 +1,7 @@
 package sparse
 
+import "math"
+
 // Order returns a fill-reducing permutation of the symmetric matrix a, with
 // perm[new] = old, computed by approximate minimum degree on the quotient
 // graph of a's structure (Amestoy, Davis and Duff, "An approximate minimum
@@ -17,6 +19,7 @@ const (
 	stElement             // an eliminated node that is still an element
 	stAbsorbed            // an element absorbed into a later one
 	stNonPrincipal        // a variable merged into a supervariable or into a pivot
+	stDense               // a variable set aside as dense, numbered last
 )
 
 // quotientGraph holds the state of minimum-degree elimination. Every node is
@@ -52,6 +55,7 @@ type quotientGraph struct {
 	stage      int
 	lp         []int
 	eliminated int
+	dense      []int // variables set aside as dense, numbered last
 }
 
 func newQuotientGraph(a *Matrix) *quotientGraph {
@@ -112,6 +116,18 @@ func newQuotientGraph(a *Matrix) *quotientGraph {
 		g.hashHead[i] = -1
 		g.lpMark[i], g.extMark[i], g.cmpMark[i] = -1, -1, -1
 	}
+	// Variables adjacent to a large share of the graph would be touched at
+	// almost every stage; the paper sets rows of degree above 10√n aside and
+	// numbers them last, which costs little fill.
+	denseLimit := max(16, int(10*math.Sqrt(float64(n))))
+	for i := 0; i < n; i++ {
+		if len(g.vars[i]) > denseLimit {
+			g.state[i] = stDense
+			g.weight[i] = 0
+			g.vars[i] = nil
+			g.dense = append(g.dense, i)
+		}
+	}
 	g.mergeIndistinguishable()
 	for i := range g.head {
 		g.head[i] = -1
@@ -138,6 +154,9 @@ func newQuotientGraph(a *Matrix) *quotientGraph {
 func (g *quotientGraph) mergeIndistinguishable() {
 	n := g.n
 	for i := 0; i < n; i++ {
+		if g.state[i] == stDense {
+			continue
+		}
 		h := i
 		for _, j := range g.vars[i] {
 			h += j
@@ -148,6 +167,9 @@ func (g *quotientGraph) mergeIndistinguishable() {
 		g.hashHead[hb] = i
 	}
 	for i := 0; i < n; i++ {
+		if g.state[i] == stDense {
+			continue
+		}
 		hb := g.hashOf[i]
 		list := g.hashHead[hb]
 		if list < 0 {
@@ -216,8 +238,8 @@ func (g *quotientGraph) remove(i int) {
 
 // eliminate runs the elimination and returns perm[new] = old.
 func (g *quotientGraph) eliminate() []int {
-	n := g.n
-	perm := make([]int, 0, n)
+	n := g.n - len(g.dense)
+	perm := make([]int, 0, g.n)
 	for len(perm) < n {
 		for g.head[g.minDegree] < 0 {
 			g.minDegree++
@@ -234,7 +256,7 @@ func (g *quotientGraph) eliminate() []int {
 			perm = append(perm, v)
 		}
 	}
-	return perm
+	return append(perm, g.dense...)
 }
 
 // buildPivotElement turns pivot p into element p with member list
@@ -410,7 +432,7 @@ func (g *quotientGraph) finishStage(p int) {
 			kept = append(kept, i)
 		}
 	}
-	remaining := g.n - g.eliminated
+	remaining := g.n - len(g.dense) - g.eliminated
 	for _, i := range kept {
 		wi := g.weight[i]
 		others := lpSize - wi

@@ -2,6 +2,7 @@ package sparse
 
 import (
 	"math"
+	"slices"
 	"testing"
 
 	"gonum.org/v1/gonum/mat"
@@ -36,6 +37,7 @@ func TestOrderIsPermutation(t *testing.T) {
 		{"blocks (disconnected)", randomSPD(201, "blocks", 5)},
 		{"grid truss", gridTruss2D(15, 11, 6)},
 		{"double-layer grid", doubleLayerGrid(6, 7)},
+		{"big arrow (dense row)", randomSPD(3000, "arrow", 8)},
 	} {
 		perm := Order(tc.a)
 		if !isPermutation(perm, tc.a.N) {
@@ -140,5 +142,23 @@ func TestGridFill(t *testing.T) {
 	a := laplacian2D(8)
 	if got, want := analyse(a, identity(a.N)).nnzL, denseFactorNonzeros(t, a, identity(a.N)); got != want {
 		t.Errorf("k=8: symbolic nnz(L) = %d, dense factor has %d", got, want)
+	}
+}
+
+// TestOrderDenseRow: a matrix whose last row and column are full besides a
+// path (an arrow) factorises with no fill when the dense variable comes last
+// (its column of L is full, every other column has at most one entry below
+// the diagonal from the path and one in the last row). The ordering sets
+// such rows aside and numbers them last (Amestoy, Davis and Duff 1996,
+// section on dense rows), so nnz(L) = n + (n−2) + (n−1) = 3n − 3.
+func TestOrderDenseRow(t *testing.T) {
+	n := 3000
+	a := randomSPD(n, "arrow", 8)
+	perm := Order(a)
+	if perm[n-1] != n-1 {
+		t.Errorf("dense variable numbered %d, want last", slices.Index(perm, n-1))
+	}
+	if got, want := analyse(a, perm).nnzL, 3*n-3; got != want {
+		t.Errorf("nnz(L) = %d, want %d", got, want)
 	}
 }

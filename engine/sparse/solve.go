@@ -17,6 +17,9 @@ func (c *Cholesky) Solve(dst, b []float64) {
 	if len(dst) != n || len(b) != n {
 		panic("sparse: Solve length mismatch")
 	}
+	if !c.ok {
+		panic("sparse: Solve with a failed factorisation")
+	}
 	x := make([]float64, n)
 	for k, old := range sym.perm {
 		x[k] = b[old]
@@ -144,9 +147,15 @@ func norm1(x []float64) float64 {
 // 5(2), 1984; N. J. Higham, "FORTRAN codes for estimating the one-norm of a
 // real or complex matrix", ACM TOMS 14(4), 1988), costing a few solves. The
 // estimate is a lower bound of κ₁ that is usually within a factor of a few of
-// it. The first call computes it; later calls return the cached value.
+// it. The first call computes it; later calls return the cached value until
+// the next Refactorize.
 func (c *Cholesky) ConditionEstimate() float64 {
-	c.condOnce.Do(func() { c.condition = c.normA * c.inverseNorm1() })
+	c.condMu.Lock()
+	defer c.condMu.Unlock()
+	if !c.condDone {
+		c.condition = c.normA * c.inverseNorm1()
+		c.condDone = true
+	}
 	return c.condition
 }
 
@@ -204,4 +213,15 @@ func (c *Cholesky) inverseNorm1() float64 {
 	c.Solve(y, x)
 	est = max(est, 2*norm1(y)/(3*float64(n)))
 	return est
+}
+
+// SolveMany solves A·dst[k] = b[k] for every k, spreading the right-hand
+// sides (load cases) over the workers given to Factorize; dst[k] may alias
+// b[k]. Each solution is bit-identical to Solve's. SolveMany panics if the
+// lengths disagree.
+func (c *Cholesky) SolveMany(dst, b [][]float64) {
+	if len(dst) != len(b) {
+		panic("sparse: SolveMany length mismatch")
+	}
+	parallelFor(c.workers, len(b), func(k int) { c.Solve(dst[k], b[k]) })
 }

@@ -14,8 +14,11 @@ type symbolic struct {
 	iperm []int // iperm[old] = new
 
 	// The lower triangle of P·A·Pᵀ by column: rows lowRow[lowPtr[j]:lowPtr[j+1]]
-	// (unsorted) with values a.Val[lowSrc[...]].
+	// (unsorted) with values a.Val[lowSrc[...]]; only while analysing.
 	lowPtr, lowRow, lowSrc []int
+	// scatter[p] is the position in the factor's values of entry p of A, so
+	// that A is assembled in one sequential pass over a.Val.
+	scatter []int
 
 	nsuper      int
 	superFirst  []int // supernode s holds columns superFirst[s] .. superFirst[s+1]-1
@@ -148,33 +151,43 @@ func analyse(a *Matrix, perm0 []int) *symbolic {
 	}
 	ptr, idx := upperLists(a, iperm)
 	parent0 := eliminationTree(n, ptr, idx)
-	post := postorder(parent0)
-	// Renumber by the postorder: it leaves the fill unchanged and makes every
-	// subtree a contiguous range of columns.
-	perm := make([]int, n)
-	for k, p := range post {
-		perm[k] = perm0[p]
-	}
-	for k, old := range perm {
-		iperm[old] = k
-	}
-	ptr, idx = upperLists(a, iperm)
-	parent := eliminationTree(n, ptr, idx)
 
 	// Column counts of L by walking each row subtree: row k of L holds
 	// column j exactly when j lies on a path from some i with A(k,i) ≠ 0 up
 	// to k in the elimination tree.
-	colCount := make([]int, n)
+	count0 := make([]int, n)
 	mark := make([]int, n)
 	for k := 0; k < n; k++ {
 		mark[k] = k
-		colCount[k]++
+		count0[k]++
 		for _, i := range idx[ptr[k]:ptr[k+1]] {
-			for j := i; mark[j] != k; j = parent[j] {
-				colCount[j]++
+			for j := i; mark[j] != k; j = parent0[j] {
+				count0[j]++
 				mark[j] = k
 			}
 		}
+	}
+
+	// Renumber by the postorder: it leaves the fill unchanged and makes every
+	// subtree a contiguous range of columns.
+	post := postorder(parent0)
+	ipost := mark // reuse
+	for k, p := range post {
+		ipost[p] = k
+	}
+	perm := make([]int, n)
+	parent := make([]int, n)
+	colCount := make([]int, n)
+	for k, p := range post {
+		perm[k] = perm0[p]
+		parent[k] = -1
+		if q := parent0[p]; q >= 0 {
+			parent[k] = ipost[q]
+		}
+		colCount[k] = count0[p]
+	}
+	for k, old := range perm {
+		iperm[old] = k
 	}
 
 	sym := &symbolic{n: n, perm: perm, iperm: iperm}
@@ -184,7 +197,34 @@ func analyse(a *Matrix, perm0 []int) *symbolic {
 	sym.buildLower(a)
 	sym.findSupernodes(parent, colCount)
 	sym.buildStructure(parent)
+	sym.buildScatter()
 	return sym
+}
+
+// buildScatter computes where each stored entry of A lands in the factor's
+// values and drops the permuted copy of A's structure.
+func (sym *symbolic) buildScatter() {
+	sym.scatter = make([]int, len(sym.lowSrc))
+	local := make([]int, sym.n)
+	for s := 0; s < sym.nsuper; s++ {
+		first := sym.superFirst[s]
+		ns := sym.superFirst[s+1] - first
+		rows := sym.rows[sym.rowPtr[s]:sym.rowPtr[s+1]]
+		m := ns + len(rows)
+		for k := 0; k < ns; k++ {
+			local[first+k] = k
+		}
+		for t, r := range rows {
+			local[r] = ns + t
+		}
+		for k := 0; k < ns; k++ {
+			j := first + k
+			for q := sym.lowPtr[j]; q < sym.lowPtr[j+1]; q++ {
+				sym.scatter[sym.lowSrc[q]] = sym.valPtr[s] + k*m + local[sym.lowRow[q]]
+			}
+		}
+	}
+	sym.lowPtr, sym.lowRow, sym.lowSrc = nil, nil, nil
 }
 
 // buildLower stores the lower triangle of P·A·Pᵀ by column with pointers

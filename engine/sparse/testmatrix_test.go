@@ -198,3 +198,35 @@ func doubleLayerGrid(n int, seed uint64) *Matrix {
 	}
 	return b.Matrix()
 }
+
+// cubeTruss returns the stiffness of a k×k×k cubic lattice truss, 3
+// freedoms per node, with bars along the three axes and the diagonals of the
+// three faces at each node (9 bars per node, about 9k³ in all), plus weak
+// springs to ground.
+func cubeTruss(k int, seed uint64) *Matrix {
+	rng := rand.New(rand.NewPCG(seed, 17))
+	nodes := k * k * k
+	b := NewBuilder(3*nodes, 100*nodes)
+	id := func(x, y, z int) int { return (z*k+y)*k + x }
+	offsets := [][3]int{{1, 0, 0}, {0, 1, 0}, {0, 0, 1}, {1, 1, 0}, {1, -1, 0}, {1, 0, 1}, {1, 0, -1}, {0, 1, 1}, {0, 1, -1}}
+	for z := 0; z < k; z++ {
+		for y := 0; y < k; y++ {
+			for x := 0; x < k; x++ {
+				u := id(x, y, z)
+				for _, o := range offsets {
+					x2, y2, z2 := x+o[0], y+o[1], z+o[2]
+					if x2 < 0 || x2 >= k || y2 < 0 || y2 >= k || z2 < 0 || z2 >= k {
+						continue
+					}
+					l := math.Sqrt(float64(o[0]*o[0] + o[1]*o[1] + o[2]*o[2]))
+					d := []float64{float64(o[0]) / l, float64(o[1]) / l, float64(o[2]) / l}
+					addBar(b, 3, u, id(x2, y2, z2), d, (1+rng.Float64())/l)
+				}
+				for r := 0; r < 3; r++ {
+					b.Add(3*u+r, 3*u+r, 1e-3)
+				}
+			}
+		}
+	}
+	return b.Matrix()
+}
