@@ -1,11 +1,214 @@
 package main
 
 import (
+	"bytes"
+	"context"
+	_ "embed"
+	"encoding/json"
+	"flag"
 	"fmt"
 	"io"
+	"os"
+	"path/filepath"
+	"strings"
+	"time"
+
+	"gusset/cmd/gusset/adapter"
+	"gusset/protocol"
 )
 
+// footbridge is the demo scenario, of our own invention: the Brannock Cut
+// footbridge in the market town of Esker Vale, a 24 m steel truss of eight
+// 3 m panels carrying a 3 m wide deck over a canal. Its depth is a
+// parameter; the deck's dead load (1.2 kN/m²) and a crowd load (5 kN/m²)
+// reach the bottom-chord nodes.
+//
+//go:embed scenario/footbridge.json
+var footbridge []byte
+
+// deckArea is the deck the bridge serves: 24 m × 3 m.
+const deckArea = 72.0
+
+// demo holds the state of one demo run: a server driven in-process through
+// the real protocol, and the output folder.
+type demo struct {
+	out    io.Writer
+	dir    string
+	server *protocol.Server
+	model  json.RawMessage
+	next   int
+}
+
 func runDemo(args []string, stdout, stderr io.Writer) int {
-	fmt.Fprintln(stderr, "gusset demo: not built yet")
-	return 1
+	fs := flag.NewFlagSet("gusset demo", flag.ContinueOnError)
+	fs.SetOutput(stderr)
+	dir := fs.String("out", "gusset-demo", "folder to write the pictures into")
+	if err := fs.Parse(args); err != nil {
+		return 2
+	}
+	if err := os.MkdirAll(*dir, 0o755); err != nil {
+		fmt.Fprintf(stderr, "gusset demo: %v\n", err)
+		return 1
+	}
+	s, err := newServer(protocol.Limits{}, stderr)
+	if err != nil {
+		fmt.Fprintf(stderr, "gusset demo: %v\n", err)
+		return 1
+	}
+	d := &demo{out: stdout, dir: *dir, server: s, model: footbridge}
+	start := time.Now()
+	if err := d.run(); err != nil {
+		fmt.Fprintf(stderr, "gusset demo: %v\n", err)
+		return 1
+	}
+	fmt.Fprintf(stdout, "\nDone in %.1f s. Pictures are in %s/.\n\n%s\n", time.Since(start).Seconds(), *dir, adapter.Caution)
+	return 0
+}
+
+// call sends one request through the protocol and decodes its result.
+func (d *demo) call(method string, params map[string]any, result any) error {
+	d.next++
+	req, err := json.Marshal(map[string]any{"jsonrpc": "2.0", "id": d.next, "method": method, "params": params})
+	if err != nil {
+		return err
+	}
+	var out bytes.Buffer
+	if _, err := d.server.Serve(context.Background(), bytes.NewReader(append(req, '\n')), &out); err != nil {
+		return err
+	}
+	for _, line := range bytes.Split(bytes.TrimSpace(out.Bytes()), []byte("\n")) {
+		var msg struct {
+			Method string          `json:"method"`
+			Result json.RawMessage `json:"result"`
+			Error  *protocol.Error `json:"error"`
+		}
+		if err := json.Unmarshal(line, &msg); err != nil {
+			return err
+		}
+		if msg.Method != "" {
+			continue
+		}
+		if msg.Error != nil {
+			return fmt.Errorf("%s failed: %s", method, msg.Error.Message)
+		}
+		return json.Unmarshal(msg.Result, result)
+	}
+	return fmt.Errorf("%s: no response", method)
+}
+
+func (d *demo) say(format string, args ...any) { fmt.Fprintf(d.out, format, args...) }
+
+func (d *demo) run() error {
+	var model struct {
+		Members []struct {
+			ID string `json:"id"`
+		} `json:"members"`
+		Parameters map[string]float64 `json:"parameters"`
+	}
+	if err := json.Unmarshal(d.model, &model); err != nil {
+		return err
+	}
+	d.say("Gusset demo: the Brannock Cut footbridge, Esker Vale\n")
+	d.say("A 24 m steel truss of eight 3 m panels, %.1f m deep, carrying a 3 m deck over the canal.\n", model.Parameters["depth"])
+	d.say("Load cases: dead (self-weight and a 1.2 kN/m² deck), crowd (5 kN/m²); combination ultimate = 1.35 dead + 1.5 crowd.\n\n")
+
+	// 1. Analysis.
+	var solved protocol.SolveResult
+	if err := d.call("solve", map[string]any{"model": d.model}, &solved); err != nil {
+		return err
+	}
+	d.say("1. Stiffness analysis (solve)\n")
+	d.say("   Stability: %s\n", solved.Stability.Rule)
+	governing := 0
+	for i, c := range solved.Cases {
+		hi, lo := extremes(c.AxialForces)
+		d.say("   %-9s largest tension %7.1f kN (%s), largest compression %7.1f kN (%s)\n", c.ID,
+			c.AxialForces[hi], model.Members[hi].ID, c.AxialForces[lo], model.Members[lo].ID)
+		d.say("             deflection %5.1f mm at %s, utilisation %.2f (%s)\n",
+			1000*c.MaxDisplacement.Value, c.MaxDisplacement.At, c.MaxUtilisation.Value, c.MaxUtilisation.At)
+		if c.MaxUtilisation.Value > solved.Cases[governing].MaxUtilisation.Value {
+			governing = i
+		}
+	}
+	g := solved.Cases[governing]
+	d.say("   Reactions (%s):", g.ID)
+	for _, r := range g.Reactions {
+		d.say(" %s (%.1f, %.1f) kN;", r.Node, r.Force[0], r.Force[1])
+	}
+	d.say("\n   Governing: %s.", g.ID)
+	if len(solved.Warnings) == 0 {
+		d.say(" No warnings.\n\n")
+	} else {
+		d.say("\n   Warnings: %s\n\n", strings.Join(solved.Warnings, "; "))
+	}
+	if err := d.diagrams(g.ID); err != nil {
+		return err
+	}
+
+	// 3. Material quantities.
+	sizing := map[string]any{"shape": "tube", "diameter_to_thickness": 30}
+	var lp protocol.LoadPathResult
+	if err := d.call("load-path", map[string]any{"model": d.model, "sizing": sizing, "floor_area": deckArea}, &lp); err != nil {
+		return err
+	}
+	d.say("3. Load path and material (load-path, tubes with D/t = 30, sized for every case)\n")
+	for _, c := range lp.Cases {
+		d.say("   %-9s Z = %7.1f kN·m (tension %6.1f, compression %6.1f); M = %7.1f; Maxwell residual %.1e\n",
+			c.ID, c.LoadPath, c.TensionLoadPath, c.CompressionLoadPath, c.Constant, c.RelativeResidual)
+	}
+	t := lp.Totals.All
+	d.say("   Steel: %.3f m³, %.0f kg, %.0f kg CO2e; per m² of deck %.1f kg and %.1f kg CO2e\n\n",
+		t.Volume, t.Mass, t.Carbon, lp.Totals.PerFloorArea.Mass, lp.Totals.PerFloorArea.Carbon)
+
+	// 4. Depth study.
+	return d.depthStudy(model.Parameters["depth"], t.Volume, sizing)
+}
+
+// diagrams draws the form and force diagrams of the governing case.
+func (d *demo) diagrams(caseID string) error {
+	return nil
+}
+
+// depthStudy sweeps the depth, refines the least-volume depth and plots the
+// curve.
+func (d *demo) depthStudy(depth, volume float64, sizing map[string]any) error {
+	var sw protocol.SweepResult
+	params := map[string]any{
+		"model":      d.model,
+		"parameters": []map[string]any{{"name": "depth", "from": 0.75, "to": 6.0, "count": 22}},
+		"metrics":    []string{"volume", "load_path", "mass", "carbon"},
+		"sizing":     sizing,
+		"objective":  map[string]any{"metric": "volume", "tolerance": 1e-6},
+	}
+	if err := d.call("sweep-parameter", params, &sw); err != nil {
+		return err
+	}
+	d.say("4. Depth study (sweep-parameter over 0.75–6 m, %d steps, refined by Brent's method)\n", sw.Total)
+	r := sw.Refinement
+	if r == nil || len(r.Values) == 0 {
+		return fmt.Errorf("the sweep found no optimum")
+	}
+	best := r.Values[0]
+	d.say("   Least steel at depth %.3f m: %.3f m³ (%.0f kg, %.0f kg CO2e), against %.3f m³ at %.1f m: %.0f%% less.\n",
+		best, r.Objective, r.Metrics["mass"], r.Metrics["carbon"], volume, depth, 100*(1-r.Objective/volume))
+	d.say("   Span/depth at the optimum: %.1f. %d evaluations beyond the sweep.\n", 24/best, r.Evaluations)
+	file := filepath.Join(d.dir, "depth-study.svg")
+	if err := plotSweep(file, sw, best, r.Objective); err != nil {
+		return err
+	}
+	d.say("   Curve: %s\n", file)
+	return nil
+}
+
+// extremes returns the indices of the largest and smallest values.
+func extremes(x []float64) (hi, lo int) {
+	for i, v := range x {
+		if v > x[hi] {
+			hi = i
+		}
+		if v < x[lo] {
+			lo = i
+		}
+	}
+	return hi, lo
 }

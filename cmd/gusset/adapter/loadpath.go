@@ -55,15 +55,29 @@ func (a *Adapter) loadPath(ctx context.Context, params json.RawMessage, st proto
 	return loadPathResult(m, res), nil
 }
 
-// loadPathCases turns a stiffness result into load-path cases: the axial
-// forces and, as external forces, the applied loads (member loads and
-// self-weight lumped to the nodes) plus the reactions, both computed by the
-// solver independently of the member forces, so that Maxwell's residual
-// measures equilibrium.
+// loadPathCases turns a stiffness result into load-path cases: the mean
+// axial force of each member and, as external forces, the applied loads
+// (member loads and self-weight carried to the nodes) plus the reactions,
+// both computed by the solver independently of the member forces, so that
+// Maxwell's residual measures equilibrium.
+//
+// The mean (N₁ + N₂)/2 of the end values is the force that balances the
+// loads as carried to the nodes: a bar's own weight has a component along
+// an inclined bar, so its axial force varies along it and the end values
+// differ by that component; the elastic force EA·δ/L between the nodes is
+// their mean. For members without loads along them N₁ = N₂.
 func loadPathCases(r *stiffness.Result) []loadpath.Case {
 	cases := make([]loadpath.Case, len(r.Cases))
 	for i, c := range r.Cases {
-		cases[i] = loadpath.Case{ID: c.ID, AxialForce: c.AxialForce, External: c.External}
+		axial := make([]float64, len(c.AxialForce))
+		for e, n := range c.AxialForce {
+			p := c.EndForces[e]
+			axial[e] = n
+			if half := len(p) / 2; half > 0 {
+				axial[e] = (-p[0] + p[half]) / 2
+			}
+		}
+		cases[i] = loadpath.Case{ID: c.ID, AxialForce: axial, External: c.External}
 	}
 	return cases
 }
