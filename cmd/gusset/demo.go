@@ -166,7 +166,36 @@ func (d *demo) run() error {
 
 // diagrams draws the form and force diagrams of the governing case.
 func (d *demo) diagrams(caseID string) error {
+	var rec protocol.ReciprocateResult
+	if err := d.call("reciprocate", map[string]any{"model": d.model, "case": caseID, "picture": true}, &rec); err != nil {
+		return err
+	}
+	inner := 0
+	for _, s := range rec.Spaces {
+		if !s.Outer {
+			inner++
+		}
+	}
+	d.say("2. Reciprocal force diagram (reciprocate, %s)\n", caseID)
+	d.say("   %d spaces lettered round the boundary and %d inner faces numbered, in Bow's notation;\n", len(rec.Spaces)-inner, inner)
+	d.say("   load line %s; closure error %.1e kN; Airy stress function: %d ridges (compression), %d valleys (tension).\n",
+		strings.Join(rec.LoadLine, "→"), rec.Closure.Max, count(rec.Airy.Folds, "ridge"), count(rec.Airy.Folds, "valley"))
+	file := filepath.Join(d.dir, "form-and-force.svg")
+	if err := os.WriteFile(file, []byte(rec.Picture), 0o644); err != nil {
+		return err
+	}
+	d.say("   Drawing: %s\n\n", file)
 	return nil
+}
+
+func count(list []string, s string) int {
+	n := 0
+	for _, x := range list {
+		if x == s {
+			n++
+		}
+	}
+	return n
 }
 
 // depthStudy sweeps the depth, refines the least-volume depth and plots the

@@ -1,0 +1,181 @@
+package reciprocal
+
+import (
+	"context"
+	"fmt"
+	"math"
+	"slices"
+
+	"gonum.org/v1/gonum/mat"
+
+	"gusset/engine/fault"
+	"gusset/engine/model"
+)
+
+// Redrawn is a form found from a force diagram by Reverse.
+type Redrawn struct {
+	// Coords holds the new node coordinates, x and y per node (length
+	// units), in the layout of model.Model.Coords.
+	Coords []float64
+	// Moved holds, per node, the distance it moved.
+	Moved []float64
+	// Residual is the largest offset (length units) of a member's far end
+	// from the line through its near end parallel to its segment: zero up
+	// to round-off for an exact redrawing.
+	Residual float64
+}
+
+// Reverse finds the form whose members are parallel to the segments of an
+// edited force diagram (perpendicular to them when d is perpendicular),
+// nearest in least squares to the model's present coordinates, with fixed
+// nodes kept in place: design by forces.
+//
+// d supplies the topology (which two spaces each member separates) and
+// points the edited position of each space's point (nil means d.Points).
+// fixed marks the nodes the host keeps in place (nil means none); nodes
+// with a support in the model are kept in place too. Members whose segment
+// has no length (zero force) may take any direction.
+//
+// Each member gives one linear constraint, cross(x_j − x_i, ŝ) = 0 with ŝ
+// its segment's unit direction; Reverse returns the smallest change of the
+// free coordinates that satisfies them all, by a minimum-norm solve with
+// the singular value decomposition (dense: cubic in the number of free
+// nodes, meant for networks up to a few thousand nodes). A diagram that
+// closes gives the same figure back up to a similarity when no node is
+// fixed (Maxwell 1864: reciprocal figures are mutual).
+//
+// When the constraints cannot all hold (too many fixed nodes, or an edit
+// no form can follow), Reverse returns a *fault.Error of kind NoSolution
+// whose Problems point at the members that cannot be made parallel and
+// whose Detail is the NoSolutionDetail with the least-squares form. It
+// fails with WrongDimension for a 3D model and panics if slices are
+// misaligned.
+func Reverse(ctx context.Context, m *model.Model, d *Diagram, points [][2]float64, fixed []bool) (*Redrawn, error) {
+	if m.Dim != 2 {
+		return nil, fault.New(fault.WrongDimension, "a form is redrawn from a force diagram only in the plane (2D); this model is %dD", m.Dim)
+	}
+	if points == nil {
+		points = d.Points
+	}
+	n := m.NodeCount()
+	if len(points) != len(d.Points) || len(d.Members) != len(m.Members) || (fixed != nil && len(fixed) != n) {
+		panic("reciprocal: Reverse arguments do not match the diagram and model")
+	}
+	keep := make([]bool, n)
+	copy(keep, fixed)
+	for _, s := range m.Supports {
+		keep[s.Node] = true
+	}
+	used := make([]bool, n)
+	for _, mb := range m.Members {
+		used[mb.Ends[0]], used[mb.Ends[1]] = true, true
+	}
+	col := make([]int, n)
+	free := 0
+	for v := range col {
+		col[v] = -1
+		if used[v] && !keep[v] {
+			col[v] = free
+			free++
+		}
+	}
+	diagScale := 0.0
+	for _, p := range points {
+		diagScale = math.Max(diagScale, math.Hypot(p[0], p[1]))
+	}
+	var rows []int // member per constraint row
+	var normals [][2]float64
+	for e, s := range d.Members {
+		p, q := points[s.Left], points[s.Right]
+		dir := unturn(d.Perpendicular, [2]float64{q[0] - p[0], q[1] - p[1]})
+		l := math.Hypot(dir[0], dir[1])
+		if l <= 1e-12*diagScale || l == 0 {
+			continue
+		}
+		rows = append(rows, e)
+		normals = append(normals, [2]float64{dir[1] / l, -dir[0] / l})
+	}
+	x0 := slices.Clone(m.Coords)
+	offset := func(x []float64, k int) float64 {
+		en := m.Members[rows[k]].Ends
+		nv := normals[k]
+		return (x[2*en[1]]-x[2*en[0]])*nv[0] + (x[2*en[1]+1]-x[2*en[0]+1])*nv[1]
+	}
+	x := slices.Clone(x0)
+	if len(rows) > 0 && free > 0 {
+		c := mat.NewDense(len(rows), 2*free, nil)
+		r := mat.NewVecDense(len(rows), nil)
+		for k, e := range rows {
+			en := m.Members[e].Ends
+			for side, v := range en {
+				if col[v] < 0 {
+					continue
+				}
+				sign := 2*float64(side) - 1
+				c.Set(k, 2*col[v], sign*normals[k][0])
+				c.Set(k, 2*col[v]+1, sign*normals[k][1])
+			}
+			r.SetVec(k, -offset(x0, k))
+		}
+		if err := ctx.Err(); err != nil {
+			return nil, err
+		}
+		var svd mat.SVD
+		if !svd.Factorize(c, mat.SVDThin) {
+			return nil, fault.New(fault.NoSolution, "the redrawing could not be computed: the singular value decomposition did not converge")
+		}
+		var delta mat.VecDense
+		svd.SolveVecTo(&delta, r, svd.Rank(1e-10))
+		for v := range n {
+			if col[v] >= 0 {
+				x[2*v] += delta.AtVec(2 * col[v])
+				x[2*v+1] += delta.AtVec(2*col[v] + 1)
+			}
+		}
+	}
+	out := &Redrawn{Coords: x, Moved: make([]float64, n)}
+	for v := range n {
+		out.Moved[v] = math.Hypot(x[2*v]-x0[2*v], x[2*v+1]-x0[2*v+1])
+	}
+	size := 0.0
+	for v := range n {
+		size = math.Max(size, math.Hypot(x0[2*v], x0[2*v+1]))
+	}
+	for v := range n {
+		size = math.Max(size, math.Hypot(x0[2*v]-x0[0], x0[2*v+1]-x0[1]))
+	}
+	tol := 1e-9 * math.Max(size, 1e-300)
+	var bad []fault.Problem
+	for k, e := range rows {
+		off := math.Abs(offset(x, k))
+		out.Residual = math.Max(out.Residual, off)
+		if off > tol {
+			bad = append(bad, fault.Problem{Path: fmt.Sprintf("/members/%d", e),
+				Message: fmt.Sprintf("member %q cannot be made parallel to its segment %s: its end stays %.3g %s off the line", m.Members[e].ID, d.Members[e].Label, off, lengthUnit(m))})
+		}
+	}
+	if len(bad) > 0 {
+		return nil, &fault.Error{
+			Kind: fault.NoSolution,
+			Message: fmt.Sprintf("no form with the fixed nodes in place has every member parallel to the edited force diagram: %d members stay off by up to %.3g %s; free more nodes or change the edit",
+				len(bad), out.Residual, lengthUnit(m)),
+			Problems: bad,
+			Detail:   NoSolutionDetail{Nearest: out},
+		}
+	}
+	return out, nil
+}
+
+// NoSolutionDetail is the Detail of Reverse's NoSolution error: the
+// least-squares form, whose Residual says how far it is from parallel.
+type NoSolutionDetail struct {
+	Nearest *Redrawn
+}
+
+// lengthUnit returns the model's length unit name (m when unset).
+func lengthUnit(m *model.Model) string {
+	if m.Units.Length == "" {
+		return "m"
+	}
+	return m.Units.Length
+}

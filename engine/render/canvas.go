@@ -1,0 +1,226 @@
+package render
+
+import (
+	"bufio"
+	"encoding/xml"
+	"fmt"
+	"io"
+	"math"
+	"strconv"
+	"strings"
+)
+
+// Caution is the sentence every picture carries in its caption.
+const Caution = "Preliminary design aid: a qualified engineer must check the design against the local codes and standards."
+
+// Options controls a picture. The zero value is valid.
+type Options struct {
+	// Width is the picture's width in pixels; 0 means 1100 for two
+	// diagrams side by side and 640 for one.
+	Width float64
+	// Title heads the caption; "" means a title naming the diagrams.
+	Title string
+	// ForceLabels writes each member's axial force beside it in the form
+	// diagram; it is ignored above 80 members, where the numbers would
+	// crowd the drawing.
+	ForceLabels bool
+}
+
+// Colours and dash patterns of the style (our own).
+const (
+	tensionColour     = "#1f5fa8"
+	compressionColour = "#b8322a"
+	zeroColour        = "#8a8a8a"
+	externalColour    = "#2e7d32"
+	inkColour         = "#222222"
+	compressionDash   = "8 4"
+	zeroDash          = "1.5 3"
+)
+
+// styleSheet is the CSS of every picture.
+const styleSheet = `
+text { font-family: "DejaVu Sans", Arial, sans-serif; fill: ` + inkColour + `; }
+.title { font-size: 15px; font-weight: bold; }
+.small { font-size: 11px; }
+.label { font-size: 12px; paint-order: stroke; stroke: #ffffff; stroke-width: 3px; stroke-linejoin: round; }
+.space { font-weight: bold; }
+.tension { stroke: ` + tensionColour + `; fill: none; stroke-linecap: round; }
+.compression { stroke: ` + compressionColour + `; fill: none; stroke-dasharray: ` + compressionDash + `; }
+.zero { stroke: ` + zeroColour + `; fill: none; stroke-dasharray: ` + zeroDash + `; stroke-linecap: round; }
+.external { stroke: ` + externalColour + `; fill: none; }
+.frame { stroke: #d0d0d0; fill: none; }
+.bar { stroke: #444444; fill: none; }
+`
+
+// canvas accumulates SVG elements and remembers the first write error.
+type canvas struct {
+	w   *bufio.Writer
+	err error
+}
+
+func newCanvas(w io.Writer, width, height float64) *canvas {
+	c := &canvas{w: bufio.NewWriter(w)}
+	c.printf(`<?xml version="1.0" encoding="UTF-8"?>`+"\n"+
+		`<svg xmlns="http://www.w3.org/2000/svg" width="%s" height="%s" viewBox="0 0 %s %s">`+"\n",
+		num(width), num(height), num(width), num(height))
+	c.printf("<style>%s</style>\n", styleSheet)
+	c.printf(`<defs><marker id="arrow" viewBox="0 0 10 10" refX="9" refY="5" markerWidth="7" markerHeight="7" orient="auto-start-reverse">`+
+		`<path d="M0,0 L10,5 L0,10 z" fill="%s"/></marker></defs>`+"\n", externalColour)
+	c.printf(`<rect width="100%%" height="100%%" fill="#ffffff"/>` + "\n")
+	return c
+}
+
+func (c *canvas) printf(format string, args ...any) {
+	if c.err == nil {
+		_, c.err = fmt.Fprintf(c.w, format, args...)
+	}
+}
+
+// close ends the document and flushes it.
+func (c *canvas) close() error {
+	c.printf("</svg>\n")
+	if c.err == nil {
+		c.err = c.w.Flush()
+	}
+	return c.err
+}
+
+func (c *canvas) line(x1, y1, x2, y2 float64, class string, width float64, extra string) {
+	c.printf(`<line x1="%s" y1="%s" x2="%s" y2="%s" class="%s" stroke-width="%s"%s/>`+"\n",
+		num(x1), num(y1), num(x2), num(y2), class, num(width), extra)
+}
+
+func (c *canvas) circle(x, y, r float64, fill string) {
+	c.printf(`<circle cx="%s" cy="%s" r="%s" fill="%s"/>`+"\n", num(x), num(y), num(r), fill)
+}
+
+func (c *canvas) text(x, y float64, s, class, anchor string) {
+	var b strings.Builder
+	_ = xml.EscapeText(&b, []byte(s))
+	c.printf(`<text x="%s" y="%s" class="%s" text-anchor="%s">%s</text>`+"\n", num(x), num(y), class, anchor, b.String())
+}
+
+// num formats a coordinate compactly.
+func num(x float64) string { return strconv.FormatFloat(x, 'f', 2, 64) }
+
+// frame maps model coordinates into a panel, y upwards, one scale.
+type frame struct {
+	left, top, width, height float64 // panel in pixels
+	minX, maxY, scale        float64
+}
+
+// fit returns the frame that shows the box [minX, maxX]×[minY, maxY]
+// centred in the panel with a margin of pad pixels.
+func fit(left, top, width, height, pad float64, minX, minY, maxX, maxY float64) frame {
+	w, h := maxX-minX, maxY-minY
+	if w <= 0 {
+		w = math.Max(h, 1)
+	}
+	if h <= 0 {
+		h = math.Max(w, 1)
+	}
+	s := math.Min((width-2*pad)/w, (height-2*pad)/h)
+	f := frame{left: left, top: top, width: width, height: height, scale: s}
+	// Centre the box.
+	f.minX = minX - ((width-2*pad)/s-(maxX-minX))/2 - pad/s
+	f.maxY = maxY + ((height-2*pad)/s-(maxY-minY))/2 + pad/s
+	return f
+}
+
+func (f frame) x(x float64) float64 { return f.left + (x-f.minX)*f.scale }
+func (f frame) y(y float64) float64 { return f.top + (f.maxY-y)*f.scale }
+
+// box is a growing bounding box.
+type box struct{ minX, minY, maxX, maxY float64 }
+
+func emptyBox() box { return box{math.Inf(1), math.Inf(1), math.Inf(-1), math.Inf(-1)} }
+
+func (b *box) add(p [2]float64) {
+	b.minX, b.maxX = math.Min(b.minX, p[0]), math.Max(b.maxX, p[0])
+	b.minY, b.maxY = math.Min(b.minY, p[1]), math.Max(b.maxY, p[1])
+}
+
+func (b box) diag() float64 {
+	if b.maxX < b.minX {
+		return 1
+	}
+	return math.Max(math.Hypot(b.maxX-b.minX, b.maxY-b.minY), 1e-300)
+}
+
+// niceLength returns the largest 1, 2 or 5 × 10ᵏ not above target.
+func niceLength(target float64) float64 {
+	if target <= 0 || math.IsInf(target, 0) || math.IsNaN(target) {
+		return 1
+	}
+	p := math.Pow(10, math.Floor(math.Log10(target)))
+	for _, k := range []float64{5, 2, 1} {
+		if k*p <= target {
+			return k * p
+		}
+	}
+	return p
+}
+
+// scaleBar draws a bar of a round length near a quarter of the panel's
+// width in model units, at the panel's bottom left, labelled with unit.
+func (c *canvas) scaleBar(f frame, unit string) {
+	l := niceLength(0.25 * f.width / f.scale)
+	px := l * f.scale
+	x0, y0 := f.left+12, f.top+f.height-14
+	c.line(x0, y0, x0+px, y0, "bar", 2, "")
+	c.line(x0, y0-5, x0, y0+5, "bar", 1.5, "")
+	c.line(x0+px, y0-5, x0+px, y0+5, "bar", 1.5, "")
+	c.text(x0+px/2, y0-7, strconv.FormatFloat(l, 'g', 4, 64)+" "+unit, "small", "middle")
+}
+
+// senseClass returns the CSS class and the sense word of an axial force.
+func senseClass(t, tol float64) string {
+	switch {
+	case t > tol:
+		return "tension"
+	case t < -tol:
+		return "compression"
+	}
+	return "zero"
+}
+
+// legend draws the key of line styles with units, and returns the y below it.
+func (c *canvas) legend(x, y float64, forceUnit, lengthUnit string, withExternal bool) float64 {
+	items := []struct{ class, text string }{
+		{"tension", "Tension (axial force > 0), " + forceUnit},
+		{"compression", "Compression (axial force < 0), " + forceUnit},
+		{"zero", "Zero force"},
+	}
+	for k, it := range items {
+		xx := x + float64(k)*250
+		c.line(xx, y, xx+36, y, it.class, 2.5, "")
+		c.text(xx+44, y+4, it.text, "small", "start")
+	}
+	y += 20
+	if withExternal {
+		c.line(x, y, x+36, y, "external", 2, ` marker-end="url(#arrow)"`)
+		c.text(x+44, y+4, "External force (load or reaction), "+forceUnit, "small", "start")
+		y += 20
+	}
+	c.text(x, y+4, "Lengths in "+lengthUnit+", forces in "+forceUnit+"; tension positive. Line width in the form diagram grows with |axial force|.", "small", "start")
+	return y + 20
+}
+
+// caption draws the title and the caution, returning the y below them.
+func (c *canvas) caption(x, y float64, title string, notes ...string) float64 {
+	c.text(x, y, title, "title", "start")
+	y += 18
+	for _, n := range notes {
+		c.text(x, y, n, "small", "start")
+		y += 16
+	}
+	c.text(x, y, Caution, "small", "start")
+	return y + 16
+}
+
+func unitOr(s, def string) string {
+	if s == "" {
+		return def
+	}
+	return s
+}

@@ -1,0 +1,229 @@
+package protocol
+
+import (
+	"bufio"
+	"bytes"
+	"context"
+	"encoding/json"
+	"strings"
+	"testing"
+	"time"
+)
+
+// fuzzLineLimit is small so that the fuzzer reaches the oversize-line path
+// with short inputs.
+const fuzzLineLimit = 200
+
+// FuzzServe feeds arbitrary bytes to a Server as input lines and checks the
+// envelope's promises (JSON-RPC 2.0 specification, sections 4, 5 and 5.1;
+// README "Protocol reference"): every output line is one JSON object of
+// version "2.0"; every final response has exactly one of result and error
+// and an id that is null, a string or a number; each request line with a
+// string or number id gets exactly one final response echoing that id byte
+// for byte (compacted); lines that are not JSON objects, or whose id has
+// another type, get a response with a null id; and no notification follows
+// its request's final response.
+func FuzzServe(f *testing.F) {
+	seeds := []string{
+		`{"jsonrpc":"2.0","id":1,"method":"echo","params":{"a":1}}`,
+		`{"jsonrpc":"2.0","id":"x","method":"describe"}` + "\n" + `{"jsonrpc":"2.0","id":"y","method":"cancel","params":{"request":"x"}}`,
+		`{"jsonrpc":"2.0","method":"echo"}`,
+		`{"jsonrpc":"2.0","id":1.50,"method":"echo"}` + "\r\n" + `not json` + "\n\n" + `[1,2]`,
+		`{"jsonrpc":"2.0","id":{"a":1},"method":"echo"}`,
+		`{"jsonrpc":"2.0","id":null,"method":"echo"}`,
+		`{"jsonrpc":"1.0","id":2,"method":"echo"}`,
+		`{"jsonrpc":"2.0","id":3,"method":"nope"}`,
+		`{"jsonrpc":"2.0","id":4,"method":"echo","params":[1]}`,
+		`{"jsonrpc":"2.0","id":"\u00fc","method":"echo"} {}`,
+		`{"jsonrpc":"2.0","id":7,"method":"echo","params":{"s":"` + strings.Repeat("x", fuzzLineLimit) + `"}}`,
+		`{"jsonrpc":"2.0","id":8,"method":"boom"}` + "\n" + `{"jsonrpc":"2.0","id":8,"method":"echo"}`,
+		`{"jsonrpc":"2.0","id":9,"method":"wait"}` + "\n" + `{"jsonrpc":"2.0","id":10,"method":"cancel","params":{"request":9}}` + "\n" + `{"jsonrpc":"2.0","id":9,"method":"fail"}`,
+		strings.Repeat("[", 300),
+	}
+	for _, s := range seeds {
+		f.Add([]byte(s))
+	}
+	f.Fuzz(func(t *testing.T, input []byte) {
+		s := fuzzServer(Limits{Workers: 2, MaxLineBytes: fuzzLineLimit})
+		var out bytes.Buffer
+		if _, err := s.Serve(context.Background(), bytes.NewReader(input), &out); err != nil {
+			t.Fatalf("Serve: %v", err)
+		}
+		wantIDs, minNull, maxNull := expectedResponses(input, fuzzLineLimit)
+		gotIDs := map[string]int{}
+		nulls := 0
+		sc := bufio.NewScanner(&out)
+		sc.Buffer(nil, 1<<24)
+		for sc.Scan() {
+			line := sc.Bytes()
+			var m map[string]json.RawMessage
+			if err := json.Unmarshal(line, &m); err != nil {
+				t.Fatalf("output line is not a JSON object: %q", line)
+			}
+			if string(m["jsonrpc"]) != `"2.0"` {
+				t.Fatalf("output line without jsonrpc 2.0: %q", line)
+			}
+			if _, isNote := m["method"]; isNote {
+				var p struct {
+					Params Progress `json:"params"`
+				}
+				if err := json.Unmarshal(line, &p); err != nil {
+					t.Fatalf("bad notification %q: %v", line, err)
+				}
+				// An id may be reused once its request is answered, so a
+				// notification is late only when every request with its id
+				// has been answered.
+				if req := string(p.Params.Request); gotIDs[req] > 0 && gotIDs[req] >= wantIDs[req] {
+					t.Fatalf("notification after the final response: %q", line)
+				}
+				continue
+			}
+			_, hasResult := m["result"]
+			_, hasError := m["error"]
+			if hasResult == hasError {
+				t.Fatalf("a response needs exactly one of result and error: %q", line)
+			}
+			id, ok := m["id"]
+			if !ok {
+				t.Fatalf("response without id: %q", line)
+			}
+			switch {
+			case string(id) == "null":
+				nulls++
+			case id[0] == '"' || id[0] == '-' || (id[0] >= '0' && id[0] <= '9'):
+				gotIDs[string(id)]++
+			default:
+				t.Fatalf("response id is neither null, a string nor a number: %q", line)
+			}
+		}
+		for id, n := range wantIDs {
+			if gotIDs[id] != n {
+				t.Errorf("id %s: %d final responses, want %d", id, gotIDs[id], n)
+			}
+		}
+		for id, n := range gotIDs {
+			if wantIDs[id] == 0 {
+				t.Errorf("id %s: %d responses to a request never sent", id, n)
+			}
+		}
+		if nulls < minNull || nulls > maxNull {
+			t.Errorf("%d responses with a null id, want between %d and %d", nulls, minNull, maxNull)
+		}
+	})
+}
+
+// fuzzServer has methods that finish on their own, whatever the input:
+// echo returns its params after a partial result, wait reports progress
+// for up to 2 ms or until cancelled, boom panics and fail returns an
+// application error.
+func fuzzServer(limits Limits) *Server {
+	s := &Server{Name: "fuzz", Version: "0", Limits: limits}
+	s.Handle(Method{Name: "echo"}, func(ctx context.Context, p json.RawMessage, st Stream) (any, error) {
+		st.Progress("echoing", 0, 1, map[string]int{"bytes": len(p)})
+		return p, nil
+	})
+	s.Handle(Method{Name: "wait"}, func(ctx context.Context, p json.RawMessage, st Stream) (any, error) {
+		deadline := time.Now().Add(2 * time.Millisecond)
+		for i := 0; time.Now().Before(deadline); i++ {
+			if err := ctx.Err(); err != nil {
+				return nil, err
+			}
+			st.Progress("waiting", i, 0, i)
+		}
+		return "waited", nil
+	})
+	s.Handle(Method{Name: "boom"}, func(ctx context.Context, p json.RawMessage, st Stream) (any, error) {
+		panic("boom")
+	})
+	s.Handle(Method{Name: "fail"}, func(ctx context.Context, p json.RawMessage, st Stream) (any, error) {
+		return nil, NewError(1000, "invalid model", "fails on purpose")
+	})
+	return s
+}
+
+// expectedResponses is an oracle written from the JSON-RPC 2.0
+// specification, independent of the server's parser: for each input line
+// it counts the compacted ids that must be answered once each, and bounds
+// the number of null-id responses. A line whose length is near the limit
+// (where trailing carriage returns make the count ambiguous) or that is
+// not an object with a usable id may or may not get one.
+func expectedResponses(input []byte, limit int) (ids map[string]int, minNull, maxNull int) {
+	ids = map[string]int{}
+	lines := bytes.Split(input, []byte("\n"))
+	if len(lines) > 0 && len(lines[len(lines)-1]) == 0 {
+		lines = lines[:len(lines)-1]
+	}
+	for _, raw := range lines {
+		content := bytes.TrimRight(raw, "\r")
+		if len(raw) > limit+1 || len(content) > limit {
+			// Oversize, or close enough that framing details decide: at
+			// most one null-id response, at least one when clearly over.
+			maxNull++
+			if len(content) > limit {
+				minNull++
+			}
+			continue
+		}
+		if len(bytes.TrimSpace(content)) == 0 {
+			continue
+		}
+		id, kind := requestID(content)
+		switch kind {
+		case idValid:
+			ids[id]++
+		case idBad:
+			minNull++
+			maxNull++
+		case idAbsent:
+			maxNull++ // a notification, or an invalid one answered with null
+		}
+	}
+	return ids, minNull, maxNull
+}
+
+type idKind int
+
+const (
+	idBad    idKind = iota // not one JSON object, or an id that is not a string or a number
+	idAbsent               // an object without the member "id"
+	idValid                // an object whose "id" is a string or a number
+)
+
+// requestID finds the member named exactly "id" of a single JSON object
+// (the last one when repeated, as a JSON object's later member wins) and
+// returns its compacted text.
+func requestID(line []byte) (string, idKind) {
+	if !json.Valid(line) {
+		return "", idBad
+	}
+	dec := json.NewDecoder(bytes.NewReader(line))
+	if tok, err := dec.Token(); err != nil || tok != json.Delim('{') {
+		return "", idBad
+	}
+	var id json.RawMessage
+	for dec.More() {
+		tok, err := dec.Token()
+		if err != nil {
+			return "", idBad
+		}
+		var value json.RawMessage
+		if err := dec.Decode(&value); err != nil {
+			return "", idBad
+		}
+		if tok == "id" {
+			id = value
+		}
+	}
+	if id == nil {
+		return "", idAbsent
+	}
+	var compact bytes.Buffer
+	if err := json.Compact(&compact, id); err != nil {
+		return "", idBad
+	}
+	c := compact.Bytes()
+	if c[0] == '"' || c[0] == '-' || (c[0] >= '0' && c[0] <= '9') {
+		return string(c), idValid
+	}
+	return "", idBad
+}
