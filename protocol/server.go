@@ -13,6 +13,7 @@ import (
 	"sort"
 	"sync"
 	"time"
+	"unicode/utf8"
 )
 
 // Handler runs one method. It receives the request's context (cancelled by
@@ -309,6 +310,10 @@ func readLine(r *bufio.Reader, limit int) (line []byte, tooLong bool, err error)
 
 // parse decodes the envelope. It returns either a call or an error response.
 func (s *Server) parse(line []byte) (*call, *Response) {
+	if !utf8.Valid(line) {
+		return nil, errorResponse(nil, NewError(CodeParseError, "parse error",
+			"The line is not valid UTF-8. Send requests as UTF-8 JSON, one per line."))
+	}
 	var raw any
 	dec := json.NewDecoder(bytes.NewReader(line))
 	dec.UseNumber()

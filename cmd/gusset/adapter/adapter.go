@@ -150,3 +150,27 @@ func (a *Adapter) compile(ctx context.Context, w *protocol.Model, pointer string
 	m, err := model.Compile(specOf(w))
 	return m, at(pointer, err)
 }
+
+// checkCases reports every id in ids that names neither a load case nor a
+// combination of m, with its pointer (pointer/k for the k-th id).
+func checkCases(m *model.Model, ids []string, pointer string) error {
+	var problems []protocol.Problem
+	for k, id := range ids {
+		if m.CaseIndex(id) < 0 && m.CombinationIndex(id) < 0 {
+			problems = append(problems, protocol.Problem{Path: fmt.Sprintf("%s/%d", pointer, k),
+				Message: fmt.Sprintf("no load case or combination is called %q", id)})
+		}
+	}
+	if problems == nil {
+		return nil
+	}
+	known := make([]string, 0, len(m.Cases)+len(m.Combinations))
+	for _, c := range m.Cases {
+		known = append(known, c.ID)
+	}
+	for _, c := range m.Combinations {
+		known = append(known, c.ID)
+	}
+	return protocol.NewError(fault.UnknownCase.Code(), fault.UnknownCase.String(),
+		fmt.Sprintf("%s; the model's cases and combinations are %q.", problems[0].Message, known), problems...)
+}

@@ -29,6 +29,9 @@ func (a *Adapter) loadPath(ctx context.Context, params json.RawMessage, st proto
 	if err != nil {
 		return nil, err
 	}
+	if err := checkCases(m, p.Cases, "/params/cases"); err != nil {
+		return nil, err
+	}
 	var cases []loadpath.Case
 	if p.Forces != nil {
 		c, err := givenForcesCase(m, p.Forces, p.Cases)

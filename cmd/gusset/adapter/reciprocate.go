@@ -36,6 +36,13 @@ func (a *Adapter) reciprocate(ctx context.Context, params json.RawMessage, st pr
 			"Reciprocal diagrams are drawn for planar networks: the model has dimension 3. Send a 2D model.",
 			protocol.Problem{Path: "/params/model/dimension", Message: "must be 2 for reciprocate"})
 	}
+	if p.Case != "" {
+		if err := checkCases(m, []string{p.Case}, "/params/case"); err != nil {
+			e := err.(*protocol.Error)
+			e.Data.Problems[0].Path = "/params/case"
+			return nil, e
+		}
+	}
 	in, label, err := a.diagramInput(ctx, m, &p, st)
 	if err != nil {
 		return nil, err

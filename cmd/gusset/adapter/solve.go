@@ -30,6 +30,9 @@ func (a *Adapter) solve(ctx context.Context, params json.RawMessage, st protocol
 	if err != nil {
 		return nil, err
 	}
+	if err := checkCases(m, p.Cases, "/params/cases"); err != nil {
+		return nil, err
+	}
 	r, err := a.analyse(ctx, m, p.Cases, st)
 	if err != nil {
 		return nil, err

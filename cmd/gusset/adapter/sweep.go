@@ -31,6 +31,9 @@ func (a *Adapter) sweep(ctx context.Context, params json.RawMessage, st protocol
 	if err != nil {
 		return nil, err
 	}
+	if err := checkCases(m, p.Cases, "/params/cases"); err != nil {
+		return nil, err
+	}
 	plan := sweep.Plan{Workers: a.Limits.Workers, MaxSteps: a.Limits.MaxSweepSteps}
 	names := make([]string, len(p.Parameters))
 	for i, axis := range p.Parameters {
