@@ -61,7 +61,7 @@ func runDemo(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintf(stderr, "gusset demo: %v\n", err)
 		return 1
 	}
-	fmt.Fprintf(stdout, "\nDone in %.1f s. Pictures are in %s/.\n\n%s\n", time.Since(start).Seconds(), *dir, adapter.Caution)
+	fmt.Fprintf(stdout, "\nDone in %d ms. Pictures are in %s/.\n\n%s\n", time.Since(start).Milliseconds(), *dir, adapter.Caution)
 	return 0
 }
 
