@@ -137,7 +137,7 @@ func leaves(e *jsonschema.ValidationError, out *[]protocol.Problem) {
 				msgs = append(msgs, p.Message)
 			}
 		}
-		*out = append(*out, protocol.Problem{Path: "/params" + e.InstanceLocation, Message: "expected a number or an expression string: " + strings.Join(msgs, "; or ")})
+		*out = append(*out, protocol.Problem{Path: "/params" + e.InstanceLocation, Message: "matches none of the allowed forms: " + strings.Join(msgs, "; or ")})
 		return
 	}
 	for _, c := range e.Causes {
