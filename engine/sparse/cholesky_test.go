@@ -457,7 +457,9 @@ func TestProgressStages(t *testing.T) {
 // TestDeterminism: the factor and the solution are bit-identical whatever
 // the number of workers (the package's contract).
 func TestDeterminism(t *testing.T) {
-	for _, a := range []*Matrix{gridTruss2D(60, 50, 2), doubleLayerGrid(20, 3)} {
+	// The space grid has separators wider than the strips of the dense
+	// kernels, so the shared dense operations are exercised too.
+	for _, a := range []*Matrix{gridTruss2D(60, 50, 2), doubleLayerGrid(40, 3)} {
 		b := randomVec(a.N, 4)
 		var vals [][]float64
 		var sols [][]float64

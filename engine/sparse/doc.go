@@ -14,7 +14,10 @@
 //     algorithm", SIAM J. Matrix Anal. Appl. 17(4):886–905, 1996: elimination
 //     on the quotient graph with element absorption (including aggressive
 //     absorption), approximate external degrees, mass elimination and
-//     supervariable detection by hashing (Order);
+//     supervariable detection by hashing (Order); on large matrices also
+//     nested dissection by level-structure separators (OrderNested, after
+//     A. George and J. W. H. Liu, SIAM J. Numer. Anal. 15(5), 1978), keeping
+//     whichever order needs fewer flops;
 //   - symbolic: the elimination tree (J. W. H. Liu, "The role of elimination
 //     trees in sparse factorization", SIAM J. Matrix Anal. Appl. 11(1), 1990),
 //     its postorder, column counts by row subtrees, fundamental supernodes

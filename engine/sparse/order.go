@@ -60,32 +60,7 @@ type quotientGraph struct {
 
 func newQuotientGraph(a *Matrix) *quotientGraph {
 	n := a.N
-	// Full adjacency (both triangles, no diagonal) in one backing array.
-	count := make([]int, n+1)
-	for j := 0; j < n; j++ {
-		for p := a.ColPtr[j]; p < a.ColPtr[j+1]; p++ {
-			if i := a.RowIdx[p]; i != j {
-				count[i+1]++
-				count[j+1]++
-			}
-		}
-	}
-	for i := 0; i < n; i++ {
-		count[i+1] += count[i]
-	}
-	adj := make([]int, count[n])
-	fill := make([]int, n)
-	copy(fill, count[:n])
-	for j := 0; j < n; j++ {
-		for p := a.ColPtr[j]; p < a.ColPtr[j+1]; p++ {
-			if i := a.RowIdx[p]; i != j {
-				adj[fill[i]] = j
-				fill[i]++
-				adj[fill[j]] = i
-				fill[j]++
-			}
-		}
-	}
+	count, adj := fullAdjacency(a)
 	g := &quotientGraph{
 		n:        n,
 		state:    make([]int8, n),
@@ -443,4 +418,36 @@ func (g *quotientGraph) finishStage(p int) {
 	g.vars[p] = append([]int(nil), kept...)
 	g.elemSz[p] = lpSize
 	g.lp = kept
+}
+
+// fullAdjacency returns the graph of a's off-diagonal structure: the
+// neighbours of i are adj[ptr[i]:ptr[i+1]].
+func fullAdjacency(a *Matrix) (ptr, adj []int) {
+	n := a.N
+	ptr = make([]int, n+1)
+	for j := 0; j < n; j++ {
+		for p := a.ColPtr[j]; p < a.ColPtr[j+1]; p++ {
+			if i := a.RowIdx[p]; i != j {
+				ptr[i+1]++
+				ptr[j+1]++
+			}
+		}
+	}
+	for i := 0; i < n; i++ {
+		ptr[i+1] += ptr[i]
+	}
+	adj = make([]int, ptr[n])
+	fill := make([]int, n)
+	copy(fill, ptr[:n])
+	for j := 0; j < n; j++ {
+		for p := a.ColPtr[j]; p < a.ColPtr[j+1]; p++ {
+			if i := a.RowIdx[p]; i != j {
+				adj[fill[i]] = j
+				fill[i]++
+				adj[fill[j]] = i
+				fill[j]++
+			}
+		}
+	}
+	return ptr, adj
 }

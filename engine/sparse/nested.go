@@ -1,0 +1,304 @@
+package sparse
+
+// nestedLeaf is the size, in compressed nodes, below which nested
+// dissection stops splitting and orders a piece by minimum degree.
+const nestedLeaf = 200
+
+// OrderNested returns a fill-reducing permutation of the symmetric matrix a,
+// perm[new] = old, by nested dissection with level-structure separators
+// (A. George and J. W. H. Liu, "An automatic nested dissection algorithm for
+// irregular finite element problems", SIAM J. Numer. Anal. 15(5), 1978): the
+// graph, with indistinguishable variables merged, is split by a level of a
+// breadth-first level structure rooted at a pseudo-peripheral node; both
+// parts are numbered before the separator, recursively, and small pieces are
+// ordered by Order. On solid 3D meshes it gives far less fill than minimum
+// degree alone; Factorize tries both on large matrices and keeps the
+// cheaper.
+func OrderNested(a *Matrix) []int {
+	a.check()
+	n := a.N
+	vptr, vadj := fullAdjacency(a)
+	group, gptr, gmem := compressGraph(n, vptr, vadj)
+	ng := len(gptr) - 1
+	// Compressed adjacency.
+	cptr := make([]int, ng+1)
+	var cadj []int
+	mark := make([]int, ng)
+	for g := 0; g < ng; g++ {
+		rep := gmem[gptr[g]]
+		mark[g] = g + 1
+		for _, u := range vadj[vptr[rep]:vptr[rep+1]] {
+			if h := group[u]; mark[h] != g+1 {
+				mark[h] = g + 1
+				cadj = append(cadj, h)
+			}
+		}
+		cptr[g+1] = len(cadj)
+	}
+	d := &dissector{
+		ptr: cptr, adj: cadj, gptr: gptr, gmem: gmem, vptr: vptr, vadj: vadj,
+		tag: make([]int, ng), seen: make([]int, ng), done: make([]int, ng), level: make([]int, ng),
+		vtag: make([]int, n), local: make([]int, n),
+		out: make([]int, 0, n),
+	}
+	nodes := make([]int, ng)
+	for g := range nodes {
+		nodes[g] = g
+	}
+	d.dissect(nodes)
+	return d.out
+}
+
+// compressGraph merges variables with identical closed neighbourhoods (the
+// freedoms of one node, usually). It returns each variable's group and the
+// members of each group, ascending.
+func compressGraph(n int, ptr, adj []int) (group, gptr, gmem []int) {
+	group = make([]int, n)
+	head := make([]int, n)
+	next := make([]int, n)
+	hash := make([]int, n)
+	mark := make([]int, n)
+	for i := range head {
+		head[i], group[i], mark[i] = -1, -1, -1
+	}
+	for i := 0; i < n; i++ {
+		h := i
+		for _, j := range adj[ptr[i]:ptr[i+1]] {
+			h += j
+		}
+		hash[i] = h % n
+		next[i] = head[hash[i]]
+		head[hash[i]] = i
+	}
+	ng := 0
+	for i := 0; i < n; i++ {
+		if group[i] >= 0 {
+			continue
+		}
+		group[i] = ng
+		mark[i] = i
+		for _, j := range adj[ptr[i]:ptr[i+1]] {
+			mark[j] = i
+		}
+		deg := ptr[i+1] - ptr[i]
+		for j := head[hash[i]]; j >= 0; j = next[j] {
+			if group[j] >= 0 || ptr[j+1]-ptr[j] != deg || mark[j] != i {
+				continue
+			}
+			same := true
+			for _, k := range adj[ptr[j]:ptr[j+1]] {
+				if mark[k] != i {
+					same = false
+					break
+				}
+			}
+			if same {
+				group[j] = ng
+			}
+		}
+		ng++
+	}
+	gptr = make([]int, ng+1)
+	for _, g := range group {
+		gptr[g+1]++
+	}
+	for g := 0; g < ng; g++ {
+		gptr[g+1] += gptr[g]
+	}
+	gmem = make([]int, n)
+	fill := make([]int, ng)
+	copy(fill, gptr[:ng])
+	for i, g := range group {
+		gmem[fill[g]] = i
+		fill[g]++
+	}
+	return group, gptr, gmem
+}
+
+// dissector holds the state of nested dissection on the compressed graph.
+type dissector struct {
+	ptr, adj   []int // compressed graph
+	gptr, gmem []int // original variables of each compressed node
+	vptr, vadj []int // original graph
+	tag        []int // == current stamp for the nodes of the piece being split
+	seen       []int
+	done       []int
+	level      []int
+	stamp      int
+	vtag       []int
+	local      []int
+	vstamp     int
+	out        []int
+}
+
+// dissect appends the order of the variables of nodes to d.out.
+func (d *dissector) dissect(nodes []int) {
+	if len(nodes) == 0 {
+		return
+	}
+	if len(nodes) <= nestedLeaf {
+		d.leaf(nodes)
+		return
+	}
+	d.stamp++
+	t := d.stamp
+	for _, v := range nodes {
+		d.tag[v] = t
+	}
+	order, levels := d.levelStructure(nodes[0], t)
+	if len(order) < len(nodes) {
+		// Disconnected: split into all components at once (peeling one at a
+		// time would cost quadratic time on pieces with many components).
+		for _, v := range order {
+			d.done[v] = t
+		}
+		components := [][]int{order}
+		for _, v := range nodes {
+			if d.done[v] == t {
+				continue
+			}
+			comp, _ := d.levelStructure(v, t)
+			for _, u := range comp {
+				d.done[u] = t
+			}
+			components = append(components, comp)
+		}
+		for _, comp := range components {
+			d.dissect(comp)
+		}
+		return
+	}
+	// Pseudo-peripheral root: restart from a node of least degree in the
+	// last level while the structure gets deeper.
+	for range 4 {
+		last := order[levels[len(levels)-2]:]
+		root := last[0]
+		for _, v := range last {
+			if d.ptr[v+1]-d.ptr[v] < d.ptr[root+1]-d.ptr[root] {
+				root = v
+			}
+		}
+		o2, l2 := d.levelStructure(root, t)
+		deeper := len(l2) > len(levels)
+		order, levels = o2, l2
+		if !deeper {
+			break
+		}
+	}
+	nl := len(levels) - 1
+	if nl < 3 {
+		d.leaf(nodes)
+		return
+	}
+	// The separator is the part of a middle level adjacent to the next one;
+	// among the levels splitting the piece between 30% and 70%, the smallest.
+	total := len(order)
+	best, bestSize := -1, 0
+	for i := 1; i < nl-1; i++ {
+		if levels[i] < 3*total/10 || levels[i] > 7*total/10 {
+			continue
+		}
+		if size := d.separatorSize(order[levels[i]:levels[i+1]], i, t); best < 0 || size < bestSize {
+			best, bestSize = i, size
+		}
+	}
+	if best < 0 {
+		best = 1
+		for best < nl-2 && levels[best+1] <= total/2 {
+			best++
+		}
+	}
+	var first, second, separator []int
+	first = append(first, order[:levels[best]]...)
+	for _, v := range order[levels[best]:levels[best+1]] {
+		if d.touchesNext(v, best, t) {
+			separator = append(separator, v)
+		} else {
+			first = append(first, v)
+		}
+	}
+	second = append(second, order[levels[best+1]:]...)
+	d.dissect(first)
+	d.dissect(second)
+	for _, g := range separator {
+		d.out = append(d.out, d.gmem[d.gptr[g]:d.gptr[g+1]]...)
+	}
+}
+
+// levelStructure runs a breadth-first search from root over the nodes
+// tagged t. Level i is order[levels[i]:levels[i+1]]; d.level holds each
+// node's level.
+func (d *dissector) levelStructure(root, t int) (order, levels []int) {
+	d.stamp++
+	s := d.stamp
+	// Tags of the piece are older stamps; keep them valid by stamping seen
+	// separately.
+	d.seen[root] = s
+	d.level[root] = 0
+	order = []int{root}
+	levels = []int{0}
+	for lo := 0; lo < len(order); {
+		hi := len(order)
+		lev := len(levels)
+		for _, v := range order[lo:hi] {
+			for _, u := range d.adj[d.ptr[v]:d.ptr[v+1]] {
+				if d.tag[u] == t && d.seen[u] != s {
+					d.seen[u] = s
+					d.level[u] = lev
+					order = append(order, u)
+				}
+			}
+		}
+		levels = append(levels, hi)
+		lo = hi
+	}
+	return order, levels
+}
+
+// touchesNext reports whether node v of level i has a neighbour in level
+// i+1 of the piece tagged t.
+func (d *dissector) touchesNext(v, i, t int) bool {
+	for _, u := range d.adj[d.ptr[v]:d.ptr[v+1]] {
+		if d.tag[u] == t && d.level[u] == i+1 {
+			return true
+		}
+	}
+	return false
+}
+
+// separatorSize counts the variables of level i that touch level i+1.
+func (d *dissector) separatorSize(level []int, i, t int) int {
+	size := 0
+	for _, v := range level {
+		if d.touchesNext(v, i, t) {
+			size += d.gptr[v+1] - d.gptr[v]
+		}
+	}
+	return size
+}
+
+// leaf orders the variables of a small piece by minimum degree on the
+// subgraph they induce.
+func (d *dissector) leaf(nodes []int) {
+	var vars []int
+	for _, g := range nodes {
+		vars = append(vars, d.gmem[d.gptr[g]:d.gptr[g+1]]...)
+	}
+	d.vstamp++
+	for k, v := range vars {
+		d.vtag[v] = d.vstamp
+		d.local[v] = k
+	}
+	b := NewBuilder(len(vars), 8*len(vars))
+	for k, v := range vars {
+		b.Add(k, k, 0)
+		for _, u := range d.vadj[d.vptr[v]:d.vptr[v+1]] {
+			if d.vtag[u] == d.vstamp && d.local[u] < k {
+				b.Add(k, d.local[u], 0)
+			}
+		}
+	}
+	for _, k := range Order(b.Matrix()) {
+		d.out = append(d.out, vars[k])
+	}
+}
