@@ -5,6 +5,6 @@ package protocol
 func MethodTypes() []any {
 	return []any{
 		SolveParams{}, SolveResult{}, Mechanism{},
-		ReciprocateParams{}, ReciprocateResult{}, LoadPathParams{}, LoadPathResult{}, SweepParams{}, SweepResult{}, LayoutParams{},
+		ReciprocateParams{}, ReciprocateResult{}, LoadPathParams{}, LoadPathResult{}, SweepParams{}, SweepResult{}, LayoutParams{}, LayoutResult{},
 	}
 }

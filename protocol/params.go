@@ -168,6 +168,12 @@ type LayoutParams struct {
 	TensionLimit float64 `json:"tension_limit" jsonschema:"exclusiveMinimum=0"`
 	// CompressionLimit is the design stress in compression (a magnitude).
 	CompressionLimit float64 `json:"compression_limit" jsonschema:"exclusiveMinimum=0"`
+	// ElasticModulus is the Young's modulus put in the returned model, so
+	// that solve can analyse it; default 2.1e8 (steel in kN and m).
+	ElasticModulus float64 `json:"elastic_modulus,omitempty" jsonschema:"exclusiveMinimum=0"`
+	// Mode is "alternatives" (the default: the layout carries each case on
+	// its own) or "together" (the cases' loads act at once).
+	Mode string `json:"mode,omitempty" jsonschema:"enum=alternatives,enum=together"`
 	// Picture asks for an SVG drawing of the layout in the result.
 	Picture bool `json:"picture,omitempty"`
 }

@@ -236,14 +236,8 @@ func (s *Server) Serve(ctx context.Context, in io.Reader, out io.Writer) (failur
 					finish(nil, errorResponse(c.id, NewError(CodeShuttingDown, "shutting down", "The server is stopping and takes no new work.")))
 					break
 				}
-				var cctx context.Context = ctx
-				var stopTimer context.CancelFunc = func() {}
-				if s.Limits.TimeLimitSeconds > 0 {
-					cctx, stopTimer = context.WithTimeoutCause(ctx, time.Duration(s.Limits.TimeLimitSeconds*float64(time.Second)), errTimeLimit)
-				}
-				cctx, cancel := context.WithCancelCause(cctx)
-				c.ctx = cctx
-				c.cancel = func(cause error) { cancel(cause); stopTimer() }
+				cctx, cancel := context.WithCancelCause(ctx)
+				c.ctx, c.cancel = cctx, cancel
 				if c.id != nil {
 					tableMu.Lock()
 					_, busy := inFlight[c.key]
@@ -439,6 +433,13 @@ func (s *Server) run(c *call, w *writer) (resp *Response) {
 	if err := context.Cause(c.ctx); err != nil {
 		return errorResponse(c.id, s.contextError(c.ctx))
 	}
+	// The time limit counts from when a worker takes the request, so a
+	// request queued behind long work is not charged for the wait.
+	if s.Limits.TimeLimitSeconds > 0 {
+		ctx, stop := context.WithTimeoutCause(c.ctx, time.Duration(s.Limits.TimeLimitSeconds*float64(time.Second)), errTimeLimit)
+		defer stop()
+		c.ctx = ctx
+	}
 	c.mu.Lock()
 	c.start = time.Now()
 	c.mu.Unlock()
@@ -494,9 +495,9 @@ func marshalResponse(r *Response) []byte {
 	if r.ID == nil {
 		r.ID = json.RawMessage("null")
 	}
-	b, err := json.Marshal(r)
+	b, err := encode(r)
 	if err != nil {
-		b, _ = json.Marshal(errorResponse(r.ID, NewError(CodeInternal, "internal error",
+		b, _ = encode(errorResponse(r.ID, NewError(CodeInternal, "internal error",
 			fmt.Sprintf("The result could not be encoded as JSON (%v). This is a bug: please report it with the request.", err))))
 	}
 	return b
@@ -542,7 +543,7 @@ func (st *stream) Progress(stage string, done, total int, partial any) {
 	c.last[stage] = now
 	p := &Progress{Request: c.id, Stage: stage, Done: done, Total: total, Partial: partial}
 	if c.id != nil {
-		b, err := json.Marshal(Notification{JSONRPC: "2.0", Method: "progress", Params: p})
+		b, err := encode(Notification{JSONRPC: "2.0", Method: "progress", Params: p})
 		if err == nil {
 			st.w.send(b)
 		}
@@ -551,4 +552,16 @@ func (st *stream) Progress(stage string, done, total int, partial any) {
 	if st.s.OnProgress != nil {
 		st.s.OnProgress(p)
 	}
+}
+
+// encode marshals v without HTML escaping, so that ids and strings go out
+// byte for byte as the host sent them ("&" stays "&", not "\u0026").
+func encode(v any) ([]byte, error) {
+	var buf bytes.Buffer
+	enc := json.NewEncoder(&buf)
+	enc.SetEscapeHTML(false)
+	if err := enc.Encode(v); err != nil {
+		return nil, err
+	}
+	return bytes.TrimSuffix(buf.Bytes(), []byte("\n")), nil
 }

@@ -85,6 +85,9 @@ func Solve(ctx context.Context, m *model.Model, opt Options) (*Result, error) {
 	res.Stats.Order, res.Stats.Factor, err = sys.factorise(ctx, path, opt, rep)
 	var deficient *errDeficient
 	if errors.As(err, &deficient) {
+		if held, ok := solveHeld(ctx, m, nb, deficient.equations, opt, stability, res.Warnings); ok {
+			return held, nil
+		}
 		if nb.equations <= opt.StabilityLimit {
 			return nil, mechanismError(m, nb, deficient.equations, sys.dense(), sys.scale)
 		}

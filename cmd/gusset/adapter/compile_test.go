@@ -19,7 +19,7 @@ func solveRequestParams(members int) []byte {
 	for 8*n*n < members {
 		n++
 	}
-	b, err := json.Marshal(protocol.SolveParams{Model: *wireOf(modelgen.SpaceTruss3D(n, n))})
+	b, err := json.Marshal(protocol.SolveParams{Model: *WireModel(modelgen.SpaceTruss3D(n, n))})
 	if err != nil {
 		panic(err)
 	}

@@ -5,9 +5,9 @@ import (
 	"gusset/protocol"
 )
 
-// wireOf converts an engine Spec back to the wire model, so tests and
-// benchmarks can send generated models as requests.
-func wireOf(s *model.Spec) *protocol.Model {
+// WireModel converts an engine Spec back to the wire model, so that tests,
+// benchmarks and the layout optimiser can send engine-built models as requests.
+func WireModel(s *model.Spec) *protocol.Model {
 	num := func(v model.Value) protocol.Number {
 		if v.IsExpr {
 			return protocol.Number{Expr: v.Expr, IsExpr: true}

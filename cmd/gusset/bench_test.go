@@ -1,0 +1,38 @@
+package main
+
+import (
+	"bytes"
+	"encoding/json"
+	"fmt"
+	"io"
+	"strings"
+	"testing"
+
+	"gusset/cmd/gusset/adapter"
+	"gusset/engine/model/modelgen"
+	"gusset/protocol"
+)
+
+// BenchmarkSolveEndToEnd measures a solve from request line in to response
+// line out through the whole command (decode, validate, compile, assemble,
+// order, factorise, solve, recover, encode) for generated double-layer 3D
+// space trusses. The issue's goal: under 2 s at 100k members.
+func BenchmarkSolveEndToEnd(b *testing.B) {
+	for _, n := range []int{11, 35, 112} { // about 1k, 10k and 100k members
+		spec := modelgen.SpaceTruss3D(n, n)
+		params, err := json.Marshal(protocol.SolveParams{Model: *adapter.WireModel(spec)})
+		if err != nil {
+			b.Fatal(err)
+		}
+		line := fmt.Sprintf(`{"jsonrpc":"2.0","id":1,"method":"solve","params":%s}`+"\n", params)
+		b.Run(fmt.Sprintf("members=%d", len(spec.Members)), func(b *testing.B) {
+			b.SetBytes(int64(len(line)))
+			for i := 0; i < b.N; i++ {
+				var out bytes.Buffer
+				if code := run([]string{"run", "--jobs", "1", "-"}, strings.NewReader(line), &out, io.Discard); code != 0 {
+					b.Fatalf("exit %d: %.300s", code, out.String())
+				}
+			}
+		})
+	}
+}

@@ -1,0 +1,154 @@
+package layout
+
+// Domain is a plane design domain: the region inside Outline and outside
+// every hole. Outline and each hole are simple polygons given by their
+// vertices in either orientation (the last vertex joins the first). Units are
+// the model's length unit.
+type Domain struct {
+	Outline [][2]float64
+	Holes   [][][2]float64
+}
+
+// Rectangle returns the domain [x0, x1] × [y0, y1].
+func Rectangle(x0, y0, x1, y1 float64) Domain {
+	return Domain{Outline: [][2]float64{{x0, y0}, {x1, y0}, {x1, y1}, {x0, y1}}}
+}
+
+// Problem is a layout problem. Nodes are either a grid over Domain (set
+// Divisions or Spacing) or the caller's own Nodes (then Domain, if it has an
+// outline, only excludes members that leave it).
+type Problem struct {
+	Domain Domain
+	// Divisions is the number of grid steps across the domain's bounding
+	// box in x and y. When zero, Spacing is used.
+	Divisions [2]int
+	// Spacing is the grid step in both directions (length) when Divisions
+	// is zero; the step count is rounded to the nearest whole number.
+	Spacing float64
+	// Nodes are the caller's own nodes, used instead of a grid when not
+	// empty.
+	Nodes [][2]float64
+	// Level limits candidate members of a grid to at most Level grid steps
+	// in x and in y; 0 means full connectivity (every visible pair). It is
+	// ignored for the caller's own nodes, which are always fully connected.
+	Level int
+	// Supports and Cases locate loads and supports at nodes: by Node index
+	// (into the caller's Nodes, or into the grid nodes inside the domain,
+	// numbered row by row from the lowest y, x increasing within a row) or,
+	// when Node is negative, at the node nearest to At (within
+	// Options.SnapTolerance, else an error).
+	Supports []Support
+	Cases    []Case
+	// TensionLimit and CompressionLimit are the allowable stresses σ_t and
+	// σ_c (force/length²), both positive.
+	TensionLimit, CompressionLimit float64
+	// JointCost is an optional length added to every member in the
+	// objective, a simple cost of a joint (Parkes, "Joints in optimum
+	// frameworks", Int. J. Solids Struct. 11, 1975; from memory). The
+	// reported volume excludes it.
+	JointCost float64
+	// Mode says how several load cases combine; it is ignored for one case.
+	Mode Mode
+}
+
+// Mode is how several load cases act.
+type Mode int
+
+const (
+	// Alternatives: the cases act one at a time and the layout must carry
+	// each (the multiple-load-case program).
+	Alternatives Mode = iota
+	// Together: the cases act at once; their loads are added into one case.
+	Together
+	// SingleEquivalent: two alternative cases with equal stress limits,
+	// solved as the two single cases (f¹+f²)/2 and (f¹−f²)/2 and
+	// superposed; same optimum as Alternatives.
+	SingleEquivalent
+)
+
+// Support fixes the x and/or y freedom of a node.
+type Support struct {
+	Node int // node index, or −1 to use At
+	At   [2]float64
+	Fix  [2]bool
+}
+
+// Case is a named set of nodal loads.
+type Case struct {
+	ID    string
+	Loads []Load
+}
+
+// Load is a force at a node (force units, global axes).
+type Load struct {
+	Node  int // node index, or −1 to use At
+	At    [2]float64
+	Force [2]float64
+}
+
+// Method chooses how the linear program is solved.
+type Method int
+
+const (
+	// MemberAdding starts from short members and adds violating candidates
+	// (Gilbert & Tyas 2003); interior-point solves.
+	MemberAdding Method = iota
+	// AllCandidates solves one interior-point program over every candidate.
+	AllCandidates
+	// DenseSimplex solves one program over every candidate with gonum's
+	// dense simplex method; for small problems only (DenseSimplexLimit).
+	DenseSimplex
+)
+
+// Options tune Optimise. The zero value is valid.
+type Options struct {
+	Method Method
+	// MaxCandidates limits the number of candidate members; default
+	// 5 000 000. More is an error of kind InvalidModel.
+	MaxCandidates int
+	// DenseSimplexLimit is the largest program (rows × columns) that
+	// DenseSimplex accepts; default 4 000 000.
+	DenseSimplexLimit int
+	// AddPerIteration caps the members added per member-adding iteration,
+	// the most violating first; default the larger of 200 and a fifth of
+	// the members already in the program.
+	AddPerIteration int
+	// AddTolerance is the relative violation of the dual limits below which
+	// a candidate is not added; the final optimality gap is below it.
+	// Default 1e-4.
+	AddTolerance float64
+	// MaxIterations caps the member-adding iterations; default 100.
+	MaxIterations int
+	// Tolerance is the interior-point relative tolerance; default 1e-9.
+	// Member adding solves its intermediate programs to 1e-6 and only the
+	// last to Tolerance.
+	Tolerance float64
+	// AreaThreshold keeps members whose area is at least this fraction of
+	// the largest area; default 1e-4.
+	AreaThreshold float64
+	// SnapTolerance is the largest distance from a load's or support's At
+	// to its node; default a hundredth of the smallest node spacing.
+	SnapTolerance float64
+}
+
+func (o Options) withDefaults() Options {
+	if o.MaxCandidates <= 0 {
+		o.MaxCandidates = 5_000_000
+	}
+	if o.DenseSimplexLimit <= 0 {
+		o.DenseSimplexLimit = 4_000_000
+	}
+	if o.AddTolerance <= 0 {
+		o.AddTolerance = 1e-4
+	}
+	if o.MaxIterations <= 0 {
+		o.MaxIterations = 100
+	}
+	if o.Tolerance <= 0 {
+		o.Tolerance = 1e-9
+	}
+	if o.AreaThreshold <= 0 {
+		o.AreaThreshold = 1e-4
+	}
+	return o
+}

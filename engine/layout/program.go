@@ -1,0 +1,226 @@
+package layout
+
+import "math"
+
+// program is the linear program of a layout problem over a set of members
+// (candidate indices), in standard form min cᵀx, A x = b, x ≥ 0.
+//
+// One case (K = 1): columns are T_i and C_i for every member, then two
+// artificial columns ±1 per equilibrium row. Rows are the free freedoms.
+//
+// K > 1 cases (the multiple-load-case program): columns are the areas a_i,
+// then per case k the tensions Tᵏ, compressions Cᵏ, capacity slacks sᵏ and
+// the artificial columns; rows per case are the free freedoms (B(Tᵏ−Cᵏ) =
+// fᵏ) and one capacity row per member (Tᵢᵏ/σ_t + Cᵢᵏ/σ_c + sᵢᵏ − a_i = 0).
+//
+// The artificial columns cost penalty per unit force; they keep every
+// program feasible, so a positive artificial at the optimum means the loads
+// cannot reach the supports through these members.
+type program struct {
+	members  []int // candidate indices
+	cases    int
+	freeRows int
+	a        *sparseColumns
+	b, c     []float64
+	rowCoord [][2]float64
+}
+
+// setting is the fixed data every program of one problem shares.
+type setting struct {
+	g              *groundStructure
+	rowOf          [][2]int // equilibrium row of (node, component), or −1 where fixed
+	freeRows       int
+	rowNode        []int       // node of each equilibrium row
+	loads          [][]float64 // per case, per equilibrium row
+	tension, compr float64
+	jointCost      float64
+	penalty        float64
+}
+
+func (st *setting) cost(k int) float64 {
+	return st.g.length(st.g.candidates[k]) + st.jointCost
+}
+
+// unit returns the unit vector of candidate k from its first to its second
+// node.
+func (st *setting) unit(k int) [2]float64 {
+	c := st.g.candidates[k]
+	p, q := st.g.nodes[c.a], st.g.nodes[c.b]
+	length := math.Hypot(q[0]-p[0], q[1]-p[1])
+	return [2]float64{(q[0] - p[0]) / length, (q[1] - p[1]) / length}
+}
+
+// column returns the rows and values of B's column for candidate k.
+func (st *setting) column(k int) (rows []int32, values []float64) {
+	c := st.g.candidates[k]
+	e := st.unit(k)
+	for comp := 0; comp < 2; comp++ {
+		if r := st.rowOf[c.a][comp]; r >= 0 {
+			rows = append(rows, int32(r))
+			values = append(values, -e[comp])
+		}
+		if r := st.rowOf[c.b][comp]; r >= 0 {
+			rows = append(rows, int32(r))
+			values = append(values, e[comp])
+		}
+	}
+	return rows, values
+}
+
+func (st *setting) build(members []int) *program {
+	K := len(st.loads)
+	R := st.freeRows
+	m := len(members)
+	p := &program{members: members, cases: K, freeRows: R}
+	a := &sparseColumns{colStart: []int{0}}
+	addColumn := func(rows []int32, values []float64, cost float64) {
+		// Rows must be ascending within a column.
+		for s := 1; s < len(rows); s++ {
+			for t := s; t > 0 && rows[t] < rows[t-1]; t-- {
+				rows[t], rows[t-1] = rows[t-1], rows[t]
+				values[t], values[t-1] = values[t-1], values[t]
+			}
+		}
+		a.rowIndex = append(a.rowIndex, rows...)
+		a.value = append(a.value, values...)
+		a.colStart = append(a.colStart, len(a.rowIndex))
+		p.c = append(p.c, cost)
+	}
+	negate := func(v []float64) []float64 {
+		out := make([]float64, len(v))
+		for i, t := range v {
+			out[i] = -t
+		}
+		return out
+	}
+	nodeCoord := func(r int) [2]float64 { return st.g.nodes[st.rowNode[r]] }
+	if K == 1 {
+		for _, k := range members {
+			rows, values := st.column(k)
+			cost := st.cost(k)
+			addColumn(rows, values, cost/st.tension)
+			addColumn(append([]int32(nil), rows...), negate(values), cost/st.compr)
+		}
+		for r := 0; r < R; r++ {
+			addColumn([]int32{int32(r)}, []float64{1}, st.penalty)
+			addColumn([]int32{int32(r)}, []float64{-1}, st.penalty)
+			p.rowCoord = append(p.rowCoord, nodeCoord(r))
+		}
+		p.b = append([]float64(nil), st.loads[0]...)
+		a.rows = R
+	} else {
+		block := R + m // rows per case
+		for i, k := range members {
+			rows := make([]int32, K)
+			values := make([]float64, K)
+			for c := 0; c < K; c++ {
+				rows[c] = int32(c*block + R + i)
+				values[c] = -1
+			}
+			addColumn(rows, values, st.cost(k))
+		}
+		for c := 0; c < K; c++ {
+			offset := int32(c * block)
+			for i, k := range members {
+				rows, values := st.column(k)
+				for t := range rows {
+					rows[t] += offset
+				}
+				capRow := offset + int32(R+i)
+				addColumn(append(append([]int32(nil), rows...), capRow), append(append([]float64(nil), values...), 1/st.tension), 0)
+				addColumn(append(append([]int32(nil), rows...), capRow), append(negate(values), 1/st.compr), 0)
+			}
+			for i := range members {
+				addColumn([]int32{offset + int32(R+i)}, []float64{1}, 0)
+			}
+			for r := 0; r < R; r++ {
+				addColumn([]int32{offset + int32(r)}, []float64{1}, st.penalty)
+				addColumn([]int32{offset + int32(r)}, []float64{-1}, st.penalty)
+			}
+			for r := 0; r < R; r++ {
+				p.rowCoord = append(p.rowCoord, nodeCoord(r))
+			}
+			for _, k := range members {
+				cd := st.g.candidates[k]
+				pa, pb := st.g.nodes[cd.a], st.g.nodes[cd.b]
+				p.rowCoord = append(p.rowCoord, [2]float64{(pa[0] + pb[0]) / 2, (pa[1] + pb[1]) / 2})
+			}
+			p.b = append(p.b, st.loads[c]...)
+			p.b = append(p.b, make([]float64, m)...)
+		}
+		a.rows = K * block
+	}
+	a.cols = len(p.c)
+	p.a = a
+	return p
+}
+
+// forces returns the member forces per case (tension positive) and the
+// total artificial force per case from a primal solution x.
+func (p *program) forces(x []float64) (forces [][]float64, artificial []float64) {
+	m, R := len(p.members), p.freeRows
+	forces = make([][]float64, p.cases)
+	artificial = make([]float64, p.cases)
+	if p.cases == 1 {
+		forces[0] = make([]float64, m)
+		for i := 0; i < m; i++ {
+			forces[0][i] = x[2*i] - x[2*i+1]
+		}
+		for j := 2 * m; j < len(x); j++ {
+			artificial[0] += x[j]
+		}
+		return forces, artificial
+	}
+	perCase := 3*m + 2*R
+	for c := 0; c < p.cases; c++ {
+		base := m + c*perCase
+		forces[c] = make([]float64, m)
+		for i := 0; i < m; i++ {
+			forces[c][i] = x[base+2*i] - x[base+2*i+1]
+		}
+		for j := base + 3*m; j < base+perCase; j++ {
+			artificial[c] += x[j]
+		}
+	}
+	return forces, artificial
+}
+
+// displacements returns the nodal virtual displacements per case from the
+// dual values y (zero at fixed freedoms).
+func (p *program) displacements(st *setting, y []float64) [][][2]float64 {
+	u := make([][][2]float64, p.cases)
+	block := p.freeRows
+	if p.cases > 1 {
+		block += len(p.members)
+	}
+	for c := range u {
+		u[c] = make([][2]float64, len(st.g.nodes))
+		for r := 0; r < p.freeRows; r++ {
+			node := st.rowNode[r]
+			comp := 0
+			if st.rowOf[node][1] == r {
+				comp = 1
+			}
+			u[c][node][comp] = y[c*block+r]
+		}
+	}
+	return u
+}
+
+// artificialBasis returns a feasible starting basis for the simplex method
+// for a one-case program: per row, the artificial column whose sign
+// matches the load there.
+func (p *program) artificialBasis() []int {
+	if p.cases != 1 {
+		return nil
+	}
+	basis := make([]int, p.freeRows)
+	first := 2 * len(p.members)
+	for r := range basis {
+		basis[r] = first + 2*r
+		if p.b[r] < 0 {
+			basis[r]++
+		}
+	}
+	return basis
+}
