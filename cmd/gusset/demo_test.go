@@ -27,7 +27,7 @@ func TestDemo(t *testing.T) {
 	if !strings.Contains(out, "largest compression  -540.0 kN (U4-U5)") {
 		t.Errorf("crowd case chord force not as derived by sections:\n%s", out)
 	}
-	for _, file := range []string{"depth-study.svg", "form-and-force.svg"} {
+	for _, file := range []string{"depth-study.svg", "form-and-force.svg", "least-material-layout.svg"} {
 		b, err := os.ReadFile(filepath.Join(dir, file))
 		if err != nil {
 			t.Fatal(err)

@@ -28,10 +28,10 @@ type SVGOptions struct {
 // Colours and dashes of the picture. Tension and compression differ in
 // both colour and line style so that the picture reads in grey too.
 const (
-	tensionColour     = "#a4372a" // brick red, solid
-	compressionColour = "#2a5d8f" // slate blue, dashed
+	tensionColour     = "#1f5fa8" // blue, solid: the same as the reciprocal-diagram pictures
+	compressionColour = "#b8322a" // red, dashed
 	supportColour     = "#3b3b3b"
-	loadColour        = "#1d7a3c"
+	loadColour        = "#2e7d32"
 )
 
 // WriteSVG draws the layout as an SVG picture: members with stroke width
