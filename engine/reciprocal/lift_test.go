@@ -17,9 +17,9 @@ import (
 // singular vector of the smallest singular value, gonum SVD), scaled so
 // its largest entry is 1 in magnitude. It also returns that singular value
 // relative to the largest, which is zero up to round-off when the state
-// exists (S. Pellegrino and C. R. Calladine, "Matrix analysis of statically
-// and kinematically indeterminate frameworks", Int. J. Solids Struct. 22,
-// 1986, from memory).
+// exists (S. Pellegrino, "Structural computations with the singular value
+// decomposition of the equilibrium matrix", Int. J. Solids Struct. 30,
+// 1993, from memory).
 func selfStress(t *testing.T, m *model.Model) ([]float64, float64) {
 	t.Helper()
 	n, ne := m.NodeCount(), len(m.Members)
@@ -221,8 +221,8 @@ func TestTriangleLift(t *testing.T) {
 // equilibrium-matrix analysis finds for the plane K4 pinned at two
 // corners: with the supports, each state may load them, and SelfStressInput
 // supplies those reactions, so every state's diagram closes at round-off
-// and its lift's slope jumps are its forces (Pellegrino and Calladine
-// 1986; Maxwell 1864, from memory).
+// and its lift's slope jumps are its forces (Pellegrino 1993; Maxwell
+// 1864, from memory).
 func TestSupportedSelfStress(t *testing.T) {
 	fw := frameworks()["wheel"]
 	m := newModel(fw.xy, fw.ends)

@@ -327,7 +327,7 @@ func boundaryNodes(t *testing.T, m *model.Model) []bool {
 // TestStaticsSelfStress reciprocates every state of self-stress that the
 // equilibrium-matrix analysis of a free triangulated grid finds: each is a
 // self-equilibrated set of axial forces (the null space of the equilibrium
-// matrix; Pellegrino and Calladine 1986, from memory), so its diagram
+// matrix; Pellegrino 1993, from memory), so its diagram
 // closes and its lift's slope jumps are its forces.
 func TestStaticsSelfStress(t *testing.T) {
 	rng := rand.New(rand.NewPCG(9, 9))

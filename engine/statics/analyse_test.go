@@ -11,10 +11,10 @@ import (
 )
 
 // TestCountingRule checks s and m against the extended Maxwell rule on
-// classic frameworks. The expected counts are the standard textbook cases
-// of Pellegrino & Calladine, "Matrix analysis of statically and
-// kinematically indeterminate frameworks", Int. J. Solids Struct. 22, 1986
-// (the rule b − d·j + k = s − m, their eq. 1), with s and m read off by
+// classic frameworks. The expected counts are standard textbook cases of
+// the rule b − d·j + k = s − m (S. Pellegrino, "Structural computations
+// with the singular value decomposition of the equilibrium matrix", Int. J.
+// Solids Struct. 30, 1993, from memory), with s and m read off by
 // inspection as stated per case.
 func TestCountingRule(t *testing.T) {
 	square := []float64{0, 0, 1, 0, 1, 1, 0, 1}
@@ -43,8 +43,7 @@ func TestCountingRule(t *testing.T) {
 		// Two collinear bars between two pins: the count is 2 − 6 + 4 = 0,
 		// yet s = 1 (the bars can be equally tensioned) and m = 1 (the
 		// middle joint moves sideways to first order) — the example that
-		// motivates the extended rule (Calladine 1978, Pellegrino &
-		// Calladine 1986).
+		// motivates the extended rule (Pellegrino 1993, from memory).
 		{"collinear pair", frame(2, []float64{0, 0, 1, 0, 2, 0}, [][2]int{{0, 1}, {1, 2}}, model.Bar, map[int][]int{0: pin, 2: pin}), 1, 1, 0, 4},
 		// A tetrahedron on 6 constraints is the 3D stiff frame: 6 − 12 + 6.
 		{"tetrahedron", frame(3, []float64{0, 0, 0, 1, 0, 0, 0, 1, 0, 0, 0, 1}, [][2]int{{0, 1}, {0, 2}, {0, 3}, {1, 2}, {1, 3}, {2, 3}}, model.Bar,

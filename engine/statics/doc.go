@@ -5,19 +5,20 @@
 // balance, A·t = f, with one row per unconstrained nodal freedom and one
 // column per independent member force; its transpose is the compatibility
 // matrix that maps nodal displacements to member extensions (the static–
-// kinematic duality of Pellegrino & Calladine, "Matrix analysis of
-// statically and kinematically indeterminate frameworks", Int. J. Solids
-// Struct. 22, 1986). With r the rank of A, the framework has
+// kinematic duality set out in S. Pellegrino, "Structural computations with
+// the singular value decomposition of the equilibrium matrix", Int. J.
+// Solids Struct. 30, 1993, from memory). With r the rank of A, the
+// framework has
 //
 //	s = c − r   states of self-stress (the null space of A), and
 //	m = n − r   inextensional mechanisms (the null space of Aᵀ),
 //
 // where c is the number of columns and n the number of rows, which is
 // Maxwell's counting rule in its extended form b − d·j + k = s − m
-// (Calladine, "Buckminster Fuller's 'tensegrity' structures and Clerk
-// Maxwell's rules for the construction of stiff frames", Int. J. Solids
-// Struct. 14, 1978) for a pin-jointed framework of b bars, j joints in d
-// dimensions and k kinematic constraints.
+// (J. C. Maxwell, "On the calculation of the equilibrium and stiffness of
+// frames", Phil. Mag. 27, 1864, with s and m as in Pellegrino 1993) for a
+// pin-jointed framework of b bars, j joints in d dimensions and k
+// kinematic constraints.
 //
 // Pin-jointed models have one column per bar (its axial force, tension
 // positive). Models with beams use the generalised form: a 2D beam has three

@@ -31,7 +31,7 @@ func square(extra ...[2]int) *builder {
 // as a mechanism naming the freedoms that move: by inextensibility of the
 // bars (first order) only the top joints move, both sideways equally, so
 // the unit mode is x = 1/√2 at n2 and n3 (the sway of a four-bar linkage,
-// Pellegrino & Calladine 1986).
+// Pellegrino 1993, from memory).
 func TestMechanismSquare(t *testing.T) {
 	for _, path := range []Path{Dense, Sparse} {
 		_, err := Solve(context.Background(), square().m, Options{Path: path})

@@ -13,10 +13,10 @@ import (
 
 // mechanisms returns the number of independent mechanisms of a pin-jointed
 // model: the free translational freedoms minus the rank of the equilibrium
-// matrix A (A·t = f, one column per bar). Pellegrino and Calladine, "Matrix
-// analysis of statically and kinematically indeterminate frameworks",
-// Int. J. Solids Struct. 22(4), 1986: m = 3j − c − r(A), here counting the
-// free freedoms directly.
+// matrix A (A·t = f, one column per bar). S. Pellegrino, "Structural
+// computations with the singular value decomposition of the equilibrium
+// matrix", Int. J. Solids Struct. 30(21), 1993 (from memory):
+// m = 3j − c − r(A), here counting the free freedoms directly.
 func mechanisms(t *testing.T, m *model.Model) (mech, selfStress int) {
 	t.Helper()
 	dim := m.Dim
@@ -72,9 +72,9 @@ func TestTrussesHaveNoMechanism(t *testing.T) {
 		{"pratt 2", Pratt(2, 8, 2, 10), 4, 5, 0},
 		{"pratt 6", Pratt(6, 24, 3, 10), 12, 21, 0},
 		{"pratt 7", Pratt(7, 28, 3, 10), 14, 25, 0},
-		// With no mechanism, the extended Maxwell rule (Calladine, "Buckminster
-		// Fuller's tensegrity structures and Clerk Maxwell's rules for the
-		// construction of stiff frames", Int. J. Solids Struct. 14, 1978)
+		// With no mechanism, the extended Maxwell rule (J. C. Maxwell, "On the
+		// calculation of the equilibrium and stiffness of frames", Phil. Mag.
+		// 27, 1864, extended with s and m in Pellegrino 1993, from memory)
 		// gives s = b − (free freedoms). Braced grid: b = 3·nx·ny + nx + ny,
 		// free = 2·nx·(ny+1), so s = nx·ny − nx + ny.
 		{"grid 3x2", GridTruss2D(3, 2), 12, 23, 3*2 - 3 + 2},
