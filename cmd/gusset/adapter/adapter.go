@@ -23,8 +23,13 @@ type entry struct {
 	handler func(a *Adapter) protocol.Handler
 }
 
-// registry lists the engine methods; each method's file adds itself.
+// registry lists the engine methods; each method's file adds itself with
+// register.
 var registry []entry
+
+func register(m protocol.Method, handler func(a *Adapter) protocol.Handler) {
+	registry = append(registry, entry{method: m, handler: handler})
+}
 
 // Adapter holds the limits the handlers enforce and the schema validator.
 type Adapter struct {
@@ -126,6 +131,15 @@ func (a *Adapter) decode(method string, params json.RawMessage, v any) error {
 		return e
 	}
 	return protocol.NewError(protocol.CodeInvalidParams, "invalid params", "The params could not be decoded: "+err.Error()+".")
+}
+
+// decodeModel decodes params into p (see decode) and compiles the model w
+// that p holds.
+func (a *Adapter) decodeModel(ctx context.Context, method string, params json.RawMessage, p any, w *protocol.Model) (*model.Model, error) {
+	if err := a.decode(method, params, p); err != nil {
+		return nil, err
+	}
+	return a.compile(ctx, w, "/params/model")
 }
 
 // compile checks the model against the size limits and compiles it.

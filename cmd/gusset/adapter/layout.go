@@ -12,11 +12,9 @@ import (
 )
 
 func init() {
-	registry = append(registry, entry{
-		method: protocol.Method{Name: "optimise-layout", Params: "LayoutParams", Result: "LayoutResult",
-			Summary: "The least-volume pin-jointed layout over a design domain by the ground-structure method with member adding, returned as a model ready for analysis."},
-		handler: func(a *Adapter) protocol.Handler { return a.optimiseLayout },
-	})
+	register(protocol.Method{Name: "optimise-layout", Params: "LayoutParams", Result: "LayoutResult",
+		Summary: "The least-volume pin-jointed layout over a design domain by the ground-structure method with member adding, returned as a model ready for analysis."},
+		func(a *Adapter) protocol.Handler { return a.optimiseLayout })
 }
 
 // defaultModulus is steel's Young's modulus in kN/m², the default for the

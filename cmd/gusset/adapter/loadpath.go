@@ -13,19 +13,14 @@ import (
 )
 
 func init() {
-	registry = append(registry, entry{
-		method: protocol.Method{Name: "load-path", Params: "LoadPathParams", Result: "LoadPathResult",
-			Summary: "Maxwell's load path and theorem residual, member sizing, volume, mass and embodied carbon, enveloped over cases."},
-		handler: func(a *Adapter) protocol.Handler { return a.loadPath },
-	})
+	register(protocol.Method{Name: "load-path", Params: "LoadPathParams", Result: "LoadPathResult",
+		Summary: "Maxwell's load path and theorem residual, member sizing, volume, mass and embodied carbon, enveloped over cases."},
+		func(a *Adapter) protocol.Handler { return a.loadPath })
 }
 
 func (a *Adapter) loadPath(ctx context.Context, params json.RawMessage, st protocol.Stream) (any, error) {
 	var p protocol.LoadPathParams
-	if err := a.decode("load-path", params, &p); err != nil {
-		return nil, err
-	}
-	m, err := a.compile(ctx, &p.Model, "/params/model")
+	m, err := a.decodeModel(ctx, "load-path", params, &p, &p.Model)
 	if err != nil {
 		return nil, err
 	}

@@ -16,19 +16,14 @@ import (
 )
 
 func init() {
-	registry = append(registry, entry{
-		method: protocol.Method{Name: "reciprocate", Params: "ReciprocateParams", Result: "ReciprocateResult",
-			Summary: "The reciprocal force diagram of a planar network in Bow's notation, its closure and its Airy stress function; with edit, the form that fits an edited force diagram."},
-		handler: func(a *Adapter) protocol.Handler { return a.reciprocate },
-	})
+	register(protocol.Method{Name: "reciprocate", Params: "ReciprocateParams", Result: "ReciprocateResult",
+		Summary: "The reciprocal force diagram of a planar network in Bow's notation, its closure and its Airy stress function; with edit, the form that fits an edited force diagram."},
+		func(a *Adapter) protocol.Handler { return a.reciprocate })
 }
 
 func (a *Adapter) reciprocate(ctx context.Context, params json.RawMessage, st protocol.Stream) (any, error) {
 	var p protocol.ReciprocateParams
-	if err := a.decode("reciprocate", params, &p); err != nil {
-		return nil, err
-	}
-	m, err := a.compile(ctx, &p.Model, "/params/model")
+	m, err := a.decodeModel(ctx, "reciprocate", params, &p, &p.Model)
 	if err != nil {
 		return nil, err
 	}

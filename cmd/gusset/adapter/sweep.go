@@ -15,19 +15,14 @@ import (
 )
 
 func init() {
-	registry = append(registry, entry{
-		method: protocol.Method{Name: "sweep-parameter", Params: "SweepParams", Result: "SweepResult",
-			Summary: "Varies one or two parameters, streams every step's metrics, and refines the best step to an optimum (Brent's method; Nelder–Mead for two)."},
-		handler: func(a *Adapter) protocol.Handler { return a.sweep },
-	})
+	register(protocol.Method{Name: "sweep-parameter", Params: "SweepParams", Result: "SweepResult",
+		Summary: "Varies one or two parameters, streams every step's metrics, and refines the best step to an optimum (Brent's method; Nelder–Mead for two)."},
+		func(a *Adapter) protocol.Handler { return a.sweep })
 }
 
 func (a *Adapter) sweep(ctx context.Context, params json.RawMessage, st protocol.Stream) (any, error) {
 	var p protocol.SweepParams
-	if err := a.decode("sweep-parameter", params, &p); err != nil {
-		return nil, err
-	}
-	m, err := a.compile(ctx, &p.Model, "/params/model")
+	m, err := a.decodeModel(ctx, "sweep-parameter", params, &p, &p.Model)
 	if err != nil {
 		return nil, err
 	}
