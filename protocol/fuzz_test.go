@@ -8,6 +8,7 @@ import (
 	"strings"
 	"testing"
 	"time"
+	"unicode/utf8"
 )
 
 // fuzzLineLimit is small so that the fuzzer reaches the oversize-line path
@@ -22,7 +23,8 @@ const fuzzLineLimit = 200
 // string or number id gets exactly one final response echoing that id byte
 // for byte (compacted); lines that are not JSON objects, or whose id has
 // another type, get a response with a null id; and no notification follows
-// its request's final response.
+// its request's final response. Member names are matched exactly (RFC 8259
+// §4), so "ID" is not the id.
 func FuzzServe(f *testing.F) {
 	seeds := []string{
 		`{"jsonrpc":"2.0","id":1,"method":"echo","params":{"a":1}}`,
@@ -35,6 +37,9 @@ func FuzzServe(f *testing.F) {
 		`{"jsonrpc":"2.0","id":3,"method":"nope"}`,
 		`{"jsonrpc":"2.0","id":4,"method":"echo","params":[1]}`,
 		`{"jsonrpc":"2.0","id":"\u00fc","method":"echo"} {}`,
+		`{"jsonrpc":"2.0","id":5,"ID":{"a":6},"method":"echo"}`,
+		`{"jsonrpc":"2.0","id":"a&b<c>","method":"echo","params":{"s":"\u0026"}}`,
+		"{\"jsonrpc\":\"2.0\",\"id\":\"\xff\",\"method\":\"echo\"}",
 		`{"jsonrpc":"2.0","id":7,"method":"echo","params":{"s":"` + strings.Repeat("x", fuzzLineLimit) + `"}}`,
 		`{"jsonrpc":"2.0","id":8,"method":"boom"}` + "\n" + `{"jsonrpc":"2.0","id":8,"method":"echo"}`,
 		`{"jsonrpc":"2.0","id":9,"method":"wait"}` + "\n" + `{"jsonrpc":"2.0","id":10,"method":"cancel","params":{"request":9}}` + "\n" + `{"jsonrpc":"2.0","id":9,"method":"fail"}`,
@@ -56,6 +61,9 @@ func FuzzServe(f *testing.F) {
 		sc.Buffer(nil, 1<<24)
 		for sc.Scan() {
 			line := sc.Bytes()
+			if !utf8.Valid(line) {
+				t.Fatalf("output line is not UTF-8: %q", line)
+			}
 			var m map[string]json.RawMessage
 			if err := json.Unmarshal(line, &m); err != nil {
 				t.Fatalf("output line is not a JSON object: %q", line)
@@ -193,7 +201,8 @@ const (
 // (the last one when repeated, as a JSON object's later member wins) and
 // returns its compacted text.
 func requestID(line []byte) (string, idKind) {
-	if !json.Valid(line) {
+	// RFC 8259 §8.1: JSON exchanged between systems is UTF-8.
+	if !utf8.Valid(line) || !json.Valid(line) {
 		return "", idBad
 	}
 	dec := json.NewDecoder(bytes.NewReader(line))

@@ -152,8 +152,12 @@ type call struct {
 	cancel context.CancelCauseFunc
 	mu     sync.Mutex
 	done   bool
-	start  time.Time
-	last   map[string]time.Time
+	// stopped is set by a cancel that found the call still running; the
+	// call is then answered with the cancelled error whatever its handler
+	// returned, so the cancel's answer and the call's agree.
+	stopped bool
+	start   time.Time
+	last    map[string]time.Time
 }
 
 var errCancelledByHost = errors.New("cancelled by a cancel request")
@@ -177,13 +181,11 @@ func (s *Server) Serve(ctx context.Context, in io.Reader, out io.Writer) (failur
 		failMu   sync.Mutex
 	)
 	finish := func(c *call, resp *Response) {
-		if resp.Error != nil {
-			failMu.Lock()
-			failures++
-			failMu.Unlock()
-		}
 		if c != nil {
 			c.mu.Lock()
+			if c.stopped {
+				resp = errorResponse(c.id, NewError(CodeCancelled, "cancelled", "The request was cancelled by a cancel request."))
+			}
 			c.done = true
 			c.mu.Unlock()
 			tableMu.Lock()
@@ -197,6 +199,11 @@ func (s *Server) Serve(ctx context.Context, in io.Reader, out io.Writer) (failur
 			if c.id == nil {
 				return // a notification gets no response
 			}
+		}
+		if resp.Error != nil {
+			failMu.Lock()
+			failures++
+			failMu.Unlock()
 		}
 		if s.OnResponse != nil {
 			s.OnResponse(resp)
@@ -308,48 +315,37 @@ func (s *Server) parse(line []byte) (*call, *Response) {
 		return nil, errorResponse(nil, NewError(CodeParseError, "parse error",
 			"The line is not valid UTF-8. Send requests as UTF-8 JSON, one per line."))
 	}
-	var raw any
-	dec := json.NewDecoder(bytes.NewReader(line))
-	dec.UseNumber()
-	if err := dec.Decode(&raw); err != nil || dec.More() {
+	if !json.Valid(line) {
+		var raw any
 		msg := "The line is not valid JSON"
-		if err != nil {
+		if err := json.Unmarshal(line, &raw); err != nil {
 			msg += ": " + err.Error()
-		} else {
-			msg += ": more than one value on the line"
 		}
 		return nil, errorResponse(nil, NewError(CodeParseError, "parse error", msg+". Send one JSON-RPC request object per line."))
 	}
-	obj, ok := raw.(map[string]any)
-	if !ok {
+	// Members are taken by their exact names (RFC 8259 §4): decoding into a
+	// struct would also accept "ID" or "Method". The params stay raw.
+	var members map[string]json.RawMessage
+	if err := json.Unmarshal(line, &members); err != nil {
 		return nil, errorResponse(nil, NewError(CodeInvalidRequest, "invalid request",
 			"The message is not a JSON object. Send one JSON-RPC 2.0 request object per line.", Problem{Path: "", Message: "expected an object"}))
 	}
-	var env struct {
-		JSONRPC any             `json:"jsonrpc"`
-		ID      json.RawMessage `json:"id"`
-		Method  any             `json:"method"`
-		Params  json.RawMessage `json:"params"`
-	}
-	_ = json.Unmarshal(line, &env) // cannot fail: the line decoded above
 	var id json.RawMessage
-	if _, has := obj["id"]; has {
-		switch obj["id"].(type) {
-		case string, json.Number:
-			var compact bytes.Buffer
-			_ = json.Compact(&compact, env.ID)
-			id = compact.Bytes()
-		default:
+	if raw, has := members["id"]; has {
+		var compact bytes.Buffer
+		_ = json.Compact(&compact, raw)
+		if c := compact.Bytes()[0]; c != '"' && c != '-' && (c < '0' || c > '9') {
 			return nil, errorResponse(nil, NewError(CodeInvalidRequest, "invalid request",
 				"The id must be a string or a number.", Problem{Path: "/id", Message: "expected a string or a number"}))
 		}
+		id = compact.Bytes()
 	}
-	if v, _ := env.JSONRPC.(string); v != "2.0" {
+	var version, method string
+	if json.Unmarshal(members["jsonrpc"], &version) != nil || version != "2.0" {
 		return nil, errorResponse(id, NewError(CodeInvalidRequest, "invalid request",
 			`The request lacks "jsonrpc": "2.0".`, Problem{Path: "/jsonrpc", Message: `must be "2.0"`}))
 	}
-	method, ok := env.Method.(string)
-	if !ok || method == "" {
+	if json.Unmarshal(members["method"], &method) != nil || method == "" {
 		return nil, errorResponse(id, NewError(CodeInvalidRequest, "invalid request",
 			"The request lacks a method name (a string).", Problem{Path: "/method", Message: "expected a method name"}))
 	}
@@ -357,14 +353,12 @@ func (s *Server) parse(line []byte) (*call, *Response) {
 		return nil, errorResponse(id, NewError(CodeMethodNotFound, "method not found",
 			fmt.Sprintf("There is no method %q; the methods are %s.", method, s.methodList()), Problem{Path: "/method", Message: "unknown method"}))
 	}
-	params := env.Params
-	if p, has := obj["params"]; has && p != nil {
-		if _, isObj := p.(map[string]any); !isObj {
-			return nil, errorResponse(id, NewError(CodeInvalidParams, "invalid params",
-				"The params must be an object with named members.", Problem{Path: "/params", Message: "expected an object"}))
-		}
-	} else {
+	params := bytes.TrimSpace(members["params"])
+	if len(params) == 0 || string(params) == "null" {
 		params = json.RawMessage("{}")
+	} else if params[0] != '{' {
+		return nil, errorResponse(id, NewError(CodeInvalidParams, "invalid params",
+			"The params must be an object with named members.", Problem{Path: "/params", Message: "expected an object"}))
 	}
 	if s.Validate != nil {
 		if e := s.Validate(method, params); e != nil {
@@ -407,10 +401,16 @@ func (s *Server) cancel(c *call, mu *sync.Mutex, inFlight map[string]*call) *Res
 	mu.Lock()
 	target := inFlight[compact.String()]
 	mu.Unlock()
+	stopped := false
 	if target != nil {
-		target.cancel(errCancelledByHost)
+		target.mu.Lock()
+		if !target.done {
+			target.stopped, stopped = true, true
+			target.cancel(errCancelledByHost)
+		}
+		target.mu.Unlock()
 	}
-	return &Response{JSONRPC: "2.0", ID: c.id, Result: CancelResult{Cancelled: target != nil}}
+	return &Response{JSONRPC: "2.0", ID: c.id, Result: CancelResult{Cancelled: stopped}}
 }
 
 func (s *Server) describeResult() DescribeResult {

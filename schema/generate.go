@@ -70,12 +70,13 @@ func mapType(t reflect.Type) *jsonschema.Schema {
 	if t != numberType {
 		return nil
 	}
+	// "type": ["number", "string"] with minLength (which applies to strings
+	// only) says the same as a oneOf of the two, and the validator checks
+	// it without trying and failing a branch for every number.
 	minLength := uint64(1)
 	return &jsonschema.Schema{
 		Description: "A number, or an expression string over the model's parameters: arithmetic (+ - * / ^), parentheses, sqrt, sin, cos, tan, atan2, abs, min, max and pi; angles in radians.",
-		OneOf: []*jsonschema.Schema{
-			{Type: "number"},
-			{Type: "string", MinLength: &minLength, Description: "an expression over the model's parameters"},
-		},
+		MinLength:   &minLength,
+		Extras:      map[string]any{"type": []string{"number", "string"}},
 	}
 }

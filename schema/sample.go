@@ -16,7 +16,7 @@ import (
 // appear as zero values in the sample, so when it fails the caller should
 // report ValidateFull of the original bytes, which has precise pointers.
 func (v *Validator) ValidateSample(method string, value any) *protocol.Error {
-	sample := truncated(reflect.ValueOf(value))
+	sample := truncated(reflect.ValueOf(value), ElideAbove)
 	b, err := json.Marshal(sample.Interface())
 	if err != nil {
 		return protocol.NewError(protocol.CodeInvalidParams, "invalid params", "The params could not be encoded for validation: "+err.Error()+".")
@@ -24,11 +24,24 @@ func (v *Validator) ValidateSample(method string, value any) *protocol.Error {
 	return v.validate(method, b, false)
 }
 
-var marshalerType = reflect.TypeOf((*json.Marshaler)(nil)).Elem()
+var (
+	marshalerType = reflect.TypeOf((*json.Marshaler)(nil)).Elem()
+	modelType     = reflect.TypeOf(protocol.Model{})
+)
 
-// truncated returns a copy of v in which every slice holds at most
-// ElideAbove elements. Types with their own JSON encoding are copied whole.
-func truncated(v reflect.Value) reflect.Value {
+// modelSample is how many elements of each of a model's arrays the sample
+// keeps: none. The strict decode checks every element's fields and types
+// and the model compiler every element's values (enums, lengths, ids,
+// ranges), so the generic validator, which costs more than the whole solve
+// of a small model, sees the model's own fields and the rest of the params.
+// TestFastPathAgreesWithSchema in the adapter keeps this honest.
+const modelSample = 0
+
+// truncated returns a copy of v in which the slice v (or the slices of the
+// struct v) hold at most limit elements, and deeper slices at most
+// ElideAbove, except that a model's element arrays hold modelSample. Types
+// with their own JSON encoding are copied whole.
+func truncated(v reflect.Value, limit int) reflect.Value {
 	if !v.IsValid() || v.Type().Implements(marshalerType) {
 		return v
 	}
@@ -38,13 +51,19 @@ func truncated(v reflect.Value) reflect.Value {
 			return v
 		}
 		p := reflect.New(v.Type().Elem())
-		p.Elem().Set(truncated(v.Elem()))
+		p.Elem().Set(truncated(v.Elem(), limit))
 		return p
 	case reflect.Struct:
+		// A struct's arrays get the usual limit, a model's element
+		// arrays the model sample.
+		limit = ElideAbove
+		if v.Type() == modelType {
+			limit = modelSample
+		}
 		out := reflect.New(v.Type()).Elem()
 		for i := 0; i < v.NumField(); i++ {
 			if out.Field(i).CanSet() {
-				out.Field(i).Set(truncated(v.Field(i)))
+				out.Field(i).Set(truncated(v.Field(i), limit))
 			}
 		}
 		return out
@@ -52,10 +71,10 @@ func truncated(v reflect.Value) reflect.Value {
 		if v.IsNil() {
 			return v
 		}
-		n := min(v.Len(), ElideAbove)
+		n := min(v.Len(), limit)
 		out := reflect.MakeSlice(v.Type(), n, n)
 		for i := 0; i < n; i++ {
-			out.Index(i).Set(truncated(v.Index(i)))
+			out.Index(i).Set(truncated(v.Index(i), ElideAbove))
 		}
 		return out
 	case reflect.Map:
@@ -65,7 +84,7 @@ func truncated(v reflect.Value) reflect.Value {
 		out := reflect.MakeMapWithSize(v.Type(), v.Len())
 		iter := v.MapRange()
 		for iter.Next() {
-			out.SetMapIndex(iter.Key(), truncated(iter.Value()))
+			out.SetMapIndex(iter.Key(), truncated(iter.Value(), limit))
 		}
 		return out
 	}

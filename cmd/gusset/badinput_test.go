@@ -8,6 +8,9 @@ import (
 	"strings"
 	"testing"
 	"time"
+	"unicode/utf8"
+
+	"gusset/protocol"
 )
 
 // badInputWant is a NAME.want.json of testdata/bad-input: the error code
@@ -114,6 +117,13 @@ func checkBadInput(t *testing.T, bin string, want badInputWant, line []byte) {
 		t.Fatalf("got %d final responses to the bad request, want 1: %+v", len(finals), finals)
 	}
 	got := finals[0]
+	wantID := expectedID(line)
+	if want.Code == protocol.CodeParseError {
+		wantID = "null" // an oversize line is skipped unread (README, Errors)
+	}
+	if string(got.ID) != wantID {
+		t.Errorf("response id %s, want %s", got.ID, wantID)
+	}
 	if want.Code == 0 {
 		if got.Error != nil {
 			t.Fatalf("want success, got error %d: %s (%+v)", got.Error.Code, got.Error.Message, got.Error.Data)
@@ -141,4 +151,41 @@ func checkBadInput(t *testing.T, bin string, want badInputWant, line []byte) {
 			t.Errorf("problem paths %q, want %q among them (%s)", paths, *want.Path, e.Message)
 		}
 	}
+}
+
+// expectedID is the id a response to line must carry (JSON-RPC 2.0 §5):
+// the member named exactly "id" (RFC 8259 §4: names compare by their code
+// units), compacted, when the line is one UTF-8 JSON object whose id is a
+// string or a number; null otherwise.
+func expectedID(line []byte) string {
+	line = bytes.TrimRight(line, "\r\n")
+	if !utf8.Valid(line) || !json.Valid(line) {
+		return "null"
+	}
+	dec := json.NewDecoder(bytes.NewReader(line))
+	if tok, err := dec.Token(); err != nil || tok != json.Delim('{') {
+		return "null"
+	}
+	var id json.RawMessage
+	for dec.More() {
+		name, err := dec.Token()
+		if err != nil {
+			return "null"
+		}
+		var value json.RawMessage
+		if err := dec.Decode(&value); err != nil {
+			return "null"
+		}
+		if name == "id" {
+			id = value
+		}
+	}
+	var compact bytes.Buffer
+	if id == nil || json.Compact(&compact, id) != nil {
+		return "null"
+	}
+	if c := compact.Bytes()[0]; c == '"' || c == '-' || ('0' <= c && c <= '9') {
+		return compact.String()
+	}
+	return "null"
 }

@@ -248,9 +248,11 @@ func (prog *Program) Constant() (value float64, ok bool) {
 // Source returns the expression as it was given to Compile.
 func (prog *Program) Source() string { return prog.src }
 
-// String returns the folded expression in a canonical, fully parenthesised
-// form that Compile accepts with the same parameter list and that
-// evaluates to the same value (bit for bit) or fails the same way.
+// String returns the folded expression in a canonical form that Compile
+// accepts with the same parameter list and that evaluates to the same value
+// (bit for bit) or fails the same way. It writes only the parentheses the
+// grouping needs, so it nests no deeper than the expression itself: a long
+// sum stays flat.
 func (prog *Program) String() string {
 	var b strings.Builder
 	write(&b, prog.tree, prog.names)
@@ -261,7 +263,43 @@ var opSymbols = map[opcode]string{opAdd: "+", opSub: "-", opMul: "*", opDiv: "/"
 var opNames = map[opcode]string{opSqrt: "sqrt", opSin: "sin", opCos: "cos", opTan: "tan",
 	opAbs: "abs", opAtan2: "atan2", opMin: "min", opMax: "max"}
 
+// precedence orders the binary operators; every other node prints as an
+// atom (a number, a name, a call, or a parenthesised negation).
+func precedence(n *node) int {
+	switch n.op {
+	case opAdd, opSub:
+		return 1
+	case opMul, opDiv:
+		return 2
+	case opPow:
+		return 3
+	}
+	return 4
+}
+
+// writeOperand writes n, in parentheses when its precedence is below min.
+func writeOperand(b *strings.Builder, n *node, params []string, min int) {
+	n = simplified(n)
+	if precedence(n) < min {
+		b.WriteString("(")
+		write(b, n, params)
+		b.WriteString(")")
+		return
+	}
+	write(b, n, params)
+}
+
+// simplified drops pairs of negations: −(−x) is x exactly, so a chain of
+// negations prints as at most one.
+func simplified(n *node) *node {
+	for n.op == opNeg && n.args[0].op == opNeg {
+		n = n.args[0].args[0]
+	}
+	return n
+}
+
 func write(b *strings.Builder, n *node, params []string) {
+	n = simplified(n)
 	switch n.op {
 	case opConst:
 		s := strconv.FormatFloat(n.value, 'g', -1, 64)
@@ -276,14 +314,20 @@ func write(b *strings.Builder, n *node, params []string) {
 		b.WriteString(params[n.param])
 	case opNeg:
 		b.WriteString("(-")
-		write(b, n.args[0], params)
+		writeOperand(b, n.args[0], params, 4)
 		b.WriteString(")")
-	case opAdd, opSub, opMul, opDiv, opPow:
-		b.WriteString("(")
-		write(b, n.args[0], params)
+	case opAdd, opSub, opMul, opDiv:
+		// Left-associative: the left operand may be of the same level,
+		// the right one must bind tighter.
+		p := precedence(n)
+		writeOperand(b, n.args[0], params, p)
 		b.WriteString(opSymbols[n.op])
-		write(b, n.args[1], params)
-		b.WriteString(")")
+		writeOperand(b, n.args[1], params, p+1)
+	case opPow:
+		// Right-associative: a^b^c is a^(b^c).
+		writeOperand(b, n.args[0], params, 4)
+		b.WriteString("^")
+		writeOperand(b, n.args[1], params, 3)
 	default:
 		b.WriteString(opNames[n.op])
 		b.WriteString("(")

@@ -139,7 +139,16 @@ func (a *Adapter) decodeModel(ctx context.Context, method string, params json.Ra
 	if err := a.decode(method, params, p); err != nil {
 		return nil, err
 	}
-	return a.compile(ctx, w, "/params/model")
+	m, err := a.compile(ctx, w, "/params/model")
+	if err != nil && a.validator != nil {
+		// The sample left the model's elements to the compiler; when it
+		// finds fault, report what the schema says if the schema rejects
+		// the params too, so codes and pointers are the schema's.
+		if e := a.validator.ValidateFull(method, params); e != nil {
+			return nil, e
+		}
+	}
+	return m, err
 }
 
 // compile checks the model against the size limits and compiles it.

@@ -154,13 +154,20 @@ func FuzzPrepare(f *testing.F) {
 	})
 }
 
-// TestFastPathAgreesWithSchema mutates elements beyond the validated sample
-// (index > schema.ElideAbove) in ways the published schema rejects, and
-// checks that the fast path (strict decode + sample + compiler) rejects
-// them too, so the published schema stays authoritative.
+// TestFastPathAgreesWithSchema mutates model elements, which the validated
+// sample leaves out, in ways the published schema rejects, and checks that
+// the fast path (strict decode + sample + compiler) rejects them too, so
+// the published schema stays authoritative.
 func TestFastPathAgreesWithSchema(t *testing.T) {
 	v := newSolveValidator(t)
-	const k = schema.ElideAbove + 10
+	// The sample keeps none of a model's arrays: mutate the first element
+	// and one further in.
+	for _, k := range []int{0, 3} {
+		t.Run(fmt.Sprintf("element %d", k), func(t *testing.T) { fastPathAgrees(t, v, k) })
+	}
+}
+
+func fastPathAgrees(t *testing.T, v *schema.Validator, k int) {
 	mutations := []struct {
 		name   string
 		mutate func(m map[string]any)
@@ -178,6 +185,12 @@ func TestFastPathAgreesWithSchema(t *testing.T) {
 		{"node empty expression", func(m map[string]any) { node(m, k)["at"] = []any{"", 0.0, 0.0} }},
 		{"load force too long", func(m map[string]any) { load(m, k)["force"] = []any{0.0, 1.0, 2.0, 3.0} }},
 		{"load unknown field", func(m map[string]any) { load(m, k)["torque"] = 1.0 }},
+		{"load node missing", func(m map[string]any) { delete(load(m, k), "node") }},
+		{"support fix repeated", func(m map[string]any) { support(m, k)["fix"] = []any{"x", "x"} }},
+		{"support node empty", func(m map[string]any) { support(m, k)["node"] = 7.0 }},
+		{"support spring string", func(m map[string]any) { support(m, k)["springs"] = map[string]any{"x": "stiff"} }},
+		{"member material missing", func(m map[string]any) { delete(member(m, k), "material") }},
+		{"member ends numbers", func(m map[string]any) { member(m, k)["ends"] = []any{1.0, 2.0} }},
 	}
 	for _, c := range mutations {
 		t.Run(c.name, func(t *testing.T) {
@@ -202,7 +215,10 @@ func TestFastPathAgreesWithSchema(t *testing.T) {
 }
 
 func member(m map[string]any, i int) map[string]any { return m["members"].([]any)[i].(map[string]any) }
-func node(m map[string]any, i int) map[string]any   { return m["nodes"].([]any)[i].(map[string]any) }
+func support(m map[string]any, i int) map[string]any {
+	return m["supports"].([]any)[i].(map[string]any)
+}
+func node(m map[string]any, i int) map[string]any { return m["nodes"].([]any)[i].(map[string]any) }
 
 // load returns the i-th nodal load of the first case, adding loads when the
 // case has fewer.
