@@ -5,6 +5,7 @@ import (
 	"bytes"
 	"encoding/json"
 	"fmt"
+	"gusset/cmd/gusset/adapter"
 	"io"
 	"os"
 	"os/exec"
@@ -244,77 +245,7 @@ func request(id any, method string, params any) []byte {
 
 // wireModel converts a generated model to its wire form, so tests can send
 // modelgen's models as requests.
-func wireModel(s *model.Spec) protocol.Model {
-	number := func(v model.Value) protocol.Number {
-		if v.IsExpr {
-			return protocol.Number{Expr: v.Expr, IsExpr: true}
-		}
-		return protocol.Number{Value: v.Num}
-	}
-	optional := func(v *model.Value) *protocol.Number {
-		if v == nil {
-			return nil
-		}
-		n := number(*v)
-		return &n
-	}
-	numbers := func(vs []model.Value) []protocol.Number {
-		if vs == nil {
-			return nil
-		}
-		out := make([]protocol.Number, len(vs))
-		for i, v := range vs {
-			out[i] = number(v)
-		}
-		return out
-	}
-	w := protocol.Model{Dimension: s.Dimension, Materials: []protocol.Material{}, Sections: []protocol.Section{},
-		Nodes: []protocol.Node{}, Members: []protocol.Member{}}
-	if s.Units.Length != "" || s.Units.Force != "" {
-		w.Units = &protocol.Units{Length: s.Units.Length, Force: s.Units.Force}
-	}
-	if len(s.Parameters) > 0 {
-		w.Parameters = map[string]float64{}
-		for _, p := range s.Parameters {
-			w.Parameters[p.Name] = p.Value
-		}
-	}
-	for _, m := range s.Materials {
-		w.Materials = append(w.Materials, protocol.Material{ID: m.ID, ElasticModulus: number(m.ElasticModulus),
-			ShearModulus: optional(m.ShearModulus), WeightDensity: optional(m.WeightDensity), TensionLimit: optional(m.TensionLimit),
-			CompressionLimit: optional(m.CompressionLimit), CarbonFactor: optional(m.CarbonFactor), ThermalExpansion: optional(m.ThermalExpansion)})
-	}
-	for _, c := range s.Sections {
-		w.Sections = append(w.Sections, protocol.Section{ID: c.ID, Area: number(c.Area), SecondMoment: optional(c.SecondMoment),
-			SecondMomentY: optional(c.SecondMomentY), TorsionConstant: optional(c.TorsionConstant)})
-	}
-	for _, n := range s.Nodes {
-		w.Nodes = append(w.Nodes, protocol.Node{ID: n.ID, At: numbers(n.At)})
-	}
-	for _, m := range s.Members {
-		w.Members = append(w.Members, protocol.Member{ID: m.ID, Ends: m.Ends, Material: m.Material, Section: m.Section,
-			Type: m.Type, Orientation: m.Orientation, BucklingFactor: m.BucklingFactor})
-	}
-	for _, p := range s.Supports {
-		w.Supports = append(w.Supports, protocol.Support{Node: p.Node, Fix: p.Fix, Springs: p.Springs, Displacement: p.Displacement})
-	}
-	for _, c := range s.LoadCases {
-		lc := protocol.LoadCase{ID: c.ID, SelfWeight: c.SelfWeight}
-		for _, l := range c.Loads {
-			lc.Loads = append(lc.Loads, protocol.NodalLoad{Node: l.Node, Force: numbers(l.Force), Moment: numbers(l.Moment)})
-		}
-		for _, l := range c.MemberLoads {
-			lc.MemberLoads = append(lc.MemberLoads, protocol.MemberLoad{Member: l.Member, Kind: l.Kind, Axes: l.Axes,
-				Value: numbers(l.Value), EndValue: numbers(l.EndValue), Distance: optional(l.Distance), Strain: optional(l.Strain),
-				TemperatureChange: optional(l.TemperatureChange)})
-		}
-		w.LoadCases = append(w.LoadCases, lc)
-	}
-	for _, c := range s.Combos {
-		w.Combinations = append(w.Combinations, protocol.Combination{ID: c.ID, Factors: c.Factors})
-	}
-	return w
-}
+func wireModel(s *model.Spec) protocol.Model { return *adapter.WireModel(s) }
 
 // registeredMethods asks a fresh process which methods it serves.
 func registeredMethods(t testing.TB, bin string) map[string]bool {
