@@ -1,7 +1,9 @@
 package main
 
 import (
+	"bufio"
 	"bytes"
+	"context"
 	"encoding/json"
 	"fmt"
 	"io"
@@ -35,4 +37,36 @@ func BenchmarkSolveEndToEnd(b *testing.B) {
 			}
 		})
 	}
+}
+
+// BenchmarkDescribeRoundTrip measures one describe request answered by a
+// warm server: write the line, read the answer, then the next.
+func BenchmarkDescribeRoundTrip(b *testing.B) {
+	s, err := newServer(protocol.Limits{Workers: 2}, io.Discard)
+	if err != nil {
+		b.Fatal(err)
+	}
+	inR, inW := io.Pipe()
+	outR, outW := io.Pipe()
+	done := make(chan struct{})
+	go func() {
+		s.Serve(context.Background(), inR, outW)
+		outW.Close()
+		close(done)
+	}()
+	reader := bufio.NewReader(outR)
+	line := []byte(`{"jsonrpc":"2.0","id":1,"method":"describe"}` + "\n")
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		if _, err := inW.Write(line); err != nil {
+			b.Fatal(err)
+		}
+		if _, err := reader.ReadBytes('\n'); err != nil {
+			b.Fatal(err)
+		}
+	}
+	b.StopTimer()
+	inW.Close()
+	io.Copy(io.Discard, reader)
+	<-done
 }
