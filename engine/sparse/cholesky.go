@@ -106,29 +106,52 @@ type Cholesky struct {
 const nestedMinSize = 4000
 
 // chooseOrder returns the minimum-degree order of a or, on large matrices,
-// the nested-dissection order when it needs fewer flops: minimum degree is
-// hard to beat on thin and plane structures but falls well behind nested
+// the nested-dissection order when it needs fewer flops, with the
+// elimination tree and column counts of the order returned: minimum degree
+// is hard to beat on thin and plane structures but falls well behind nested
 // dissection on solid 3D ones. With two workers or more the candidates are
 // computed side by side; the choice does not depend on the workers.
-func chooseOrder(a *Matrix, workers int) []int {
+func chooseOrder(a *Matrix, workers int) (perm, parent, count []int) {
 	if a.N < nestedMinSize {
-		return Order(a)
+		perm = Order(a)
+		parent, count = countsFor(a, perm)
+		return perm, parent, count
 	}
-	var amd, nested []int
-	var amdFlops, nestedFlops float64
+	var amd, nested candidate
 	parallelFor(min(workers, 2), 2, func(k int) {
 		if k == 0 {
-			amd = Order(a)
-			amdFlops = factorFlops(a, amd)
+			amd = newCandidate(a, Order(a))
 		} else {
-			nested = OrderNested(a)
-			nestedFlops = factorFlops(a, nested)
+			nested = newCandidate(a, OrderNested(a))
 		}
 	})
-	if nestedFlops < amdFlops {
-		return nested
+	if nested.flops < amd.flops {
+		return nested.perm, nested.parent, nested.count
 	}
-	return amd
+	return amd.perm, amd.parent, amd.count
+}
+
+// candidate is a fill-reducing order with its elimination tree, column
+// counts and flops, kept so that the analysis of the winner does not count
+// again.
+type candidate struct {
+	perm, parent, count []int
+	flops               float64
+}
+
+func newCandidate(a *Matrix, perm []int) candidate {
+	parent, count := countsFor(a, perm)
+	return candidate{perm: perm, parent: parent, count: count, flops: countFlops(count)}
+}
+
+// countsFor returns the elimination tree and column counts of P·A·Pᵀ for
+// perm[new] = old.
+func countsFor(a *Matrix, perm []int) (parent, count []int) {
+	iperm := make([]int, a.N)
+	for k, old := range perm {
+		iperm[old] = k
+	}
+	return columnCounts(a, iperm)
 }
 
 // defect records one deficient pivot.
@@ -158,12 +181,14 @@ func Factorize(ctx context.Context, a *Matrix, opt Options) (*Cholesky, error) {
 	}
 	start := time.Now()
 	perm := opt.Perm
+	var parent, count []int
 	if perm == nil {
 		rep.Progress("ordering", 0, 1, nil)
-		perm = chooseOrder(a, workers)
+		perm, parent, count = chooseOrder(a, workers)
 		rep.Progress("ordering", 1, 1, nil)
 	} else {
 		validPerm(perm, a.N)
+		parent, count = countsFor(a, perm)
 	}
 	orderTime := time.Since(start)
 	if err := ctx.Err(); err != nil {
@@ -172,7 +197,7 @@ func Factorize(ctx context.Context, a *Matrix, opt Options) (*Cholesky, error) {
 
 	start = time.Now()
 	rep.Progress("symbolic", 0, 1, nil)
-	sym := analyse(a, perm)
+	sym := analyseCounted(a, perm, parent, count)
 	rep.Progress("symbolic", 1, 1, nil)
 	symTime := time.Since(start)
 
@@ -242,19 +267,18 @@ func (c *Cholesky) numeric(ctx context.Context, a *Matrix) error {
 			}
 		}
 	}
-	if c.val == nil {
+	// Each supernode clears its block (when reused) and assembles its
+	// columns of A itself, so that the first touch of the factor's memory
+	// (page faults included) is spread over the workers.
+	reused := c.val != nil
+	if !reused {
 		c.val = make([]float64, sym.valPtr[sym.nsuper])
-	} else {
-		clear(c.val)
-	}
-	// Row k of a supernode's block is column first+k of L; A goes in first,
-	// in one sequential pass, and the children's updates are added to it.
-	for p, q := range sym.scatter {
-		c.val[q] = a.Val[p]
 	}
 	f := &numeric{
 		sym:       sym,
 		val:       c.val,
+		aVal:      a.Val,
+		reused:    reused,
 		threshold: c.threshold * maxDiag,
 		updates:   make([][]float64, sym.nsuper),
 		defects:   make([][]defect, sym.nsuper),
@@ -318,6 +342,8 @@ var errCancelled = errors.New("sparse: cancelled")
 type numeric struct {
 	sym       *symbolic
 	val       []float64
+	aVal      []float64 // values of A
+	reused    bool      // val holds an earlier factor and must be cleared
 	threshold float64
 	updates   [][]float64 // update matrix of each supernode, row-major upper, until its parent consumes it
 	defects   [][]defect
@@ -496,6 +522,14 @@ func (f *numeric) supernode(w *workspace, s int, wide int) {
 	rs := len(rows)
 	m := ns + rs
 	block := f.val[sym.valPtr[s]:sym.valPtr[s+1]]
+	if f.reused {
+		clear(block)
+	}
+	// Row k of the block is column first+k of L; A goes in first and the
+	// children's updates are added to it.
+	for t := sym.lowPtr[first]; t < sym.lowPtr[first+ns]; t++ {
+		block[sym.aDst[t]] = f.aVal[sym.aSrc[t]]
+	}
 	local := w.local
 	for k := 0; k < ns; k++ {
 		local[first+k] = k

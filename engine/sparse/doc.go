@@ -20,9 +20,10 @@
 //     whichever order needs fewer flops;
 //   - symbolic: the elimination tree (J. W. H. Liu, "The role of elimination
 //     trees in sparse factorization", SIAM J. Matrix Anal. Appl. 11(1), 1990),
-//     its postorder, column counts by row subtrees, fundamental supernodes
-//     merged by relaxed amalgamation, and the row structure of every
-//     supernode;
+//     its postorder, column counts by the skeleton-matrix method of
+//     J. R. Gilbert, E. G. Ng and B. W. Peyton (SIAM J. Matrix Anal. Appl.
+//     15(4), 1994), fundamental supernodes merged by relaxed amalgamation,
+//     and the row structure of every supernode;
 //   - numeric: a multifrontal factorisation over the supernodal elimination
 //     tree. Each supernode assembles its columns of A and its children's
 //     update matrices (scatter-add through relative indices), factorises its

@@ -20,25 +20,11 @@ func OrderNested(a *Matrix) []int {
 	vptr, vadj := fullAdjacency(a)
 	group, gptr, gmem := compressGraph(n, vptr, vadj)
 	ng := len(gptr) - 1
-	// Compressed adjacency.
-	cptr := make([]int, ng+1)
-	var cadj []int
-	mark := make([]int, ng)
-	for g := 0; g < ng; g++ {
-		rep := gmem[gptr[g]]
-		mark[g] = g + 1
-		for _, u := range vadj[vptr[rep]:vptr[rep+1]] {
-			if h := group[u]; mark[h] != g+1 {
-				mark[h] = g + 1
-				cadj = append(cadj, h)
-			}
-		}
-		cptr[g+1] = len(cadj)
-	}
+	cptr, cadj := compressedAdjacency(group, gptr, gmem, vptr, vadj)
 	d := &dissector{
-		ptr: cptr, adj: cadj, gptr: gptr, gmem: gmem, vptr: vptr, vadj: vadj,
+		ptr: cptr, adj: cadj, gptr: gptr, gmem: gmem,
 		tag: make([]int, ng), seen: make([]int, ng), done: make([]int, ng), level: make([]int, ng),
-		vtag: make([]int, n), local: make([]int, n),
+		leafTag: make([]int, ng), local: make([]int, ng),
 		out: make([]int, 0, n),
 	}
 	nodes := make([]int, ng)
@@ -119,15 +105,14 @@ func compressGraph(n int, ptr, adj []int) (group, gptr, gmem []int) {
 type dissector struct {
 	ptr, adj   []int // compressed graph
 	gptr, gmem []int // original variables of each compressed node
-	vptr, vadj []int // original graph
 	tag        []int // == current stamp for the nodes of the piece being split
 	seen       []int
 	done       []int
 	level      []int
 	stamp      int
-	vtag       []int
-	local      []int
-	vstamp     int
+	leafTag    []int // == leafStamp for the nodes of the current leaf
+	local      []int // index of a node within the current leaf
+	leafStamp  int
 	out        []int
 }
 
@@ -278,27 +263,27 @@ func (d *dissector) separatorSize(level []int, i, t int) int {
 }
 
 // leaf orders the variables of a small piece by minimum degree on the
-// subgraph they induce.
+// subgraph its nodes induce, each node weighted by its variables.
 func (d *dissector) leaf(nodes []int) {
-	var vars []int
-	for _, g := range nodes {
-		vars = append(vars, d.gmem[d.gptr[g]:d.gptr[g+1]]...)
+	d.leafStamp++
+	for k, g := range nodes {
+		d.leafTag[g] = d.leafStamp
+		d.local[g] = k
 	}
-	d.vstamp++
-	for k, v := range vars {
-		d.vtag[v] = d.vstamp
-		d.local[v] = k
-	}
-	b := NewBuilder(len(vars), 8*len(vars))
-	for k, v := range vars {
-		b.Add(k, k, 0)
-		for _, u := range d.vadj[d.vptr[v]:d.vptr[v+1]] {
-			if d.vtag[u] == d.vstamp && d.local[u] < k {
-				b.Add(k, d.local[u], 0)
+	ptr := make([]int, len(nodes)+1)
+	gptr := make([]int, len(nodes)+1)
+	var adj []int
+	for k, g := range nodes {
+		for _, h := range d.adj[d.ptr[g]:d.ptr[g+1]] {
+			if d.leafTag[h] == d.leafStamp {
+				adj = append(adj, d.local[h])
 			}
 		}
+		ptr[k+1] = len(adj)
+		gptr[k+1] = gptr[k] + d.gptr[g+1] - d.gptr[g]
 	}
-	for _, k := range Order(b.Matrix()) {
-		d.out = append(d.out, vars[k])
+	for _, k := range newQuotientGraph(ptr, adj, gptr).eliminate() {
+		g := nodes[k]
+		d.out = append(d.out, d.gmem[d.gptr[g]:d.gptr[g+1]]...)
 	}
 }

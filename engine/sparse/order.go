@@ -10,7 +10,47 @@ import "math"
 // the same pattern always yields the same permutation.
 func Order(a *Matrix) []int {
 	a.check()
-	return newQuotientGraph(a).eliminate()
+	ptr, adj := fullAdjacency(a)
+	return orderGraph(a.N, ptr, adj)
+}
+
+// orderGraph returns the minimum-degree order of the graph of n variables
+// whose neighbours are adj[ptr[i]:ptr[i+1]]. Variables with identical
+// closed neighbourhoods (the freedoms of one node, usually) are merged
+// first, so the quotient graph starts from the smaller graph of the groups
+// rather than from the variables.
+func orderGraph(n int, ptr, adj []int) []int {
+	group, gptr, gmem := compressGraph(n, ptr, adj)
+	cptr, cadj := compressedAdjacency(group, gptr, gmem, ptr, adj)
+	order := newQuotientGraph(cptr, cadj, gptr).eliminate()
+	perm := make([]int, 0, n)
+	for _, g := range order {
+		perm = append(perm, gmem[gptr[g]:gptr[g+1]]...)
+	}
+	return perm
+}
+
+// compressedAdjacency returns the graph of the groups of compressGraph: g
+// and h are adjacent when a member of g is adjacent to a member of h.
+// Members of a group share their neighbourhood, so one member stands for
+// all.
+func compressedAdjacency(group, gptr, gmem, ptr, adj []int) (cptr, cadj []int) {
+	ng := len(gptr) - 1
+	cptr = make([]int, ng+1)
+	cadj = make([]int, 0, len(adj)/max(1, len(gmem)/max(ng, 1)))
+	mark := make([]int, ng)
+	for g := 0; g < ng; g++ {
+		rep := gmem[gptr[g]]
+		mark[g] = g + 1
+		for _, u := range adj[ptr[rep]:ptr[rep+1]] {
+			if h := group[u]; mark[h] != g+1 {
+				mark[h] = g + 1
+				cadj = append(cadj, h)
+			}
+		}
+		cptr[g+1] = len(cadj)
+	}
+	return cptr, cadj
 }
 
 // Node states in the quotient graph.
@@ -43,24 +83,29 @@ type quotientGraph struct {
 	first, last, link []int
 
 	// Scratch, reused across stages with stamps to avoid clearing.
-	lpMark     []int // == stage when the node belongs to the current Lp
-	extMark    []int // == stage when ext[e] is valid
-	ext        []int // |Le \ Lp| for elements met during the current stage
-	bound      []int // |A_i| + Σ|Le \ Lp| for i in Lp
-	hashOf     []int
-	hashHead   []int
-	hashNext   []int
-	cmpMark    []int
-	cmpStamp   int
-	stage      int
-	lp         []int
-	eliminated int
-	dense      []int // variables set aside as dense, numbered last
+	lpMark      []int // == stage when the node belongs to the current Lp
+	extMark     []int // == stage when ext[e] is valid
+	ext         []int // |Le \ Lp| for elements met during the current stage
+	bound       []int // |A_i| + Σ|Le \ Lp| for i in Lp
+	hashOf      []int
+	hashHead    []int
+	hashNext    []int
+	cmpMark     []int
+	cmpStamp    int
+	stage       int
+	lp          []int
+	eliminated  int   // original variables eliminated
+	total       int   // original variables
+	dense       []int // variables set aside as dense, numbered last
+	denseWeight int   // original variables among them
 }
 
-func newQuotientGraph(a *Matrix) *quotientGraph {
-	n := a.N
-	count, adj := fullAdjacency(a)
+// newQuotientGraph starts minimum-degree elimination on the graph of n
+// principal variables whose neighbours are adj[ptr[i]:ptr[i+1]], variable
+// g standing for gptr[g+1]−gptr[g] original variables with identical
+// closed neighbourhoods.
+func newQuotientGraph(ptr, adj, gptr []int) *quotientGraph {
+	n := len(ptr) - 1
 	g := &quotientGraph{
 		n:        n,
 		state:    make([]int8, n),
@@ -69,7 +114,7 @@ func newQuotientGraph(a *Matrix) *quotientGraph {
 		vars:     make([][]int, n),
 		elems:    make([][]int, n),
 		elemSz:   make([]int, n),
-		head:     make([]int, n+1),
+		head:     make([]int, gptr[n]+1),
 		next:     make([]int, n),
 		prev:     make([]int, n),
 		first:    make([]int, n),
@@ -83,31 +128,39 @@ func newQuotientGraph(a *Matrix) *quotientGraph {
 		hashHead: make([]int, n),
 		hashNext: make([]int, n),
 		cmpMark:  make([]int, n),
+		total:    gptr[n],
 	}
 	for i := 0; i < n; i++ {
-		g.vars[i] = adj[count[i]:count[i+1]:count[i+1]]
-		g.weight[i] = 1
+		g.vars[i] = adj[ptr[i]:ptr[i+1]:ptr[i+1]]
+		g.weight[i] = gptr[i+1] - gptr[i]
 		g.first[i], g.last[i], g.link[i] = i, i, -1
 		g.hashHead[i] = -1
 		g.lpMark[i], g.extMark[i], g.cmpMark[i] = -1, -1, -1
 	}
 	// Variables adjacent to a large share of the graph would be touched at
 	// almost every stage; the paper sets rows of degree above 10√n aside and
-	// numbers them last, which costs little fill.
-	denseLimit := max(16, int(10*math.Sqrt(float64(n))))
+	// numbers them last, which costs little fill. The degree counts original
+	// variables, the group's own members included.
+	denseLimit := max(16, int(10*math.Sqrt(float64(g.total))))
 	for i := 0; i < n; i++ {
-		if len(g.vars[i]) > denseLimit {
+		d := g.weight[i] - 1
+		for _, j := range g.vars[i] {
+			d += g.weight[j]
+		}
+		if d > denseLimit {
 			g.state[i] = stDense
-			g.weight[i] = 0
+			g.denseWeight += g.weight[i]
 			g.vars[i] = nil
 			g.dense = append(g.dense, i)
 		}
 	}
-	g.mergeIndistinguishable()
+	for _, i := range g.dense {
+		g.weight[i] = 0
+	}
 	for i := range g.head {
 		g.head[i] = -1
 	}
-	g.minDegree = n
+	g.minDegree = len(g.head) - 1
 	for i := 0; i < n; i++ {
 		if g.weight[i] == 0 {
 			continue
@@ -120,63 +173,6 @@ func newQuotientGraph(a *Matrix) *quotientGraph {
 		g.insert(i)
 	}
 	return g
-}
-
-// mergeIndistinguishable merges variables with identical closed
-// neighbourhoods before elimination starts (the nodal freedoms of a
-// stiffness matrix usually are), so the first stages already work on
-// supervariables.
-func (g *quotientGraph) mergeIndistinguishable() {
-	n := g.n
-	for i := 0; i < n; i++ {
-		if g.state[i] == stDense {
-			continue
-		}
-		h := i
-		for _, j := range g.vars[i] {
-			h += j
-		}
-		hb := h % n
-		g.hashOf[i] = hb
-		g.hashNext[i] = g.hashHead[hb]
-		g.hashHead[hb] = i
-	}
-	for i := 0; i < n; i++ {
-		if g.state[i] == stDense {
-			continue
-		}
-		hb := g.hashOf[i]
-		list := g.hashHead[hb]
-		if list < 0 {
-			continue
-		}
-		g.hashHead[hb] = -1
-		for s := list; s >= 0; s = g.hashNext[s] {
-			if g.weight[s] == 0 {
-				continue
-			}
-			g.cmpStamp++
-			g.cmpMark[s] = g.cmpStamp
-			for _, j := range g.vars[s] {
-				g.cmpMark[j] = g.cmpStamp
-			}
-			for t := g.hashNext[s]; t >= 0; t = g.hashNext[t] {
-				if g.weight[t] == 0 || len(g.vars[t]) != len(g.vars[s]) || g.cmpMark[t] != g.cmpStamp {
-					continue
-				}
-				same := true
-				for _, j := range g.vars[t] {
-					if g.cmpMark[j] != g.cmpStamp {
-						same = false
-						break
-					}
-				}
-				if same {
-					g.absorbVariable(s, t)
-				}
-			}
-		}
-	}
 }
 
 // absorbVariable merges principal variable t into principal variable s.
@@ -214,7 +210,7 @@ func (g *quotientGraph) remove(i int) {
 // eliminate runs the elimination and returns perm[new] = old.
 func (g *quotientGraph) eliminate() []int {
 	n := g.n - len(g.dense)
-	perm := make([]int, 0, g.n)
+	perm := make([]int, 0, g.n) // principal variables of the graph, not original ones
 	for len(perm) < n {
 		for g.head[g.minDegree] < 0 {
 			g.minDegree++
@@ -407,7 +403,7 @@ func (g *quotientGraph) finishStage(p int) {
 			kept = append(kept, i)
 		}
 	}
-	remaining := g.n - len(g.dense) - g.eliminated
+	remaining := g.total - g.denseWeight - g.eliminated
 	for _, i := range kept {
 		wi := g.weight[i]
 		others := lpSize - wi

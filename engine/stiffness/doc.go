@@ -8,6 +8,14 @@
 // sparse supernodal Cholesky of package sparse otherwise) and reuses the
 // factor for every load case and combination.
 //
+// The matrix pattern comes from the member connectivity, node by node, and
+// element blocks are added straight into its values. Large models use
+// Options.Workers goroutines for assembly (each owns a range of nodes and
+// adds its entries in member order), for the load cases, for the members
+// of a case's recovery and, beside them, for the condition estimate; every
+// sum is taken in the same order whatever the workers, so results are
+// bit-identical for any number of them.
+//
 // Elements: bars carry axial force only (EA/L). 2D beams add Euler–Bernoulli
 // bending (EI with I = Section.SecondMoment). 3D beams carry axial force,
 // bending about local z (SecondMoment) and local y (SecondMomentY), and

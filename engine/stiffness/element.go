@@ -47,9 +47,10 @@ func (el *element) build(m *model.Model, nb *numbering, e int) {
 			el.dofs[side*el.perNode+c] = nb.freedom(n, comp)
 		}
 	}
-	clear(el.k[:])
-	clear(el.t[:])
 	n := el.size
+	// Only the leading size×size entries are used.
+	clear(el.k[:n*n])
+	clear(el.t[:n*n])
 	set := func(i, j int, v float64) {
 		el.k[i*n+j] += v
 		if i != j {
@@ -125,6 +126,29 @@ func bend(set func(i, j int, v float64), v1, r1, v2, r2 int, ei, L, sign float64
 // globalStiffness writes tᵀ·k·t into dst (size×size, row-major).
 func (el *element) globalStiffness(dst []float64) {
 	n := el.size
+	if !el.beam {
+		// A bar's k has four entries, at the axial freedoms 0 and p, and
+		// row 0 of each block of t is the member axis c, so tᵀ·k·t reduces
+		// to the blocks ±(EA/L)·c·cᵀ. The products are the only nonzero
+		// terms of the general sums below, taken in the same order, so
+		// the values are the same.
+		p := el.perNode
+		c := el.axes[0]
+		for i := range n {
+			si, ci := 0, c[i%p]
+			if i >= p {
+				si = p
+			}
+			for j := range n {
+				sj, cj := 0, c[j%p]
+				if j >= p {
+					sj = p
+				}
+				dst[i*n+j] = ci * (el.k[si*n+sj] * cj)
+			}
+		}
+		return
+	}
 	var kt [144]float64
 	for i := range n {
 		for j := range n {

@@ -30,8 +30,9 @@ type Options struct {
 	// Reporter receives the stages "assembling", "ordering",
 	// "factorising", "solving" and "recovering"; nil reports nothing.
 	Reporter progress.Reporter
-	// Workers bounds the goroutines of the sparse factorisation; 0 means
-	// GOMAXPROCS.
+	// Workers bounds the goroutines of the sparse factorisation, and of
+	// assembly, load cases and recovery on large models; 0 means
+	// GOMAXPROCS. Results do not depend on it.
 	Workers int
 	// DenseLimit is the number of unconstrained freedoms at or below which
 	// the Auto path uses the dense solver; 0 means DefaultDenseLimit.

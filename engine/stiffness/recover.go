@@ -8,8 +8,9 @@ import (
 )
 
 // recoverCase turns the displacements u (every global freedom) into the
-// case's results.
-func recoverCase(m *model.Model, nb *numbering, sys *system, ls *loadSet, u []float64) (*CaseResult, error) {
+// case's results, sharing the members of a large model among up to workers
+// goroutines.
+func recoverCase(m *model.Model, nb *numbering, sys *system, ls *loadSet, u []float64, workers int) (*CaseResult, error) {
 	_, rotational := m.DOFsPerNode()
 	cr := &CaseResult{
 		Displacements: make([][]float64, m.NodeCount()),
@@ -22,47 +23,66 @@ func recoverCase(m *model.Model, nb *numbering, sys *system, ls *loadSet, u []fl
 		LoadSum:       make([]float64, m.Dim),
 		ReactionSum:   make([]float64, m.Dim),
 	}
+	// The rows of the per-node and per-member arrays share one backing
+	// array each: one allocation instead of one per node or member.
+	nodal := make([]float64, 0, nb.total)
 	for n := range cr.Displacements {
 		first := nb.first[n]
-		cr.Displacements[n] = append([]float64(nil), u[first:first+m.Dim]...)
+		cr.Displacements[n] = rowOf(&nodal, u[first:first+m.Dim])
 		if nb.rotational[n] {
-			cr.Rotations[n] = append([]float64(nil), u[first+m.Dim:first+m.Dim+rotational]...)
+			cr.Rotations[n] = rowOf(&nodal, u[first+m.Dim:first+m.Dim+rotational])
 		}
+	}
+	endOff := make([]int, len(m.Members)+1)
+	for e, mem := range m.Members {
+		endOff[e+1] = endOff[e] + 2*memberFreedomsPerNode(m, mem)
+	}
+	ends := make([]float64, endOff[len(m.Members)])
+	for e := range m.Members {
+		cr.EndForces[e] = ends[endOff[e]:endOff[e+1]:endOff[e+1]]
 	}
 	// nodeForce gathers Σ over members of the forces the members receive
 	// from each freedom (global axes); equivalent gathers the equivalent
-	// nodal loads of the member loads.
+	// nodal loads of the member loads. Both are summed in member order
+	// whatever the workers, so the result does not depend on them.
 	nodeForce := make([]float64, nb.total)
 	equivalent := make([]float64, nb.total)
-	var el element
-	var ug, ul, p, fl, fg [12]float64
-	for e := range m.Members {
-		el.build(m, nb, e)
-		n := el.size
-		for i := range n {
-			ug[i] = u[el.dofs[i]]
-		}
-		el.toLocal(ul[:], ug[:])
-		el.localForces(p[:], ul[:])
-		if ls.memberLoads(e) {
-			ls.equivalent(fl[:], m, &el, e)
-			for i := range n {
-				p[i] -= fl[i]
-			}
-			el.toGlobal(fg[:], fl[:])
-			for i := range n {
-				equivalent[el.dofs[i]] += fg[i]
+	if workers <= 1 || len(m.Members) < recoverParallel {
+		var el element
+		var fg, fe [12]float64
+		for e := range m.Members {
+			loaded := recoverMember(m, nb, ls, u, cr, e, &el, fg[:], fe[:])
+			for i := range el.size {
+				nodeForce[el.dofs[i]] += fg[i]
+				if loaded {
+					equivalent[el.dofs[i]] += fe[i]
+				}
 			}
 		}
-		cr.EndForces[e] = append([]float64(nil), p[:n]...)
-		cr.AxialForce[e] = -p[0]
-		el.toGlobal(fg[:], p[:])
-		for i := range n {
-			nodeForce[el.dofs[i]] += fg[i]
+	} else {
+		// Members in chunks over the workers, their nodal forces kept per
+		// member and gathered afterwards in member order.
+		const chunk = 2048
+		fg := make([]float64, 12*len(m.Members))
+		fe := make([]float64, 12*len(m.Members))
+		loaded := make([]bool, len(m.Members))
+		chunks := (len(m.Members) + chunk - 1) / chunk
+		_ = parallel(workers, chunks, func(c int) error {
+			var el element
+			for e := c * chunk; e < min((c+1)*chunk, len(m.Members)); e++ {
+				loaded[e] = recoverMember(m, nb, ls, u, cr, e, &el, fg[12*e:12*e+12], fe[12*e:12*e+12])
+			}
+			return nil
+		}, nil)
+		var dofs [12]int
+		for e, mem := range m.Members {
+			for i, f := range memberFreedoms(m, nb, mem, &dofs) {
+				nodeForce[f] += fg[12*e+i]
+				if loaded[e] {
+					equivalent[f] += fe[12*e+i]
+				}
+			}
 		}
-		sec := m.Sections[m.Members[e].Section]
-		cr.Stress[e] = cr.AxialForce[e] / sec.Area
-		cr.Utilisation[e] = utilisation(m, e, cr.AxialForce[e])
 	}
 	// A support holds a fixed freedom with whatever the members ask beyond
 	// the load applied there; a spring pulls back with −k·u.
@@ -106,8 +126,9 @@ func recoverCase(m *model.Model, nb *numbering, sys *system, ls *loadSet, u []fl
 		}
 	}
 	cr.External = make([][]float64, m.NodeCount())
+	external := make([]float64, m.Dim*m.NodeCount())
 	for n := range cr.External {
-		cr.External[n] = make([]float64, m.Dim)
+		cr.External[n] = external[n*m.Dim : (n+1)*m.Dim : (n+1)*m.Dim]
 	}
 	for f := range nb.total {
 		if c := nb.component[f]; c < m.Dim {
@@ -155,6 +176,72 @@ func recoverCase(m *model.Model, nb *numbering, sys *system, ls *loadSet, u []fl
 		return nil, fault.New(fault.Unstable, "the solution is not finite: the stiffness matrix is numerically singular")
 	}
 	return cr, nil
+}
+
+// recoverParallel is the member count from which recoverCase shares the
+// members among the workers.
+const recoverParallel = 8192
+
+// recoverMember computes member e's end forces (into cr.EndForces[e],
+// which has its length), axial force, stress and utilisation into cr, the forces it exerts on its freedoms (global axes)
+// into fg and, when it carries member loads (the result), their equivalent
+// nodal loads into fe; el is scratch space.
+func recoverMember(m *model.Model, nb *numbering, ls *loadSet, u []float64, cr *CaseResult, e int, el *element, fg, fe []float64) bool {
+	var ug, ul, p, fl [12]float64
+	el.build(m, nb, e)
+	n := el.size
+	for i := range n {
+		ug[i] = u[el.dofs[i]]
+	}
+	el.toLocal(ul[:], ug[:])
+	el.localForces(p[:], ul[:])
+	loaded := ls.memberLoads(e)
+	if loaded {
+		ls.equivalent(fl[:], m, el, e)
+		for i := range n {
+			p[i] -= fl[i]
+		}
+		el.toGlobal(fe, fl[:])
+	}
+	copy(cr.EndForces[e], p[:n])
+	cr.AxialForce[e] = -p[0]
+	el.toGlobal(fg, p[:])
+	sec := m.Sections[m.Members[e].Section]
+	cr.Stress[e] = cr.AxialForce[e] / sec.Area
+	cr.Utilisation[e] = utilisation(m, e, cr.AxialForce[e])
+	return loaded
+}
+
+// rowOf appends x to *buf, which has the capacity for it, and returns the
+// appended part, capped so that appending to it cannot reach the next row.
+func rowOf(buf *[]float64, x []float64) []float64 {
+	start := len(*buf)
+	*buf = append(*buf, x...)
+	return (*buf)[start:len(*buf):len(*buf)]
+}
+
+// memberFreedomsPerNode returns the local freedoms of a member at each end.
+func memberFreedomsPerNode(m *model.Model, mem model.Member) int {
+	if mem.Kind == model.Beam {
+		return 3 * (m.Dim - 1)
+	}
+	return m.Dim
+}
+
+// memberFreedoms returns the global freedoms of a member in the order of
+// its element's local freedoms (as element.build numbers them), in dofs.
+func memberFreedoms(m *model.Model, nb *numbering, mem model.Member, dofs *[12]int) []int {
+	perNode := memberFreedomsPerNode(m, mem)
+	for side, n := range mem.Ends {
+		for c := range perNode {
+			comp := c
+			if m.Dim == 2 && c == 2 {
+				comp = model.RZ
+			}
+			dofs[side*perNode+c] = nb.freedom(n, comp)
+		}
+	}
+	return dofs[:2*perNode]
 }
 
 func sq(x float64) float64 { return x * x }

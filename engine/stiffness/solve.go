@@ -4,6 +4,7 @@ import (
 	"context"
 	"errors"
 	"fmt"
+	"runtime"
 	"time"
 
 	"gusset/engine/fault"
@@ -66,7 +67,7 @@ func Solve(ctx context.Context, m *model.Model, opt Options) (*Result, error) {
 	res.Stats.Stability = time.Since(start)
 
 	start = time.Now()
-	sys, err := assemble(ctx, m, nb, rep)
+	sys, err := assemble(ctx, m, nb, opt.Workers, rep)
 	if err != nil {
 		return nil, err
 	}
@@ -105,15 +106,17 @@ func Solve(ctx context.Context, m *model.Model, opt Options) (*Result, error) {
 		stability.SelfStress = stability.Columns - stability.Rank
 	}
 	res.Stats.NonzerosFactor = sys.fac.nonzeros()
-	res.Stats.ConditionNumber = sys.fac.condition()
-	if c := res.Stats.ConditionNumber; c >= illConditioned {
-		res.Warnings = append(res.Warnings, fmt.Sprintf(
-			"the stiffness matrix is ill-conditioned (condition estimate %.2g after scaling to unit diagonal): about %d of 16 significant digits may be lost",
-			c, digitsLost(c)))
+	// The condition estimate costs a dozen solves; with a second core it
+	// runs beside the load cases, and its warning still comes last.
+	condition := make(chan float64, 1)
+	if workers(opt.Workers) > 1 && path == Sparse {
+		go func() { condition <- sys.fac.condition() }()
+	} else {
+		condition <- sys.fac.condition()
 	}
 
 	start = time.Now()
-	solutions, err := solveCases(ctx, m, nb, sys, requests, rep)
+	solutions, err := solveCases(ctx, m, nb, sys, requests, opt.Workers, rep)
 	if err != nil {
 		return nil, err
 	}
@@ -121,11 +124,14 @@ func Solve(ctx context.Context, m *model.Model, opt Options) (*Result, error) {
 
 	start = time.Now()
 	res.Cases = make([]CaseResult, len(requests))
-	for i, rq := range requests {
+	rep.Progress("recovering", 0, len(requests), nil)
+	// Cases run side by side; workers left over go inside each case.
+	inner := max(1, workers(opt.Workers)/max(1, len(requests)))
+	err = parallel(opt.Workers, len(requests), func(i int) error {
 		if err := ctx.Err(); err != nil {
-			return nil, err
+			return err
 		}
-		rep.Progress("recovering", i, len(requests), nil)
+		rq := requests[i]
 		u := make([]float64, nb.total)
 		for f := range u {
 			if eq := nb.equation[f]; eq >= 0 {
@@ -137,16 +143,38 @@ func Solve(ctx context.Context, m *model.Model, opt Options) (*Result, error) {
 				u[f] = nb.prescribed[f]
 			}
 		}
-		cr, err := recoverCase(m, nb, sys, newLoadSet(m, nb, rq.terms), u)
+		cr, err := recoverCase(m, nb, sys, newLoadSet(m, nb, rq.terms), u, inner)
 		if err != nil {
-			return nil, err
+			return err
 		}
 		cr.ID, cr.Combination = rq.id, rq.combination
 		res.Cases[i] = *cr
+		return nil
+	}, func(done int) { rep.Progress("recovering", done, len(requests), nil) })
+	if err != nil {
+		return nil, err
 	}
 	rep.Progress("recovering", len(requests), len(requests), nil)
 	res.Stats.Recover = time.Since(start)
+
+	res.Stats.ConditionNumber = <-condition
+	if err := ctx.Err(); err != nil {
+		return nil, err
+	}
+	if c := res.Stats.ConditionNumber; c >= illConditioned {
+		res.Warnings = append(res.Warnings, fmt.Sprintf(
+			"the stiffness matrix is ill-conditioned (condition estimate %.2g after scaling to unit diagonal): about %d of 16 significant digits may be lost",
+			c, digitsLost(c)))
+	}
 	return res, nil
+}
+
+// workers resolves Options.Workers: 0 or less means GOMAXPROCS.
+func workers(n int) int {
+	if n <= 0 {
+		return runtime.GOMAXPROCS(0)
+	}
+	return n
 }
 
 // illConditioned is the condition estimate from which Solve warns: beyond
@@ -203,8 +231,9 @@ func (s *solutions) settle(eq int) float64 {
 }
 
 // solveCases solves for every case that a request needs, once each, and for
-// the prescribed displacements.
-func solveCases(ctx context.Context, m *model.Model, nb *numbering, sys *system, requests []request, rep progress.Reporter) (*solutions, error) {
+// the prescribed displacements, spreading the cases over the workers (each
+// solution is the same whatever the worker that computes it).
+func solveCases(ctx context.Context, m *model.Model, nb *numbering, sys *system, requests []request, workers int, rep progress.Reporter) (*solutions, error) {
 	sol := &solutions{cases: make([][]float64, len(m.Cases))}
 	var needed []int
 	for _, rq := range requests {
@@ -219,17 +248,25 @@ func solveCases(ctx context.Context, m *model.Model, nb *numbering, sys *system,
 	if nb.anyPrescribed {
 		total++
 		sol.settlements = make([]float64, nb.equations)
-		sys.solve(sol.settlements, sys.settle)
 	}
-	for i, c := range needed {
+	rep.Progress("solving", 0, total, nil)
+	err := parallel(workers, total, func(i int) error {
 		if err := ctx.Err(); err != nil {
-			return nil, err
+			return err
 		}
-		rep.Progress("solving", i, total, nil)
+		if i == len(needed) {
+			sys.solve(sol.settlements, sys.settle)
+			return nil
+		}
+		c := needed[i]
 		ls := newLoadSet(m, nb, []model.Term{{Case: c, Factor: 1}})
 		u := make([]float64, nb.equations)
 		sys.solve(u, ls.rightHandSide(m, nb))
 		sol.cases[c] = u
+		return nil
+	}, func(done int) { rep.Progress("solving", done, total, nil) })
+	if err != nil {
+		return nil, err
 	}
 	rep.Progress("solving", total, total, nil)
 	return sol, nil

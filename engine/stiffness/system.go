@@ -4,6 +4,8 @@ import (
 	"context"
 	"errors"
 	"math"
+	"runtime"
+	"sync"
 	"time"
 
 	"gonum.org/v1/gonum/mat"
@@ -31,60 +33,60 @@ type system struct {
 	zero   []int // equations with no stiffness at all
 }
 
-// assemble builds the system and the settlement right-hand side.
-func assemble(ctx context.Context, m *model.Model, nb *numbering, rep progress.Reporter) (*system, error) {
-	nnzHint := 0
-	for _, mem := range m.Members {
-		d := m.Dim
-		if mem.Kind == model.Beam {
-			d = 3 * (m.Dim - 1)
-		}
-		nnzHint += d * (2*d + 1)
+// assembleParallel is the member count from which assembly splits the work
+// among the workers; below it goroutines cost more than they save.
+const assembleParallel = 8192
+
+// assemble builds the system and the settlement right-hand side. The
+// pattern comes from the connectivity, and each element's block is added
+// straight into the matrix values at positions found by arithmetic. With
+// several workers, each owns a range of nodes (and so of columns and of
+// settlement rows) and adds, in member order, every entry that falls in
+// its range: each value receives the same additions in the same order as
+// with one worker, so the matrix is bit-identical for any worker count.
+func assemble(ctx context.Context, m *model.Model, nb *numbering, workers int, rep progress.Reporter) (*system, error) {
+	pat := newPattern(m, nb)
+	a := pat.k
+	sys := &system{k: a, settle: make([]float64, nb.equations)}
+	if workers <= 0 {
+		workers = runtime.GOMAXPROCS(0)
 	}
-	b := sparse.NewBuilder(nb.equations, nnzHint+nb.equations)
-	sys := &system{settle: make([]float64, nb.equations)}
-	var el element
-	var kg [144]float64
-	total := len(m.Members)
-	for e := range m.Members {
-		if e%4096 == 0 {
-			if err := ctx.Err(); err != nil {
-				return nil, err
-			}
-			rep.Progress("assembling", e, total, nil)
+	if len(m.Members) < assembleParallel {
+		workers = 1
+	}
+	// Split the nodes into ranges of about equal numbers of entries.
+	nn := m.NodeCount()
+	bounds := make([]int, workers+1)
+	bounds[workers] = nn
+	for w, n := 1, 0; w < workers; w++ {
+		target := a.Nonzeros() * w / workers
+		for n < nn && a.ColPtr[pat.eqStart[n]] < target {
+			n++
 		}
-		el.build(m, nb, e)
-		el.globalStiffness(kg[:])
-		n := el.size
-		for i := range n {
-			ei := nb.equation[el.dofs[i]]
-			if ei < 0 {
-				continue
-			}
-			for j := range n {
-				fj := el.dofs[j]
-				ej := nb.equation[fj]
-				if ej < 0 {
-					if v := nb.prescribed[fj]; v != 0 {
-						sys.settle[ei] -= kg[i*n+j] * v
-					}
-					continue
-				}
-				if ej <= ei {
-					b.Add(ei, ej, kg[i*n+j])
-				}
-			}
+		bounds[w] = n
+	}
+	errs := make([]error, workers)
+	var wg sync.WaitGroup
+	for w := 1; w < workers; w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			errs[w] = assembleRange(ctx, m, nb, pat, sys, bounds[w], bounds[w+1], nil)
+		}()
+	}
+	errs[0] = assembleRange(ctx, m, nb, pat, sys, bounds[0], bounds[1], rep)
+	wg.Wait()
+	for _, err := range errs {
+		if err != nil {
+			return nil, err
 		}
 	}
 	for eq, f := range nb.freedomOf {
-		// Every equation gets a diagonal entry, so a freedom with no
+		// Every equation has a diagonal entry, so a freedom with no
 		// stiffness shows up as a zero pivot rather than a malformed
 		// matrix.
-		b.Add(eq, eq, nb.spring[f])
+		a.Val[a.ColPtr[eq]] += nb.spring[f]
 	}
-	rep.Progress("assembling", total, total, nil)
-	sys.k = b.Matrix()
-	a := sys.k
 	sys.scale = make([]float64, a.N)
 	for j := range a.N {
 		d := a.Val[a.ColPtr[j]] // the diagonal comes first in each column
@@ -101,6 +103,67 @@ func assemble(ctx context.Context, m *model.Model, nb *numbering, rep progress.R
 		}
 	}
 	return sys, nil
+}
+
+// assembleRange adds, in member order, the element entries whose column
+// belongs to a node in [lo, hi) and the settlement terms whose row does.
+// rep, when not nil, receives the progress.
+func assembleRange(ctx context.Context, m *model.Model, nb *numbering, pat *pattern, sys *system, lo, hi int, rep progress.Reporter) error {
+	val := sys.k.Val
+	var el element
+	var kg [144]float64
+	var eqs, nodes [12]int
+	total := len(m.Members)
+	mine := func(n int) bool { return n >= lo && n < hi }
+	for e, mem := range m.Members {
+		if e%4096 == 0 {
+			if err := ctx.Err(); err != nil {
+				return err
+			}
+			if rep != nil {
+				rep.Progress("assembling", e, total, nil)
+			}
+		}
+		na, nb2 := mem.Ends[0], mem.Ends[1]
+		if !mine(na) && !mine(nb2) {
+			continue
+		}
+		el.build(m, nb, e)
+		el.globalStiffness(kg[:])
+		n := el.size
+		for i := range n {
+			eqs[i] = nb.equation[el.dofs[i]]
+			nodes[i] = mem.Ends[i/el.perNode]
+		}
+		k := -1
+		if na != nb2 {
+			k = pat.neighbour(min(na, nb2), max(na, nb2))
+		}
+		for i := range n {
+			ei := eqs[i]
+			if ei < 0 {
+				continue
+			}
+			rowMine := mine(nodes[i])
+			for j := range n {
+				ej := eqs[j]
+				if ej < 0 {
+					if v := nb.prescribed[el.dofs[j]]; v != 0 && rowMine {
+						sys.settle[ei] -= kg[i*n+j] * v
+					}
+					continue
+				}
+				if ej > ei || !mine(nodes[j]) {
+					continue
+				}
+				val[pat.position(ei, ej, nodes[j], nodes[i], k)] += kg[i*n+j]
+			}
+		}
+	}
+	if rep != nil {
+		rep.Progress("assembling", total, total, nil)
+	}
+	return nil
 }
 
 // dense returns the scaled matrix as a dense symmetric matrix.

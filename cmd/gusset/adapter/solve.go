@@ -14,19 +14,14 @@ import (
 )
 
 func init() {
-	registry = append(registry, entry{
-		method: protocol.Method{Name: "solve", Params: "SolveParams", Result: "SolveResult",
-			Summary: "Linear-elastic stiffness analysis: displacements, axial and end forces, reactions, stresses, utilisation and the stability report."},
-		handler: func(a *Adapter) protocol.Handler { return a.solve },
-	})
+	register(protocol.Method{Name: "solve", Params: "SolveParams", Result: "SolveResult",
+		Summary: "Linear-elastic stiffness analysis: displacements, axial and end forces, reactions, stresses, utilisation and the stability report."},
+		func(a *Adapter) protocol.Handler { return a.solve })
 }
 
 func (a *Adapter) solve(ctx context.Context, params json.RawMessage, st protocol.Stream) (any, error) {
 	var p protocol.SolveParams
-	if err := a.decode("solve", params, &p); err != nil {
-		return nil, err
-	}
-	m, err := a.compile(ctx, &p.Model, "/params/model")
+	m, err := a.decodeModel(ctx, "solve", params, &p, &p.Model)
 	if err != nil {
 		return nil, err
 	}
@@ -42,7 +37,10 @@ func (a *Adapter) solve(ctx context.Context, params json.RawMessage, st protocol
 
 // analyse runs the stiffness solve and locates its errors in the request.
 func (a *Adapter) analyse(ctx context.Context, m *model.Model, cases []string, st protocol.Stream) (*stiffness.Result, error) {
-	r, err := stiffness.Solve(ctx, m, stiffness.Options{Cases: cases, Reporter: st, Workers: 1})
+	// Workers 0 lets one large solve use every core; results are
+	// bit-identical for any number of workers, and with several requests in
+	// flight the Go scheduler shares the cores among their goroutines.
+	r, err := stiffness.Solve(ctx, m, stiffness.Options{Cases: cases, Reporter: st})
 	if err == nil {
 		return r, nil
 	}
