@@ -172,8 +172,10 @@ type LayoutParams struct {
 	// that solve can analyse it; default 2.1e8 (steel in kN and m).
 	ElasticModulus float64 `json:"elastic_modulus,omitempty" jsonschema:"exclusiveMinimum=0"`
 	// Mode is "alternatives" (the default: the layout carries each case on
-	// its own) or "together" (the cases' loads act at once).
-	Mode string `json:"mode,omitempty" jsonschema:"enum=alternatives,enum=together"`
+	// its own, by the multiple-load-case formulation), "together" (the
+	// cases' loads act at once), or "single-equivalent" (two alternative
+	// cases with equal limits solved as one equivalent case).
+	Mode string `json:"mode,omitempty" jsonschema:"enum=alternatives,enum=together,enum=single-equivalent"`
 	// Picture asks for an SVG drawing of the layout in the result.
 	Picture bool `json:"picture,omitempty"`
 }

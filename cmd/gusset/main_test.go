@@ -101,3 +101,24 @@ func readMessages(t *testing.T, out string) []map[string]any {
 	}
 	return msgs
 }
+
+// TestRunWritesPictures checks --pictures: the picture a reciprocate result
+// carries lands in the folder as ID.svg.
+func TestRunWritesPictures(t *testing.T) {
+	dir := t.TempDir()
+	input, err := os.ReadFile("../../testdata/transcripts/triangle-reciprocal.in.jsonl")
+	if err != nil {
+		t.Fatal(err)
+	}
+	request := strings.Replace(string(input), `"method":"reciprocate","params":{`, `"method":"reciprocate","params":{"picture":true,`, 1)
+	if code, _, errOut := runCapture([]string{"run", "--pictures", dir, "-"}, request); code != 0 {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	b, err := os.ReadFile(filepath.Join(dir, "tri.svg"))
+	if err != nil || !strings.Contains(string(b), "<svg") || !strings.Contains(string(b), "qualified engineer") {
+		t.Errorf("picture not written: %v", err)
+	}
+	if code, _, _ := runCapture([]string{"serve", "--pictures", dir}, ""); code != 2 {
+		t.Errorf("serve --pictures: exit %d, want 2", code)
+	}
+}

@@ -7,6 +7,7 @@ import (
 	"io"
 	"os"
 	"os/signal"
+	"path/filepath"
 	"runtime/debug"
 	"strings"
 	"sync"
@@ -64,8 +65,9 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 }
 
 type flags struct {
-	fs     *flag.FlagSet
-	limits protocol.Limits
+	fs       *flag.FlagSet
+	limits   protocol.Limits
+	pictures string
 }
 
 func newFlags(out io.Writer) *flags {
@@ -80,6 +82,7 @@ func newFlags(out io.Writer) *flags {
 	f.fs.IntVar(&f.limits.MaxCandidates, "max-candidates", d.MaxCandidates, "most candidate members in one layout optimisation")
 	f.fs.IntVar(&f.limits.MaxQueued, "max-queued", d.MaxQueued, "requests read ahead while all workers are busy")
 	f.fs.Float64Var(&f.limits.TimeLimitSeconds, "time-limit", 0, "wall time allowed per request in seconds (0: none)")
+	f.fs.StringVar(&f.pictures, "pictures", "", "run only: write every picture a result carries into this folder, as ID.svg")
 	return f
 }
 
@@ -121,6 +124,17 @@ func serve(args []string, stdin io.Reader, stdout, stderr io.Writer, oneShot boo
 	if err != nil {
 		fmt.Fprintf(stderr, "gusset: %v\n", err)
 		return 1
+	}
+	if f.pictures != "" {
+		if !oneShot {
+			fmt.Fprintln(stderr, "gusset serve: --pictures belongs to gusset run")
+			return 2
+		}
+		if err := os.MkdirAll(f.pictures, 0o755); err != nil {
+			fmt.Fprintf(stderr, "gusset run: %v\n", err)
+			return 2
+		}
+		s.OnResponse = pictureWriter(f.pictures, stderr)
 	}
 	if oneShot && isTerminal(stderr) {
 		bar := &progressBar{out: stderr}
@@ -198,5 +212,36 @@ func tuneMemory() {
 	}
 	if os.Getenv("GOMEMLIMIT") == "" {
 		debug.SetMemoryLimit(memoryLimit)
+	}
+}
+
+// pictureWriter returns a response hook that writes the SVG picture of a
+// result (reciprocate and optimise-layout, when asked with "picture": true)
+// into dir as ID.svg, the id made safe for a file name.
+func pictureWriter(dir string, stderr io.Writer) func(r *protocol.Response) {
+	var mu sync.Mutex
+	return func(r *protocol.Response) {
+		var picture string
+		switch v := r.Result.(type) {
+		case *protocol.ReciprocateResult:
+			picture = v.Picture
+		case *protocol.LayoutResult:
+			picture = v.Picture
+		}
+		if picture == "" {
+			return
+		}
+		name := strings.Map(func(c rune) rune {
+			if c == '/' || c == '\\' || c == '"' || c < ' ' {
+				return '_'
+			}
+			return c
+		}, strings.Trim(string(r.ID), `"`))
+		mu.Lock()
+		defer mu.Unlock()
+		file := filepath.Join(dir, name+".svg")
+		if err := os.WriteFile(file, []byte(picture), 0o644); err != nil {
+			fmt.Fprintf(stderr, "gusset run: writing %s: %v\n", file, err)
+		}
 	}
 }

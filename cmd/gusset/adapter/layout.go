@@ -27,8 +27,11 @@ func (a *Adapter) optimiseLayout(ctx context.Context, params json.RawMessage, st
 		return nil, err
 	}
 	prob := layout.Problem{Level: p.Connectivity, TensionLimit: p.TensionLimit, CompressionLimit: p.CompressionLimit}
-	if p.Mode == "together" {
+	switch p.Mode {
+	case "together":
 		prob.Mode = layout.Together
+	case "single-equivalent":
+		prob.Mode = layout.SingleEquivalent
 	}
 	if p.Domain != nil {
 		prob.Domain.Outline = points(p.Domain.Outline)
