@@ -108,11 +108,18 @@ func Solve(ctx context.Context, m *model.Model, opt Options) (*Result, error) {
 	res.Stats.NonzerosFactor = sys.fac.nonzeros()
 	// The condition estimate costs a dozen solves; with a second core it
 	// runs beside the load cases, and its warning still comes last.
-	condition := make(chan float64, 1)
+	condition := make(chan estimate, 1)
 	if workers(opt.Workers) > 1 && path == Sparse {
-		go func() { condition <- sys.fac.condition() }()
+		go func() {
+			defer func() {
+				if r := recover(); r != nil {
+					condition <- estimate{crash: &panicValue{r}}
+				}
+			}()
+			condition <- estimate{value: sys.fac.condition()}
+		}()
 	} else {
-		condition <- sys.fac.condition()
+		condition <- estimate{value: sys.fac.condition()}
 	}
 
 	start = time.Now()
@@ -157,7 +164,11 @@ func Solve(ctx context.Context, m *model.Model, opt Options) (*Result, error) {
 	rep.Progress("recovering", len(requests), len(requests), nil)
 	res.Stats.Recover = time.Since(start)
 
-	res.Stats.ConditionNumber = <-condition
+	est := <-condition
+	if est.crash != nil {
+		panic(est.crash.v)
+	}
+	res.Stats.ConditionNumber = est.value
 	if err := ctx.Err(); err != nil {
 		return nil, err
 	}
@@ -301,4 +312,11 @@ func stiffnessRatio(m *model.Model) []string {
 	}
 	return []string{fmt.Sprintf("member stiffnesses EA/L span a ratio of %.2g (member %q %.3g, member %q %.3g): results for the softer members may be inaccurate",
 		kHi/kLo, m.Members[hi].ID, kHi, m.Members[lo].ID, kLo)}
+}
+
+// estimate carries the condition estimate from its goroutine, or the panic
+// that stopped it, to be raised again in the caller.
+type estimate struct {
+	value float64
+	crash *panicValue
 }

@@ -66,16 +66,27 @@ func assemble(ctx context.Context, m *model.Model, nb *numbering, workers int, r
 		bounds[w] = n
 	}
 	errs := make([]error, workers)
+	crashes := make([]*panicValue, workers)
 	var wg sync.WaitGroup
 	for w := 1; w < workers; w++ {
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
+			defer func() {
+				if r := recover(); r != nil {
+					crashes[w] = &panicValue{r}
+				}
+			}()
 			errs[w] = assembleRange(ctx, m, nb, pat, sys, bounds[w], bounds[w+1], nil)
 		}()
 	}
 	errs[0] = assembleRange(ctx, m, nb, pat, sys, bounds[0], bounds[1], rep)
 	wg.Wait()
+	for _, c := range crashes {
+		if c != nil {
+			panic(c.v) // raised again in the caller, where the server recovers it
+		}
+	}
 	for _, err := range errs {
 		if err != nil {
 			return nil, err
