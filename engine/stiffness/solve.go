@@ -58,13 +58,36 @@ func Solve(ctx context.Context, m *model.Model, opt Options) (*Result, error) {
 	}
 	res.Warnings = append(res.Warnings, stiffnessRatio(m)...)
 
+	// The counts come first without the rank: when K factorises and no
+	// spring stiffens it, the equilibrium matrix has full row rank and the
+	// SVD (cubic in the model's size) is needed only for a mechanism or a
+	// model with springs.
 	start := time.Now()
-	stability, err := statics.Analyse(ctx, m, statics.Options{DenseLimit: opt.StabilityLimit})
+	svd := hasSprings(m)
+	limit := -1
+	if svd {
+		limit = opt.StabilityLimit
+	}
+	stability, err := statics.Analyse(ctx, m, statics.Options{DenseLimit: limit})
 	if err != nil {
 		return nil, err
 	}
 	res.Stability = stability
 	res.Stats.Stability = time.Since(start)
+	// analyse replaces the counts by the full SVD report within the limit.
+	analyse := func() error {
+		if svd || opt.StabilityLimit < 0 {
+			return nil
+		}
+		start := time.Now()
+		full, err := statics.Analyse(ctx, m, statics.Options{DenseLimit: opt.StabilityLimit})
+		if err != nil {
+			return err
+		}
+		stability, res.Stability = full, full
+		res.Stats.Stability += time.Since(start)
+		return nil
+	}
 
 	start = time.Now()
 	sys, err := assemble(ctx, m, nb, opt.Workers, rep)
@@ -86,6 +109,9 @@ func Solve(ctx context.Context, m *model.Model, opt Options) (*Result, error) {
 	res.Stats.Order, res.Stats.Factor, err = sys.factorise(ctx, path, opt, rep)
 	var deficient *errDeficient
 	if errors.As(err, &deficient) {
+		if err := analyse(); err != nil {
+			return nil, err
+		}
 		if held, ok := solveHeld(ctx, m, nb, deficient.equations, opt, stability, res.Warnings); ok {
 			return held, nil
 		}
