@@ -51,4 +51,8 @@ type Options struct {
 	// matrix scaled to unit diagonal; a smaller pivot marks a mechanism.
 	// 0 means DefaultPivotTolerance.
 	PivotTolerance float64
+	// SkipCondition leaves out the condition estimate (a dozen extra
+	// solves) and its warning: Stats.ConditionNumber is then 0. Sweeps,
+	// which keep only metrics, set it.
+	SkipCondition bool
 }

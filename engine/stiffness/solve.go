@@ -135,7 +135,9 @@ func Solve(ctx context.Context, m *model.Model, opt Options) (*Result, error) {
 	// The condition estimate costs a dozen solves; with a second core it
 	// runs beside the load cases, and its warning still comes last.
 	condition := make(chan estimate, 1)
-	if workers(opt.Workers) > 1 && path == Sparse {
+	if opt.SkipCondition {
+		condition <- estimate{}
+	} else if workers(opt.Workers) > 1 && path == Sparse {
 		go func() {
 			defer func() {
 				if r := recover(); r != nil {

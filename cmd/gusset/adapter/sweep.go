@@ -72,7 +72,7 @@ func (a *Adapter) sweep(ctx context.Context, params json.RawMessage, st protocol
 		metrics = append(metrics, p.Objective.Metric)
 	}
 	solver := func(ctx context.Context, mm *model.Model) (*sweep.Solution, error) {
-		r, err := stiffness.Solve(ctx, mm, stiffness.Options{Cases: p.Cases, Workers: 1, StabilityLimit: -1})
+		r, err := stiffness.Solve(ctx, mm, stiffness.Options{Cases: p.Cases, Workers: 1, StabilityLimit: -1, SkipCondition: true})
 		if err != nil {
 			return nil, err
 		}
