@@ -58,14 +58,33 @@ func newNumbering(m *model.Model) *numbering {
 			nb.total++
 		}
 	}
+	fixed := nb.setSupports(m)
 	nb.equation = make([]int, nb.total)
+	for f := range nb.total {
+		if fixed[f] {
+			nb.equation[f] = -1
+			continue
+		}
+		nb.equation[f] = nb.equations
+		nb.freedomOf = append(nb.freedomOf, f)
+		nb.equations++
+	}
+	return nb
+}
+
+// setSupports fills in the prescribed displacements, springs and reaction
+// owners of m's supports over nb's freedoms (new slices, so that a copy of
+// a numbering can take another model's values) and returns which freedoms
+// are fixed.
+func (nb *numbering) setSupports(m *model.Model) (fixed []bool) {
 	nb.prescribed = make([]float64, nb.total)
 	nb.spring = make([]float64, nb.total)
 	nb.supportOf = make([]int, nb.total)
+	nb.anyPrescribed = false
 	for i := range nb.supportOf {
 		nb.supportOf[i] = -1
 	}
-	fixed := make([]bool, nb.total)
+	fixed = make([]bool, nb.total)
 	for si, s := range m.Supports {
 		for c := range 6 {
 			if !hasComponent(m.Dim, c, nb.rotational[s.Node]) {
@@ -91,15 +110,10 @@ func newNumbering(m *model.Model) *numbering {
 	}
 	for f := range nb.total {
 		if fixed[f] {
-			nb.equation[f] = -1
 			nb.spring[f] = 0
-			continue
 		}
-		nb.equation[f] = nb.equations
-		nb.freedomOf = append(nb.freedomOf, f)
-		nb.equations++
 	}
-	return nb
+	return fixed
 }
 
 // freedom returns the global freedom of component c at node n, or -1.

@@ -84,7 +84,7 @@ func TestPatternAssemblyMatchesTriplets(t *testing.T) {
 		nb := newNumbering(m)
 		ref, settle := tripletStiffness(m, nb)
 		for _, workers := range []int{1, 2, 3} {
-			sys, err := assemble(context.Background(), m, nb, workers, progress.Or(nil))
+			sys, err := assemble(context.Background(), m, nb, newPattern(m, nb), workers, progress.Or(nil))
 			if err != nil {
 				t.Fatal(err)
 			}

@@ -30,7 +30,11 @@ type request struct {
 // cancelled. Warnings report ill-conditioning, member stiffness ratios of
 // 1e12 and more, and disconnected parts.
 func Solve(ctx context.Context, m *model.Model, opt Options) (*Result, error) {
-	rep := progress.Or(opt.Reporter)
+	return solve(ctx, m, opt.withDefaults(), nil)
+}
+
+// withDefaults replaces the zero values of opt by the defaults.
+func (opt Options) withDefaults() Options {
 	if opt.DenseLimit <= 0 {
 		opt.DenseLimit = DefaultDenseLimit
 	}
@@ -40,11 +44,24 @@ func Solve(ctx context.Context, m *model.Model, opt Options) (*Result, error) {
 	if opt.PivotTolerance <= 0 {
 		opt.PivotTolerance = DefaultPivotTolerance
 	}
+	return opt
+}
+
+// solve is Solve with opt's defaults filled in and, when an is not nil,
+// the numbering's structure, the pattern of K and its symbolic
+// factorisation taken from an (m must then have an's topology).
+func solve(ctx context.Context, m *model.Model, opt Options, an *Analysis) (*Result, error) {
+	rep := progress.Or(opt.Reporter)
 	requests, err := requested(m, opt.Cases)
 	if err != nil {
 		return nil, err
 	}
-	nb := newNumbering(m)
+	var nb *numbering
+	if an != nil {
+		nb = an.numbering(m)
+	} else {
+		nb = newNumbering(m)
+	}
 	if err := validate(m, nb); err != nil {
 		return nil, err
 	}
@@ -90,7 +107,13 @@ func Solve(ctx context.Context, m *model.Model, opt Options) (*Result, error) {
 	}
 
 	start = time.Now()
-	sys, err := assemble(ctx, m, nb, opt.Workers, rep)
+	var pat *pattern
+	if an != nil {
+		pat = an.pattern()
+	} else {
+		pat = newPattern(m, nb)
+	}
+	sys, err := assemble(ctx, m, nb, pat, opt.Workers, rep)
 	if err != nil {
 		return nil, err
 	}
@@ -106,7 +129,7 @@ func Solve(ctx context.Context, m *model.Model, opt Options) (*Result, error) {
 		}
 	}
 	res.Stats.Path = path
-	res.Stats.Order, res.Stats.Factor, err = sys.factorise(ctx, path, opt, rep)
+	res.Stats.Order, res.Stats.Factor, err = sys.factorise(ctx, path, opt, an, rep)
 	var deficient *errDeficient
 	if errors.As(err, &deficient) {
 		if err := analyse(); err != nil {
@@ -204,6 +227,9 @@ func Solve(ctx context.Context, m *model.Model, opt Options) (*Result, error) {
 		res.Warnings = append(res.Warnings, fmt.Sprintf(
 			"the stiffness matrix is ill-conditioned (condition estimate %.2g after scaling to unit diagonal): about %d of 16 significant digits may be lost",
 			c, digitsLost(c)))
+	}
+	if an != nil {
+		an.release(sys)
 	}
 	return res, nil
 }

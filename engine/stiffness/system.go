@@ -38,14 +38,14 @@ type system struct {
 const assembleParallel = 8192
 
 // assemble builds the system and the settlement right-hand side. The
-// pattern comes from the connectivity, and each element's block is added
-// straight into the matrix values at positions found by arithmetic. With
+// pattern pat (its values zero) comes from the connectivity, and each
+// element's block is added straight into the matrix values at positions
+// found by arithmetic. With
 // several workers, each owns a range of nodes (and so of columns and of
 // settlement rows) and adds, in member order, every entry that falls in
 // its range: each value receives the same additions in the same order as
 // with one worker, so the matrix is bit-identical for any worker count.
-func assemble(ctx context.Context, m *model.Model, nb *numbering, workers int, rep progress.Reporter) (*system, error) {
-	pat := newPattern(m, nb)
+func assemble(ctx context.Context, m *model.Model, nb *numbering, pat *pattern, workers int, rep progress.Reporter) (*system, error) {
 	a := pat.k
 	sys := &system{k: a, settle: make([]float64, nb.equations)}
 	if workers <= 0 {
@@ -195,8 +195,10 @@ type errDeficient struct{ equations []int }
 func (e *errDeficient) Error() string { return "stiffness: deficient pivots" }
 
 // factorise factorises the scaled matrix on the chosen path, returning an
-// *errDeficient for a mechanism, and the ordering and factor times.
-func (sys *system) factorise(ctx context.Context, path Path, opt Options, rep progress.Reporter) (order, fact time.Duration, err error) {
+// *errDeficient for a mechanism, and the ordering and factor times. On the
+// sparse path, an, when not nil, provides the symbolic analysis of the
+// matrix's structure (and storage) to reuse.
+func (sys *system) factorise(ctx context.Context, path Path, opt Options, an *Analysis, rep progress.Reporter) (order, fact time.Duration, err error) {
 	if len(sys.zero) > 0 {
 		return 0, 0, &errDeficient{sys.zero}
 	}
@@ -215,7 +217,13 @@ func (sys *system) factorise(ctx context.Context, path Path, opt Options, rep pr
 		sys.fac = f
 		return 0, time.Since(start), nil
 	}
-	c, err := sparse.Factorize(ctx, sys.k, sparse.Options{Workers: opt.Workers, Reporter: rep, PivotTolerance: opt.PivotTolerance})
+	sopt := sparse.Options{Workers: opt.Workers, Reporter: rep, PivotTolerance: opt.PivotTolerance}
+	var c *sparse.Cholesky
+	if an != nil {
+		c, err = an.factorize(ctx, sys.k, sopt)
+	} else {
+		c, err = sparse.Factorize(ctx, sys.k, sopt)
+	}
 	var pe *sparse.PivotError
 	if errors.As(err, &pe) {
 		return 0, 0, &errDeficient{pe.Columns}

@@ -26,21 +26,26 @@ func deepened(panels int) *model.Model {
 	return modelgen.Must(spec)
 }
 
-// stiffnessSolver solves a re-parametrised model and hands its forces to
-// the load path, as the server's sweep does.
-func stiffnessSolver(ctx context.Context, m *model.Model) (*Solution, error) {
-	r, err := stiffness.Solve(ctx, m, stiffness.Options{Workers: 1, StabilityLimit: -1, SkipCondition: true})
-	if err != nil {
-		return nil, err
-	}
-	sol := &Solution{}
-	for _, c := range r.Cases {
-		sol.Cases = append(sol.Cases, loadpath.Case{ID: c.ID, AxialForce: c.AxialForce, External: c.External})
-		for _, u := range c.Utilisation {
-			sol.MaxUtilisation = math.Max(sol.MaxUtilisation, u)
+// stiffnessSolver returns a solver of m's re-parametrised models that
+// hands their forces to the load path, as the server's sweep does: the
+// topology never changes, so one stiffness.Analysis of m serves every step
+// and every worker.
+func stiffnessSolver(m *model.Model) Solver {
+	an := stiffness.NewAnalysis(m, stiffness.Options{Workers: 1, StabilityLimit: -1, SkipCondition: true})
+	return func(ctx context.Context, m *model.Model) (*Solution, error) {
+		r, err := an.Solve(ctx, m)
+		if err != nil {
+			return nil, err
 		}
+		sol := &Solution{}
+		for _, c := range r.Cases {
+			sol.Cases = append(sol.Cases, loadpath.Case{ID: c.ID, AxialForce: c.AxialForce, External: c.External})
+			for _, u := range c.Utilisation {
+				sol.MaxUtilisation = math.Max(sol.MaxUtilisation, u)
+			}
+		}
+		return sol, nil
 	}
-	return sol, nil
 }
 
 // BenchmarkStructuralSweep runs real sweeps (expressions re-evaluated, the
@@ -56,7 +61,7 @@ func BenchmarkStructuralSweep(b *testing.B) {
 	for _, c := range []struct{ panels, steps int }{{125, 1000}, {5000, 100}} {
 		m := deepened(c.panels)
 		depths, _ := Range(1, 8, c.steps)
-		eval, err := ModelEvaluator(m, []string{"depth"}, []string{MetricVolume}, stiffnessSolver,
+		eval, err := ModelEvaluator(m, []string{"depth"}, []string{MetricVolume}, stiffnessSolver(m),
 			loadpath.Options{Section: loadpath.SectionFamily{Shape: loadpath.ShapeTube, DiameterToThickness: 30}})
 		if err != nil {
 			b.Fatal(err)

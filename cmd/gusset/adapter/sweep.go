@@ -71,8 +71,11 @@ func (a *Adapter) sweep(ctx context.Context, params json.RawMessage, st protocol
 	if p.Objective != nil && !contains(metrics, p.Objective.Metric) {
 		metrics = append(metrics, p.Objective.Metric)
 	}
+	// The steps change numbers only, never the topology, so the numbering,
+	// the stiffness pattern and its ordering are worked out once.
+	analysis := stiffness.NewAnalysis(m, stiffness.Options{Cases: p.Cases, Workers: 1, StabilityLimit: -1, SkipCondition: true})
 	solver := func(ctx context.Context, mm *model.Model) (*sweep.Solution, error) {
-		r, err := stiffness.Solve(ctx, mm, stiffness.Options{Cases: p.Cases, Workers: 1, StabilityLimit: -1, SkipCondition: true})
+		r, err := analysis.Solve(ctx, mm)
 		if err != nil {
 			return nil, err
 		}

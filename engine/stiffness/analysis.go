@@ -1,0 +1,134 @@
+package stiffness
+
+import (
+	"context"
+	"sync"
+
+	"gusset/engine/model"
+	"gusset/engine/sparse"
+)
+
+// Analysis holds what Solve derives from a model's topology alone: the
+// numbering of the freedoms, the pattern of the stiffness matrix with the
+// positions assembly writes to, and (on the sparse path) the fill-reducing
+// order and symbolic factorisation. A sweep that changes only numbers
+// (coordinates, section and material values, loads, spring stiffnesses,
+// prescribed displacements) builds it once and solves every step with it.
+//
+// Several goroutines may call Solve at the same time: each call assembles
+// and factorises into storage of its own, taken over from a finished call
+// when there is one.
+type Analysis struct {
+	opt   Options // with the defaults filled in
+	dim   int
+	nodes int
+	ends  [][2]int
+	kinds []model.MemberKind
+	nb    *numbering // its support values are the analysed model's
+	pat   *pattern
+	sym   *sparse.Analysis // nil on the dense path
+
+	// Storage of finished solves, taken up again by later ones: matrix
+	// values ([]float64) and sparse factors (*sparse.Cholesky), each
+	// owned by one solve at a time.
+	values  sync.Pool
+	factors sync.Pool
+}
+
+// NewAnalysis analyses the topology of m (node count, members' ends and
+// kinds, the components its supports fix) for Solve with opt. It does not
+// check m's data: Solve reports what Solve of the package would.
+func NewAnalysis(m *model.Model, opt Options) *Analysis {
+	opt = opt.withDefaults()
+	nb := newNumbering(m)
+	a := &Analysis{
+		opt:   opt,
+		dim:   m.Dim,
+		nodes: m.NodeCount(),
+		ends:  make([][2]int, len(m.Members)),
+		kinds: make([]model.MemberKind, len(m.Members)),
+		nb:    nb,
+		pat:   newPattern(m, nb),
+	}
+	for e, mem := range m.Members {
+		a.ends[e], a.kinds[e] = mem.Ends, mem.Kind
+	}
+	path := opt.Path
+	if path == Auto {
+		path = Sparse
+		if nb.equations <= opt.DenseLimit {
+			path = Dense
+		}
+	}
+	if path == Sparse && nb.equations > 0 {
+		// The order depends on the structure alone, so it is the one
+		// Factorize would choose for every step's matrix.
+		a.sym = sparse.Analyse(a.pat.k, sparse.Options{Workers: opt.Workers})
+	}
+	return a
+}
+
+// Solve analyses m, which must have the topology of the model given to
+// NewAnalysis, with the Options given to NewAnalysis. Its results and
+// errors are those of the package's Solve(ctx, m, opt), bit for bit, except
+// the timings in Result.Stats (Stats.Order is zero: no ordering is done).
+// Solve panics if m's topology differs.
+func (a *Analysis) Solve(ctx context.Context, m *model.Model) (*Result, error) {
+	if m.Dim != a.dim || m.NodeCount() != a.nodes || len(m.Members) != len(a.ends) {
+		panic("stiffness: Analysis.Solve with a model of another topology")
+	}
+	for e, mem := range m.Members {
+		if mem.Ends != a.ends[e] || mem.Kind != a.kinds[e] {
+			panic("stiffness: Analysis.Solve with a model of another topology")
+		}
+	}
+	return solve(ctx, m, a.opt, a)
+}
+
+// numbering returns the numbering of m's freedoms: the analysed one, with
+// m's prescribed displacements and springs. It panics unless m's supports
+// fix the components the analysed model's did.
+func (a *Analysis) numbering(m *model.Model) *numbering {
+	nb := *a.nb
+	fixed := nb.setSupports(m)
+	for f, eq := range nb.equation {
+		if fixed[f] != (eq < 0) {
+			panic("stiffness: Analysis.Solve with a model whose supports fix other components")
+		}
+	}
+	return &nb
+}
+
+// pattern returns a copy of the analysed pattern sharing its structure,
+// with values of its own, zero, for one assembly.
+func (a *Analysis) pattern() *pattern {
+	q := *a.pat
+	val, ok := a.values.Get().([]float64)
+	if ok {
+		clear(val)
+	} else {
+		val = make([]float64, len(a.pat.k.Val))
+	}
+	q.k = &sparse.Matrix{N: a.pat.k.N, ColPtr: a.pat.k.ColPtr, RowIdx: a.pat.k.RowIdx, Val: val}
+	return &q
+}
+
+// factorize factorises k, of the analysed structure, into a finished
+// solve's factor when there is one.
+func (a *Analysis) factorize(ctx context.Context, k *sparse.Matrix, opt sparse.Options) (*sparse.Cholesky, error) {
+	if c, ok := a.factors.Get().(*sparse.Cholesky); ok {
+		// A factor is pooled only after a success, and Refactorize
+		// keeps the options it was made with, which are a's.
+		return c, c.Refactorize(ctx, k)
+	}
+	return sparse.FactorizeWith(ctx, k, a.sym, opt)
+}
+
+// release hands the storage of a finished solve, which nothing returned to
+// the caller refers to, to later solves.
+func (a *Analysis) release(sys *system) {
+	a.values.Put(sys.k.Val)
+	if f, ok := sys.fac.(sparseFactor); ok {
+		a.factors.Put(f.c)
+	}
+}
