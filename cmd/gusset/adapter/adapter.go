@@ -6,6 +6,7 @@ import (
 	"encoding/json"
 	"errors"
 	"fmt"
+	"sort"
 	"strings"
 
 	"gusset/engine/fault"
@@ -41,6 +42,9 @@ type Adapter struct {
 // of params and the mapping of engine errors to wire codes.
 func Register(s *protocol.Server) error {
 	s.Limits = s.Limits.WithDefaults()
+	// Methods are listed in the order a newcomer meets them.
+	order := map[string]int{"solve": 0, "reciprocate": 1, "load-path": 2, "sweep-parameter": 3, "optimise-layout": 4}
+	sort.SliceStable(registry, func(i, j int) bool { return order[registry[i].method.Name] < order[registry[j].method.Name] })
 	params := map[string]string{"cancel": "CancelParams", "describe": "DescribeParams"}
 	for _, e := range registry {
 		params[e.method.Name] = e.method.Params
