@@ -1,8 +1,11 @@
 package main
 
 import (
+	"math"
 	"os"
 	"path/filepath"
+	"regexp"
+	"strconv"
 	"strings"
 	"testing"
 )
@@ -15,6 +18,11 @@ func TestDemo(t *testing.T) {
 	if code != 0 {
 		t.Fatalf("demo exit %d: %s", code, errOut)
 	}
+	// The stability line is the extended Maxwell rule b − d·j + k = s − m
+	// (J. C. Maxwell, Phil. Mag. 27, 1864, extended with s and m as in
+	// statics' tests; from memory) for the demo's truss: 29 bars, 16 joints,
+	// 3 support constraints, 29 − 32 + 3 = 0, statically determinate and
+	// stiff.
 	for _, want := range []string{"Brannock Cut", "Stability: b − d·j + k = s − m: 29 − 2·16 + 3 = 0", "Least steel at depth", "qualified engineer"} {
 		if !strings.Contains(out, want) {
 			t.Errorf("demo output lacks %q:\n%s", want, out)
@@ -26,6 +34,26 @@ func TestDemo(t *testing.T) {
 	// text).
 	if !strings.Contains(out, "largest compression  -540.0 kN (U4-U5)") {
 		t.Errorf("crowd case chord force not as derived by sections:\n%s", out)
+	}
+	// In the crowd case every load and both reactions are vertical and act
+	// at nodes on y = 0, so M = Σ F·r = Σ F_y·y = 0 and Maxwell's theorem
+	// Z_T − Z_C = M (J. C. Maxwell, Trans. RSE 26, 1870) splits the load
+	// path evenly: Z_T = Z_C = Z/2.
+	crowd := regexp.MustCompile(`crowd\s+Z =\s*([0-9.]+) kN·m \(tension ([0-9.]+), compression ([0-9.]+)\); M =\s*(-?[0-9.]+)`).FindStringSubmatch(out)
+	if crowd == nil {
+		t.Fatalf("demo output lacks the crowd case's load path:\n%s", out)
+	}
+	var z, zt, zc, mm float64
+	for i, p := range []*float64{&z, &zt, &zc, &mm} {
+		v, err := strconv.ParseFloat(crowd[i+1], 64)
+		if err != nil {
+			t.Fatal(err)
+		}
+		*p = v
+	}
+	// The printed figures carry one decimal: allow for its rounding.
+	if math.Abs(mm) > 0.05 || math.Abs(zt-zc) > 0.1 || math.Abs(zt+zc-z) > 0.15 || z <= 0 {
+		t.Errorf("crowd case: Z = %g, Z_T = %g, Z_C = %g, M = %g; want M = 0 and Z_T = Z_C = Z/2", z, zt, zc, mm)
 	}
 	for _, file := range []string{"depth-study.svg", "form-and-force.svg", "least-material-layout.svg"} {
 		b, err := os.ReadFile(filepath.Join(dir, file))

@@ -6,6 +6,8 @@ import (
 	"gusset/engine/expr"
 )
 
+// ExampleCompile evaluates the length of a rafter over half an 8 m span
+// and 3 m deep: √(4² + 3²) = 5 (a 3-4-5 triangle, common practice).
 func ExampleCompile() {
 	params := []string{"span", "depth"}
 	p, err := expr.Compile("sqrt((span/2)^2 + depth^2)", params)

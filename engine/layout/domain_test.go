@@ -17,6 +17,8 @@ func TestGridCandidates(t *testing.T) {
 		{"full", 0, 28},
 		// Level 1 keeps the 12 grid edges and 8 cell diagonals.
 		{"level 1", 1, 20},
+		// Level 2 adds the 8 knight's-move pairs (slope ±1/2 or ±2) of the
+		// 3 × 3 grid, 20 + 8 = 28, which is every candidate.
 		{"level 2", 2, 28},
 	} {
 		t.Run(tc.name, func(t *testing.T) {

@@ -241,6 +241,11 @@ func TestMethodsAgree(t *testing.T) {
 	}
 }
 
+// ExampleOptimise carries a force P = 10 kN at a = 2 m from a wall with
+// Michell's two bars at 45° (Michell, Phil. Mag. 8, 1904), derived by hand:
+// forces ±P/√2 = ±7.0711 kN, each 2√2 m long, areas 7.0711/250e3 =
+// 2.828e-5 m², load path 2Pa = 40 kN·m and volume 2Pa/σ = 40/250e3 =
+// 1.6e-4 m³.
 func ExampleOptimise() {
 	// A force of 10 kN at 2 m from a wall: Michell's two bars at 45°.
 	p := Problem{

@@ -11,7 +11,10 @@ import (
 // The symmetric two-bar truss with supports 3 m either side of the load
 // and 4 m deep, under 10 kN: each 5 m bar carries 10·5/(2·4) = 6.25 kN of
 // compression, so Z = 2·6.25·5 = 62.5 kN·m = P(a² + h²)/h, and Maxwell's
-// theorem gives M = Z_T − Z_C = −62.5 kN·m.
+// theorem gives M = Z_T − Z_C = −62.5 kN·m (J. C. Maxwell, Trans. RSE 26,
+// 1870). With no second moment given, only the stress limit sizes the
+// bars: each needs 6.25/2.35e5 m² over 5 m, so the volume is
+// Z/σ = 62.5/2.35e5 = 2.66e-4 m³ (derived by hand).
 func ExampleCompute() {
 	m := &model.Model{
 		Dim:       2,

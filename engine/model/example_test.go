@@ -7,6 +7,9 @@ import (
 	"gusset/engine/model"
 )
 
+// ExampleModel_WithParameters changes a member's rise: from (0, 0) to
+// (4, 3) it is √(16 + 9) = 5 long, to (4, 7.5) √(16 + 56.25) = 8.5
+// (Pythagoras, derived by hand).
 func ExampleModel_WithParameters() {
 	spec := &model.Spec{
 		Dimension:  2,

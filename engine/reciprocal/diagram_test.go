@@ -96,6 +96,11 @@ func TestTextbookTrusses(t *testing.T) {
 				{"2-3", 25.0 / 3, Tension}, {"4-5", 25.0 / 3, Tension},
 			},
 			forces: []string{"E-A", "A-B", "B-C", "C-D", "D-E"},
+			// Load line by hand from A = (0, 0): a 15 kN reaction up to
+			// B, the three 10 kN loads down to C, D and E, and the other
+			// 15 kN reaction back up to A; the triangle's points follow the
+			// same way (12 kN down, two 6 kN reactions; point 1 is
+			// A + 10·(−0.8, −0.6) along the left rafter).
 			points: map[string][2]float64{"A": {0, 0}, "B": {0, 15}, "C": {0, 5}, "D": {0, -5}, "E": {0, -15}},
 			tol:    1e-12,
 		},

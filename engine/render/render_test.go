@@ -131,7 +131,11 @@ func TestForm(t *testing.T) {
 		}
 	}
 	text := parseSVG(t, buf.Bytes())
-	for _, want := range []string{Caution, "Tension", "Compression", "-26.7", "m"} {
+	// The force labels are pratt's forces by the method of joints (top
+	// chords −80/3, end posts −25, diagonals 25/3), the largest |N| = 80/3
+	// = 26.67 kN. A bare "m" would match "Compression" and could not fail,
+	// so the length unit is looked for in its sentence.
+	for _, want := range []string{Caution, "Tension", "Compression", "-26.7", "-25", "8.33", "Lengths in m", "Largest axial force 26.67 kN"} {
 		if !strings.Contains(text, want) {
 			t.Errorf("SVG lacks %q", want)
 		}

@@ -9,7 +9,10 @@ import (
 )
 
 // ExampleAnalyse counts a square frame braced by both diagonals: one state
-// of self-stress and no mechanism.
+// of self-stress and no mechanism: Maxwell's rule b − d·j + k with b = 6
+// bars, j = 4 joints, k = 3 constraints gives 6 − 8 + 3 = 1 = s − m (J. C.
+// Maxwell, Phil. Mag. 27, 1864, from memory), and by inspection the square
+// with one diagonal is already stiff, so m = 0 and s = 1.
 func ExampleAnalyse() {
 	m := &model.Model{
 		Dim:     2,

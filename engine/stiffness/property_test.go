@@ -71,6 +71,9 @@ func column(v []float64) [][]float64 {
 // residual is at round-off level, that the reactions balance the loads
 // (equilibrium of the whole structure, Newton's first law), that the dense
 // and sparse paths agree, and that two runs give byte-identical output.
+// Since the residual and balance figures are the solver's report on
+// itself, the pin-jointed models are also checked joint by joint here from
+// their geometry (checkJointEquilibrium).
 func TestEquilibriumProperties(t *testing.T) {
 	for _, g := range generated() {
 		var first []byte
@@ -80,6 +83,7 @@ func TestEquilibriumProperties(t *testing.T) {
 			if err != nil {
 				t.Fatalf("%s: %v", g.name, err)
 			}
+			checkJointEquilibrium(t, g.name, g.m, res)
 			for _, c := range res.Cases {
 				// ‖K·u − f‖/‖f‖ stays at round-off level times the
 				// spread of the member stiffnesses (axial EA/L against
@@ -289,6 +293,79 @@ func TestStabilityCount(t *testing.T) {
 		b := fast.Stability
 		if a.CountedBy != "svd" || b.CountedBy != "stiffness" || a.SelfStress != b.SelfStress || a.Mechanisms != 0 || b.Mechanisms != 0 {
 			t.Errorf("%s: svd %s s=%d m=%d, factor %s s=%d m=%d", g.name, a.CountedBy, a.SelfStress, a.Mechanisms, b.CountedBy, b.SelfStress, b.Mechanisms)
+		}
+	}
+}
+
+// checkJointEquilibrium checks, for models of bars under nodal loads only,
+// that at every node the bars' pulls (N along the unit vector towards the
+// far end, tension positive), the loads and the support reactions sum to
+// zero: the method of joints (any statics text, common practice), computed
+// from the model's geometry independently of the solver's own residual.
+// Models with beams, member loads, self weight, springs or settlements are
+// left to the residual checks.
+func checkJointEquilibrium(t *testing.T, name string, m *model.Model, res *Result) {
+	t.Helper()
+	for _, mem := range m.Members {
+		if mem.Kind != model.Bar {
+			return
+		}
+	}
+	for _, s := range m.Supports {
+		for k := range s.Fixed {
+			if s.Spring[k] != 0 || s.Displacement[k] != 0 {
+				return
+			}
+		}
+	}
+	dim := m.Dim
+	for _, c := range res.Cases {
+		if c.Combination {
+			continue
+		}
+		lc := m.Cases[slices.IndexFunc(m.Cases, func(l model.LoadCase) bool { return l.ID == c.ID })]
+		if lc.SelfWeight || len(lc.MemberLoads) > 0 {
+			continue
+		}
+		sum := make([][3]float64, m.NodeCount())
+		scale := 0.0
+		add := func(node int, f []float64) {
+			for k := 0; k < dim; k++ {
+				sum[node][k] += f[k]
+				scale = max(scale, math.Abs(f[k]))
+			}
+		}
+		for e, mem := range m.Members {
+			a, b := mem.Ends[0], mem.Ends[1]
+			u := make([]float64, dim)
+			l := 0.0
+			for k := 0; k < dim; k++ {
+				u[k] = m.Coords[dim*b+k] - m.Coords[dim*a+k]
+				l += u[k] * u[k]
+			}
+			l = math.Sqrt(l)
+			pull, push := make([]float64, dim), make([]float64, dim)
+			for k := range u {
+				pull[k] = c.AxialForce[e] * u[k] / l
+				push[k] = -pull[k]
+			}
+			add(a, pull)
+			add(b, push)
+		}
+		for _, p := range lc.Nodal {
+			add(p.Node, p.Force[:dim])
+		}
+		for s, r := range c.Reactions {
+			add(m.Supports[s].Node, r.Force)
+		}
+		if scale == 0 {
+			t.Fatalf("%s %s: no forces at all", name, c.ID)
+		}
+		for v, f := range sum {
+			if math.Hypot(f[0], math.Hypot(f[1], f[2])) > 1e-9*scale {
+				t.Errorf("%s %s: node %d out of balance by %v (forces up to %g)", name, c.ID, v, f[:dim], scale)
+				break
+			}
 		}
 	}
 }

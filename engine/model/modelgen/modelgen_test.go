@@ -138,6 +138,10 @@ func TestDeterministic(t *testing.T) {
 	}
 }
 
+// TestFrameCounts counts the frames by hand: a 3-bay, 4-storey plane
+// frame has 4 × 5 grid nodes, 4 columns and 3 beams per storey; a 2 × 3-bay,
+// 4-storey space frame has 3 × 4 × 5 nodes, 3 × 4 columns per storey and
+// per floor 2 × 4 beams along x plus 3 × 3 along y.
 func TestFrameCounts(t *testing.T) {
 	for _, tc := range []struct {
 		spec           *model.Spec
@@ -158,6 +162,12 @@ func TestFrameCounts(t *testing.T) {
 	}
 }
 
+// ExamplePratt builds a 4-panel Pratt truss: 5 bottom and 3 top nodes,
+// members 4 bottom + 2 top chords + 2 end diagonals + 3 verticals + 2 inner
+// diagonals = 13, which is 2j − 3 = 2·8 − 3 as a statically determinate
+// plane truss on three constraints needs (Maxwell's rule, common
+// practice), and one load at each of the 3 inner bottom nodes (counted by
+// hand).
 func ExamplePratt() {
 	m := Must(Pratt(4, 16, 2, 10))
 	fmt.Println(m.NodeCount(), "nodes,", len(m.Members), "members,", len(m.Cases[0].Nodal), "loads")
