@@ -235,9 +235,14 @@ func (s *Server) Serve(ctx context.Context, in io.Reader, out io.Writer) (failur
 			case resp != nil:
 				finish(nil, resp)
 			case c.method == "cancel":
-				finish(nil, s.cancel(c, &tableMu, inFlight))
+				resp := s.cancel(c, &tableMu, inFlight)
+				if c.id != nil { // a notification gets no response
+					finish(nil, resp)
+				}
 			case c.method == "describe":
-				finish(nil, &Response{JSONRPC: "2.0", ID: c.id, Result: s.describeResult()})
+				if c.id != nil {
+					finish(nil, &Response{JSONRPC: "2.0", ID: c.id, Result: s.describeResult()})
+				}
 			default:
 				if ctx.Err() != nil {
 					finish(nil, errorResponse(c.id, NewError(CodeShuttingDown, "shutting down", "The server is stopping and takes no new work.")))

@@ -178,9 +178,14 @@ func TestWrappedErrorKeepsCode(t *testing.T) {
 	}
 }
 
+// TestNotificationGetsNoResponse checks the JSON-RPC 2.0 rule (section 4.1)
+// that a request without an id is a notification and is not answered, for
+// engine methods and the server's own.
 func TestNotificationGetsNoResponse(t *testing.T) {
-	msgs := serveLines(t, testServer(Limits{}), `{"jsonrpc":"2.0","method":"echo"}`+"\n"+`{"jsonrpc":"2.0","id":2,"method":"echo"}`+"\n")
-	if len(finals(msgs)) != 1 {
+	msgs := serveLines(t, testServer(Limits{}), `{"jsonrpc":"2.0","method":"echo"}`+"\n"+
+		`{"jsonrpc":"2.0","method":"describe"}`+"\n"+`{"jsonrpc":"2.0","method":"cancel","params":{"request":5}}`+"\n"+
+		`{"jsonrpc":"2.0","id":2,"method":"echo"}`+"\n")
+	if f := finals(msgs); len(f) != 1 || f["2"].Result == nil {
 		t.Errorf("got %+v", msgs)
 	}
 }
