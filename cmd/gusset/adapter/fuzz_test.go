@@ -1,0 +1,62 @@
+package adapter
+
+import (
+	"bytes"
+	"context"
+	"encoding/json"
+	"os"
+	"path/filepath"
+	"testing"
+
+	"gusset/protocol"
+	"gusset/schema"
+)
+
+type discardStream struct{}
+
+func (discardStream) Progress(string, int, int, any) {}
+
+// FuzzMethodParams feeds arbitrary params to every method's handler with a
+// cancelled context, so each decodes, validates and compiles its params and
+// then stops at the engine's first check: errors are fine, panics are not.
+// Seeds: the params of every transcript request.
+func FuzzMethodParams(f *testing.F) {
+	files, _ := filepath.Glob("../../../testdata/transcripts/*.in.jsonl")
+	for _, file := range files {
+		b, err := os.ReadFile(file)
+		if err != nil {
+			f.Fatal(err)
+		}
+		for _, line := range bytes.Split(b, []byte("\n")) {
+			var req struct {
+				Method string          `json:"method"`
+				Params json.RawMessage `json:"params"`
+			}
+			if json.Unmarshal(line, &req) == nil && len(req.Params) > 0 {
+				f.Add(req.Method, []byte(req.Params))
+			}
+		}
+	}
+	params := map[string]string{}
+	for _, e := range registry {
+		params[e.method.Name] = e.method.Params
+	}
+	v, err := schema.NewValidator(params)
+	if err != nil {
+		f.Fatal(err)
+	}
+	a := &Adapter{Limits: protocol.Limits{}.WithDefaults(), validator: v}
+	handlers := map[string]protocol.Handler{}
+	for _, e := range registry {
+		handlers[e.method.Name] = e.handler(a)
+	}
+	ctx, cancel := context.WithCancel(context.Background())
+	cancel()
+	f.Fuzz(func(t *testing.T, method string, body []byte) {
+		h := handlers[method]
+		if h == nil {
+			return
+		}
+		_, _ = h(ctx, body, discardStream{})
+	})
+}
