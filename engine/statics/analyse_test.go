@@ -127,15 +127,17 @@ func TestSquareMechanism(t *testing.T) {
 }
 
 // TestDenseLimit checks that a model above the limit is counted but not
-// analysed.
+// analysed: a square with both diagonals on a pin and a roller has Maxwell
+// number b − 2j + k = 6 − 8 + 3 = 1 (Maxwell 1864), known without the rank,
+// while s and m are left uncomputed.
 func TestDenseLimit(t *testing.T) {
-	m := frame(2, []float64{0, 0, 2, 0, 1, 1}, [][2]int{{0, 1}, {1, 2}, {2, 0}}, model.Bar, map[int][]int{0: pin, 1: rollerY})
+	m := frame(2, []float64{0, 0, 1, 0, 1, 1, 0, 1}, [][2]int{{0, 1}, {1, 2}, {2, 3}, {3, 0}, {0, 2}, {1, 3}}, model.Bar, map[int][]int{0: pin, 1: rollerY})
 	r, err := Analyse(context.Background(), m, Options{DenseLimit: 2})
 	if err != nil {
 		t.Fatal(err)
 	}
-	if r.Computed || r.MaxwellNumber != 0 || r.SelfStressStates != nil {
-		t.Errorf("got %+v, want an uncomputed report with Maxwell number 0", r)
+	if r.Computed || r.MaxwellNumber != 1 || r.SelfStress != 0 || r.SelfStressStates != nil {
+		t.Errorf("got %+v, want an uncomputed report with Maxwell number 1", r)
 	}
 }
 
