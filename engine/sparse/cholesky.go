@@ -5,7 +5,6 @@ import (
 	"errors"
 	"fmt"
 	"math"
-	"runtime"
 	"slices"
 	"sort"
 	"strings"
@@ -166,53 +165,15 @@ type defect struct {
 // opt.Regularize is set. Factorize panics if a is malformed or opt.Perm is
 // not a permutation.
 func Factorize(ctx context.Context, a *Matrix, opt Options) (*Cholesky, error) {
-	a.check()
-	rep := progress.Or(opt.Reporter)
-	tol := opt.PivotTolerance
-	if tol == 0 {
-		tol = 1e-13
-	}
-	workers := opt.Workers
-	if workers <= 0 {
-		workers = runtime.GOMAXPROCS(0)
-	}
 	if err := ctx.Err(); err != nil {
 		return nil, err
 	}
-	start := time.Now()
-	perm := opt.Perm
-	var parent, count []int
-	if perm == nil {
-		rep.Progress("ordering", 0, 1, nil)
-		perm, parent, count = chooseOrder(a, workers)
-		rep.Progress("ordering", 1, 1, nil)
-	} else {
-		validPerm(perm, a.N)
-		parent, count = countsFor(a, perm)
-	}
-	orderTime := time.Since(start)
-	if err := ctx.Err(); err != nil {
+	an := Analyse(a, opt)
+	c, err := FactorizeWith(ctx, a, an, opt)
+	if err != nil {
 		return nil, err
 	}
-
-	start = time.Now()
-	rep.Progress("symbolic", 0, 1, nil)
-	sym := analyseCounted(a, perm, parent, count)
-	rep.Progress("symbolic", 1, 1, nil)
-	symTime := time.Since(start)
-
-	c := &Cholesky{
-		sym:        sym,
-		pattern:    patternHash(a),
-		workers:    workers,
-		threshold:  tol,
-		regularize: opt.Regularize,
-		rep:        rep,
-	}
-	c.stats.Ordering, c.stats.Symbolic = orderTime, symTime
-	if err := c.numeric(ctx, a); err != nil {
-		return nil, err
-	}
+	c.stats.Ordering, c.stats.Symbolic = an.ordering, an.symbolic
 	return c, nil
 }
 
