@@ -171,16 +171,7 @@ func (el *element) globalStiffness(dst []float64) {
 }
 
 // toLocal writes t·g into dst.
-func (el *element) toLocal(dst, g []float64) {
-	n := el.size
-	for i := range n {
-		var s float64
-		for j := range n {
-			s += el.t[i*n+j] * g[j]
-		}
-		dst[i] = s
-	}
-}
+func (el *element) toLocal(dst, g []float64) { mulSquare(dst, el.t[:], g, el.size) }
 
 // toGlobal writes tᵀ·l into dst.
 func (el *element) toGlobal(dst, l []float64) {
@@ -195,12 +186,14 @@ func (el *element) toGlobal(dst, l []float64) {
 }
 
 // localForces writes k·ul into dst.
-func (el *element) localForces(dst, ul []float64) {
-	n := el.size
+func (el *element) localForces(dst, ul []float64) { mulSquare(dst, el.k[:], ul, el.size) }
+
+// mulSquare writes a·x into dst for the n×n row-major matrix a.
+func mulSquare(dst, a, x []float64, n int) {
 	for i := range n {
 		var s float64
 		for j := range n {
-			s += el.k[i*n+j] * ul[j]
+			s += a[i*n+j] * x[j]
 		}
 		dst[i] = s
 	}
