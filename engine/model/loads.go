@@ -64,7 +64,7 @@ func (c *compiler) supports() {
 			path := base + "/fix/" + strconv.Itoa(k)
 			switch {
 			case comp < 0:
-				c.problem(path, "%q is not a component of a %dD model; use %s", name, c.dim, componentList(c.dim))
+				c.badComponent(path, name)
 			case sup.Fixed[comp]:
 				c.problem(path, "component %q is fixed twice", name)
 			default:
@@ -77,7 +77,7 @@ func (c *compiler) supports() {
 			path := base + "/springs/" + escapePointer(name)
 			switch {
 			case comp < 0:
-				c.problem(path, "%q is not a component of a %dD model; use %s", name, c.dim, componentList(c.dim))
+				c.badComponent(path, name)
 			case !(k > 0) || math.IsInf(k, 0):
 				c.problem(path, "a spring needs a positive, finite stiffness, got %v", k)
 			case sup.Fixed[comp]:
@@ -92,7 +92,7 @@ func (c *compiler) supports() {
 			path := base + "/displacement/" + escapePointer(name)
 			switch {
 			case comp < 0:
-				c.problem(path, "%q is not a component of a %dD model; use %s", name, c.dim, componentList(c.dim))
+				c.badComponent(path, name)
 			case !finite(d):
 				c.problem(path, "must be a finite number, got %v", d)
 			case !sup.Fixed[comp]:
@@ -381,4 +381,9 @@ func (c *compiler) combinations() {
 		}
 		slices.SortFunc(m.Combinations[i].Terms, func(a, b Term) int { return a.Case - b.Case })
 	}
+}
+
+// badComponent reports a component name that the model's dimension lacks.
+func (c *compiler) badComponent(path, name string) {
+	c.problem(path, "%q is not a component of a %dD model; use %s", name, c.dim, componentList(c.dim))
 }
