@@ -25,8 +25,8 @@ func (c *compiler) members() {
 	}
 	// Resolve with a one-entry cache: generated and real models alike tend
 	// to repeat one material and one section.
-	lastMaterial, lastMaterialIndex := "", -1
-	lastSection, lastSectionIndex := "", -1
+	materials := idLookup{index: materialIndex, lastIndex: -1}
+	sections := idLookup{index: sectionIndex, lastIndex: -1}
 	for i := range s.Members {
 		ms := &s.Members[i]
 		mem := &m.Members[i]
@@ -51,21 +51,15 @@ func (c *compiler) members() {
 					"member %q has zero length: its ends %q and %q are at the same point", ms.ID, ms.Ends[0], ms.Ends[1])
 			}
 		}
-		if ms.Material == lastMaterial && lastMaterialIndex >= 0 {
-			mem.Material = lastMaterialIndex
-		} else if j, ok := materialIndex[ms.Material]; ok {
+		if j, ok := materials.find(ms.Material); ok {
 			mem.Material = j
-			lastMaterial, lastMaterialIndex = ms.Material, j
 		} else {
 			mem.Material = -1
 			c.problem("members/"+strconv.Itoa(i)+"/material", "member %q names material %q, which does not exist%s",
 				ms.ID, ms.Material, listIDs("; materials are: ", len(s.Materials), func(i int) string { return s.Materials[i].ID }))
 		}
-		if ms.Section == lastSection && lastSectionIndex >= 0 {
-			mem.Section = lastSectionIndex
-		} else if j, ok := sectionIndex[ms.Section]; ok {
+		if j, ok := sections.find(ms.Section); ok {
 			mem.Section = j
-			lastSection, lastSectionIndex = ms.Section, j
 		} else {
 			mem.Section = -1
 			c.problem("members/"+strconv.Itoa(i)+"/section", "member %q names section %q, which does not exist%s",
@@ -160,4 +154,25 @@ func listIDs(prefix string, n int, id func(int) string) string {
 		out += " and " + strconv.Itoa(n-10) + " more"
 	}
 	return out
+}
+
+// idLookup resolves ids through a map, remembering the last one found:
+// consecutive members usually name the same material and section, and the
+// remembered answer saves a map lookup per member on large models.
+type idLookup struct {
+	index     map[string]int
+	last      string
+	lastIndex int
+}
+
+// find returns the index of id and whether it exists.
+func (l *idLookup) find(id string) (int, bool) {
+	if l.lastIndex >= 0 && id == l.last {
+		return l.lastIndex, true
+	}
+	j, ok := l.index[id]
+	if ok {
+		l.last, l.lastIndex = id, j
+	}
+	return j, ok
 }
