@@ -1,13 +1,10 @@
 package adapter
 
 import (
-	"bytes"
 	"context"
 	"encoding/json"
 	"fmt"
 	"math/rand/v2"
-	"os"
-	"path/filepath"
 	"testing"
 
 	"gusset/engine/model/modelgen"
@@ -131,20 +128,8 @@ func FuzzPrepare(f *testing.F) {
 	f.Add([]byte(`{"model":{"dimension":2,"parameters":{"h":2},"materials":[{"id":"s","elastic_modulus":"1/h"}],"sections":[{"id":"a","area":1}],"nodes":[{"id":"A","at":[0,0]},{"id":"B","at":["h",0]}],"members":[{"id":"AB","ends":["A","B"],"material":"s","section":"a"}]}}`))
 	f.Add([]byte(`{"model":{"dimension":3,"materials":[],"sections":[],"nodes":[],"members":[]}}`))
 	// Seed with the params of every transcript request too.
-	files, _ := filepath.Glob("../../../testdata/transcripts/*.in.jsonl")
-	for _, file := range files {
-		b, err := os.ReadFile(file)
-		if err != nil {
-			f.Fatal(err)
-		}
-		for _, line := range bytes.Split(b, []byte("\n")) {
-			var req struct {
-				Params json.RawMessage `json:"params"`
-			}
-			if json.Unmarshal(line, &req) == nil && len(req.Params) > 0 {
-				f.Add([]byte(req.Params))
-			}
-		}
+	for _, r := range transcriptRequests(f) {
+		f.Add([]byte(r.Params))
 	}
 	rng := rand.New(rand.NewPCG(1, 2))
 	f.Add([]byte(fmt.Sprintf(`{"model":{"dimension":2,"nodes":[{"id":"x","at":[%g,1e308]}]}}`, rng.Float64())))

@@ -21,21 +21,8 @@ func (discardStream) Progress(string, int, int, any) {}
 // then stops at the engine's first check: errors are fine, panics are not.
 // Seeds: the params of every transcript request.
 func FuzzMethodParams(f *testing.F) {
-	files, _ := filepath.Glob("../../../testdata/transcripts/*.in.jsonl")
-	for _, file := range files {
-		b, err := os.ReadFile(file)
-		if err != nil {
-			f.Fatal(err)
-		}
-		for _, line := range bytes.Split(b, []byte("\n")) {
-			var req struct {
-				Method string          `json:"method"`
-				Params json.RawMessage `json:"params"`
-			}
-			if json.Unmarshal(line, &req) == nil && len(req.Params) > 0 {
-				f.Add(req.Method, []byte(req.Params))
-			}
-		}
+	for _, r := range transcriptRequests(f) {
+		f.Add(r.Method, []byte(r.Params))
 	}
 	params := map[string]string{}
 	for _, e := range registry {
@@ -59,4 +46,33 @@ func FuzzMethodParams(f *testing.F) {
 		}
 		_, _ = h(ctx, body, discardStream{})
 	})
+}
+
+// transcriptRequest is a request of the transcripts in testdata.
+type transcriptRequest struct {
+	Method string          `json:"method"`
+	Params json.RawMessage `json:"params"`
+}
+
+// transcriptRequests returns every request with params in
+// testdata/transcripts, to seed the fuzz targets.
+func transcriptRequests(tb testing.TB) []transcriptRequest {
+	files, err := filepath.Glob("../../../testdata/transcripts/*.in.jsonl")
+	if err != nil || len(files) == 0 {
+		tb.Fatalf("no transcripts: %v", err)
+	}
+	var out []transcriptRequest
+	for _, file := range files {
+		b, err := os.ReadFile(file)
+		if err != nil {
+			tb.Fatal(err)
+		}
+		for _, line := range bytes.Split(b, []byte("\n")) {
+			var r transcriptRequest
+			if json.Unmarshal(line, &r) == nil && len(r.Params) > 0 {
+				out = append(out, r)
+			}
+		}
+	}
+	return out
 }
