@@ -163,6 +163,25 @@ func Reverse(ctx context.Context, m *model.Model, d *Diagram, points [][2]float6
 			Detail:   NoSolutionDetail{Nearest: out},
 		}
 	}
+	// A form can be parallel to the diagram only by shrinking members to
+	// nothing (both ends pulled onto one fixed node): that is not a
+	// structure.
+	for e, mem := range m.Members {
+		a, b := mem.Ends[0], mem.Ends[1]
+		if math.Hypot(x[2*b]-x[2*a], x[2*b+1]-x[2*a+1]) <= 1e-6*m.Length(e) {
+			bad = append(bad, fault.Problem{Path: fmt.Sprintf("/members/%d", e),
+				Message: fmt.Sprintf("member %q would shrink to zero length", mem.ID)})
+		}
+	}
+	if len(bad) > 0 {
+		return nil, &fault.Error{
+			Kind: fault.NoSolution,
+			Message: fmt.Sprintf("the only form parallel to the edited force diagram collapses %d members to nothing (the first: %s); move the point along a direction the fixed nodes allow, or fix fewer nodes",
+				len(bad), bad[0].Message),
+			Problems: bad,
+			Detail:   NoSolutionDetail{Nearest: out},
+		}
+	}
 	return out, nil
 }
 

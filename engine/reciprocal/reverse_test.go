@@ -152,3 +152,39 @@ func TestReverseEdits(t *testing.T) {
 		t.Errorf("residual %g", r.Residual)
 	}
 }
+
+// TestReverseCollapse edits the triangle's diagram so that the left rafter
+// (member 1, node 0 to the apex) must be vertical and the right rafter
+// (member 2, node 1 to the apex) horizontal, the tie staying horizontal,
+// with both supports fixed: the vertical through (0, 0) and the horizontal
+// through (8, 0) meet at (0, 0), so the only parallel form puts the apex on
+// the left support and the left rafter has no length (plane geometry). That
+// is no structure, and Reverse says so, naming the left rafter.
+func TestReverseCollapse(t *testing.T) {
+	xy, ends, loads, sup := triangleTruss()
+	m := newModel(xy, ends)
+	axial, reactions, _ := jointEquilibrium(t, m, loads, sup)
+	d, err := Build(context.Background(), Input{Model: m, AxialForce: axial, External: external(loads, reactions)})
+	if err != nil {
+		t.Fatal(err)
+	}
+	one := labelIndex(t, d, "1")
+	pts := append([][2]float64{}, d.Points...)
+	p := pts[one]
+	direction := map[int][2]float64{0: {-5, 0}, 1: {0, 10}, 2: {10, 0}}
+	for e, dir := range direction {
+		other := d.Members[e].Left
+		if other == one {
+			other = d.Members[e].Right
+		}
+		pts[other] = [2]float64{p[0] + dir[0], p[1] + dir[1]}
+	}
+	_, err = Reverse(context.Background(), m, d, pts, []bool{true, true, false})
+	fe, ok := fault.As(err)
+	if !ok || fe.Kind != fault.NoSolution {
+		t.Fatalf("got %v, want a NoSolution error", err)
+	}
+	if len(fe.Problems) != 1 || fe.Problems[0].Path != "/members/1" {
+		t.Errorf("problems %v, want the left rafter /members/1", fe.Problems)
+	}
+}

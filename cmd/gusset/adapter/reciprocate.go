@@ -5,7 +5,6 @@ import (
 	"context"
 	"encoding/json"
 	"fmt"
-	"math"
 
 	"gusset/engine/fault"
 	"gusset/engine/model"
@@ -160,9 +159,6 @@ func redraw(ctx context.Context, m *model.Model, d *reciprocal.Diagram, edit *pr
 	if err != nil {
 		return nil, at("/params/model", err)
 	}
-	if err := collapsed(m, r.Coords); err != nil {
-		return nil, err
-	}
 	form := &protocol.RedrawnForm{Residual: r.Residual}
 	for i, id := range m.NodeIDs {
 		form.Nodes = append(form.Nodes, protocol.RedrawnNode{ID: id, At: []float64{r.Coords[2*i], r.Coords[2*i+1]}, Moved: r.Moved[i]})
@@ -217,24 +213,4 @@ func diagramResult(m *model.Model, d *reciprocal.Diagram, label string) *protoco
 		}
 	}
 	return out
-}
-
-// collapsed reports an edit whose only parallel form shrinks members to
-// nothing: the least-squares form exists, but it is not a structure.
-func collapsed(m *model.Model, coords []float64) error {
-	var problems []protocol.Problem
-	for e, mem := range m.Members {
-		a, b := mem.Ends[0], mem.Ends[1]
-		dx, dy := coords[2*b]-coords[2*a], coords[2*b+1]-coords[2*a+1]
-		if math.Hypot(dx, dy) <= 1e-6*m.Length(e) {
-			problems = append(problems, protocol.Problem{Path: fmt.Sprintf("/params/model/members/%d", e),
-				Message: fmt.Sprintf("member %q would shrink to zero length", mem.ID)})
-		}
-	}
-	if problems == nil {
-		return nil
-	}
-	return protocol.NewError(fault.NoSolution.Code(), fault.NoSolution.String(),
-		fmt.Sprintf("No form fits the edited force diagram without collapsing: %d members would shrink to nothing (the first: %s). Move the point along a direction the fixed nodes allow, or fix fewer nodes.", len(problems), problems[0].Message),
-		problems...)
 }
