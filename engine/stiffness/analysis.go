@@ -6,6 +6,7 @@ import (
 
 	"gusset/engine/model"
 	"gusset/engine/sparse"
+	"gusset/engine/statics"
 )
 
 // Analysis holds what Solve derives from a model's topology alone: the
@@ -27,6 +28,10 @@ type Analysis struct {
 	nb    *numbering // its support values are the analysed model's
 	pat   *pattern
 	sym   *sparse.Analysis // nil on the dense path
+	// counts is the stability count without the rank (statics.Analyse
+	// with no SVD), which depends on the topology alone; each solve takes
+	// a copy.
+	counts *statics.Report
 
 	// Storage of finished solves, taken up again by later ones: matrix
 	// values ([]float64) and sparse factors (*sparse.Cholesky), each
@@ -65,7 +70,19 @@ func NewAnalysis(m *model.Model, opt Options) *Analysis {
 		// Factorize would choose for every step's matrix.
 		a.sym = sparse.Analyse(a.pat.k, sparse.Options{Workers: opt.Workers})
 	}
+	if counts, err := statics.Analyse(context.Background(), m, statics.Options{DenseLimit: -1}); err == nil {
+		a.counts = counts
+	}
 	return a
+}
+
+// stabilityCounts returns a copy of the cached counts, or nil.
+func (a *Analysis) stabilityCounts() *statics.Report {
+	if a == nil || a.counts == nil {
+		return nil
+	}
+	r := *a.counts
+	return &r
 }
 
 // Solve analyses m, which must have the topology of the model given to

@@ -85,9 +85,12 @@ func solve(ctx context.Context, m *model.Model, opt Options, an *Analysis) (*Res
 	if svd {
 		limit = opt.StabilityLimit
 	}
-	stability, err := statics.Analyse(ctx, m, statics.Options{DenseLimit: limit})
-	if err != nil {
-		return nil, err
+	stability := an.stabilityCounts()
+	if svd || stability == nil {
+		var err error
+		if stability, err = statics.Analyse(ctx, m, statics.Options{DenseLimit: limit}); err != nil {
+			return nil, err
+		}
 	}
 	res.Stability = stability
 	res.Stats.Stability = time.Since(start)
