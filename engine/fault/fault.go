@@ -118,12 +118,3 @@ func As(err error) (*Error, bool) {
 	ok := errors.As(err, &e)
 	return e, ok
 }
-
-// Prefix returns a copy of problems with prefix prepended to every path.
-func Prefix(prefix string, problems []Problem) []Problem {
-	out := make([]Problem, len(problems))
-	for i, p := range problems {
-		out[i] = Problem{Path: prefix + p.Path, Message: p.Message}
-	}
-	return out
-}
