@@ -189,9 +189,11 @@ class Call:
     def _finish(self, result: Any, error: Optional[GussetError]) -> None:
         self._result = result
         self._error = error
+        # The event is set before the end marker is queued, so a thread that
+        # has read every progress item already sees the call as done.
+        self._finished.set()
         if self._queue is not None:
             self._queue.put(_FINAL)
-        self._finished.set()
 
 
 class Sweep(Call):
