@@ -10,6 +10,7 @@ import threading
 import time
 import unittest
 from pathlib import Path
+from typing import Optional
 
 import support
 from support import gusset
@@ -154,6 +155,16 @@ class CancelTest(unittest.TestCase):
             self.assertEqual(client.describe()["name"], "gusset")
 
 
+def process_state(pid: int) -> Optional[str]:
+    """process_state is the state letter in /proc/PID/stat, or None once
+    the process is gone (it may be reaped between any two reads)."""
+    try:
+        stat = Path("/proc/%d/stat" % pid).read_text()
+    except OSError:
+        return None
+    return stat.rsplit(")", 1)[1].split()[0]
+
+
 class StreamTest(unittest.TestCase):
     def test_progress_streams_before_result(self) -> None:
         if "solve" not in support.methods():
@@ -254,8 +265,7 @@ class ProcessTest(unittest.TestCase):
         with gusset.Client(support.binary()) as client:
             first = client.pid
             os.kill(first, signal.SIGKILL)
-            stat = Path("/proc/%d/stat" % first)
-            while stat.exists() and stat.read_text().rsplit(")", 1)[1].split()[0] != "Z":
+            while process_state(first) not in ("Z", None):
                 time.sleep(0.001)
             self.assertEqual(client.describe(timeout=10)["name"], "gusset")
             self.assertNotEqual(client.pid, first)
