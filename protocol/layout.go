@@ -6,6 +6,9 @@ package protocol
 type LayoutResult struct {
 	// Volume is Σ L·A over the kept members (length³).
 	Volume float64 `json:"volume"`
+	// Objective is the minimised Σ (L + joint_cost)·A; it equals volume
+	// when joint_cost is 0.
+	Objective float64 `json:"objective"`
 	// Members holds the kept members: ends (node ids of model), length,
 	// area and force per case (tension positive).
 	Members []LayoutMember `json:"members"`

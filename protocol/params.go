@@ -168,6 +168,13 @@ type LayoutParams struct {
 	TensionLimit float64 `json:"tension_limit" jsonschema:"exclusiveMinimum=0"`
 	// CompressionLimit is the design stress in compression (a magnitude).
 	CompressionLimit float64 `json:"compression_limit" jsonschema:"exclusiveMinimum=0"`
+	// JointCost is a length added to every member's length in the
+	// objective, Σ (L + joint_cost)·A, so that layouts with fewer members
+	// and joints win when the saving outweighs the extra volume (a simple
+	// cost of a joint, after Parkes 1975); default 0, the plain least
+	// volume. With a joint cost, long members that pass through grid
+	// nodes stay among the candidates.
+	JointCost float64 `json:"joint_cost,omitempty" jsonschema:"minimum=0"`
 	// ElasticModulus is the Young's modulus put in the returned model, so
 	// that solve can analyse it; default 2.1e8 (steel in kN and m).
 	ElasticModulus float64 `json:"elastic_modulus,omitempty" jsonschema:"exclusiveMinimum=0"`

@@ -86,3 +86,23 @@ func final(t *testing.T, request string, result any) {
 	}
 	t.Fatal("no response")
 }
+
+// TestLayoutJointCost sends the hanging load of engine/layout's joint-cost
+// test over the wire: with joint_cost 2 the single vertical tie (volume
+// 2.5, cost 4.5) beats the two ties at 45° (volume 2, cost 2 + 2√2), a hand
+// result from equilibrium at the loaded node (Parkes 1975's joint cost,
+// from memory).
+func TestLayoutJointCost(t *testing.T) {
+	request := `{"jsonrpc":"2.0","id":1,"method":"optimise-layout","params":{"nodes":[[0,0],[-1,1],[1,1],[0,2.5]],` +
+		`"supports":[{"at":[-1,1],"fix":["x","y"]},{"at":[1,1],"fix":["x","y"]},{"at":[0,2.5],"fix":["x","y"]}],` +
+		`"cases":[{"id":"P","loads":[{"at":[0,0],"force":[0,-1]}]}],"tension_limit":1,"compression_limit":1,"joint_cost":2}}`
+	var lay struct {
+		Volume    float64           `json:"volume"`
+		Objective float64           `json:"objective"`
+		Members   []json.RawMessage `json:"members"`
+	}
+	final(t, request, &lay)
+	if len(lay.Members) != 1 || math.Abs(lay.Volume-2.5) > 1e-7 || math.Abs(lay.Objective-4.5) > 1e-7 {
+		t.Errorf("%d members, volume %v, objective %v; want 1, 2.5, 4.5", len(lay.Members), lay.Volume, lay.Objective)
+	}
+}

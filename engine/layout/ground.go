@@ -39,7 +39,7 @@ func buildGround(ctx context.Context, p *Problem, reg *region, opt Options) (*gr
 	g := &groundStructure{}
 	var err error
 	if len(p.Nodes) > 0 {
-		err = g.ownNodes(ctx, p.Nodes, reg, opt)
+		err = g.ownNodes(ctx, p.Nodes, reg, opt, p.JointCost > 0)
 	} else {
 		err = g.grid(ctx, p, reg, opt)
 	}
@@ -102,7 +102,9 @@ func (g *groundStructure) grid(ctx context.Context, p *Problem, reg *region, opt
 	coprime := make([]bool, (maxX+1)*(maxY+1))
 	for dx := 0; dx <= maxX; dx++ {
 		for dy := 0; dy <= maxY; dy++ {
-			coprime[dx*(maxY+1)+dy] = gcd(dx, dy) == 1
+			// With a joint cost a long member is cheaper than the chain
+			// of short ones along it, so overlapping members stay.
+			coprime[dx*(maxY+1)+dy] = gcd(dx, dy) == 1 || (p.JointCost > 0 && (dx > 0 || dy > 0))
 		}
 	}
 	count := 0
@@ -156,8 +158,9 @@ func abs(i int) int {
 
 // ownNodes connects every pair of the caller's nodes that sees each other
 // inside the domain, keeping of collinear overlapping pairs only the
-// shortest (no member passes through a node).
-func (g *groundStructure) ownNodes(ctx context.Context, nodes [][2]float64, reg *region, opt Options) error {
+// shortest (no member passes through a node) unless keepOverlaps: with a
+// joint cost the long member costs less than the chain along it.
+func (g *groundStructure) ownNodes(ctx context.Context, nodes [][2]float64, reg *region, opt Options, keepOverlaps bool) error {
 	g.nodes = nodes
 	n := len(nodes)
 	if n < 2 {
@@ -233,7 +236,7 @@ func (g *groundStructure) ownNodes(ctx context.Context, nodes [][2]float64, reg 
 				}
 				blocked = blocked || o.distance < r.distance
 			}
-			if blocked || (reg != nil && !reg.admits(nodes[i], nodes[r.to])) {
+			if (blocked && !keepOverlaps) || (reg != nil && !reg.admits(nodes[i], nodes[r.to])) {
 				continue
 			}
 			g.candidates = append(g.candidates, candidate{int32(i), int32(r.to)})

@@ -26,7 +26,7 @@ func (a *Adapter) optimiseLayout(ctx context.Context, params json.RawMessage, st
 	if err := a.decode("optimise-layout", params, &p); err != nil {
 		return nil, err
 	}
-	prob := layout.Problem{Level: p.Connectivity, TensionLimit: p.TensionLimit, CompressionLimit: p.CompressionLimit}
+	prob := layout.Problem{Level: p.Connectivity, TensionLimit: p.TensionLimit, CompressionLimit: p.CompressionLimit, JointCost: p.JointCost}
 	switch p.Mode {
 	case "together":
 		prob.Mode = layout.Together
@@ -127,7 +127,7 @@ func layoutResult(l *layout.Layout, units *protocol.Units, modulus float64) *pro
 	for i, n := range l.Nodes {
 		spec.Nodes = append(spec.Nodes, model.NodeSpec{ID: nodeID(i), At: []model.Value{model.Num(n[0]), model.Num(n[1])}})
 	}
-	out := &protocol.LayoutResult{Volume: l.Volume, Caution: Caution}
+	out := &protocol.LayoutResult{Volume: l.Volume, Objective: l.Objective, Caution: Caution}
 	for e, m := range l.Members {
 		id, section := fmt.Sprintf("m%d", e), fmt.Sprintf("a%d", e)
 		spec.Sections = append(spec.Sections, model.SectionSpec{ID: section, Area: model.Num(m.Area)})
