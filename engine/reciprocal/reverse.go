@@ -6,8 +6,6 @@ import (
 	"math"
 	"slices"
 
-	"gonum.org/v1/gonum/mat"
-
 	"gusset/engine/fault"
 	"gusset/engine/model"
 )
@@ -38,9 +36,12 @@ type Redrawn struct {
 //
 // Each member gives one linear constraint, cross(x_j − x_i, ŝ) = 0 with ŝ
 // its segment's unit direction; Reverse returns the smallest change of the
-// free coordinates that satisfies them all, by a minimum-norm solve with
-// the singular value decomposition (dense: cubic in the number of free
-// nodes, meant for networks up to a few thousand nodes). A diagram that
+// free coordinates that satisfies them all (or, when they cannot all hold,
+// the smallest change that satisfies them best in least squares). Up to
+// denseRedrawColumns free coordinates that is a minimum-norm solve with the
+// singular value decomposition; above, iterated Tikhonov regularisation on
+// the sparse normal equations (see minNormSparse), which grows with the
+// network like a stiffness solve of it. A diagram that
 // closes gives the same figure back up to a similarity when no node is
 // fixed (Maxwell 1864: reciprocal figures are mutual).
 //
@@ -103,33 +104,36 @@ func Reverse(ctx context.Context, m *model.Model, d *Diagram, points [][2]float6
 	}
 	x := slices.Clone(x0)
 	if len(rows) > 0 && free > 0 {
-		c := mat.NewDense(len(rows), 2*free, nil)
-		r := mat.NewVecDense(len(rows), nil)
+		// Constraint k reads Σ sign·n_k·δ over the member's free ends
+		// = −offset(x0, k).
+		cons := make([]constraint, len(rows))
 		for k, e := range rows {
-			en := m.Members[e].Ends
-			for side, v := range en {
-				if col[v] < 0 {
-					continue
+			cons[k] = constraint{rhs: -offset(x0, k), cols: [2]int{-1, -1}}
+			for side, v := range m.Members[e].Ends {
+				if col[v] >= 0 {
+					sign := 2*float64(side) - 1
+					cons[k].cols[side] = 2 * col[v]
+					cons[k].coef[side] = [2]float64{sign * normals[k][0], sign * normals[k][1]}
 				}
-				sign := 2*float64(side) - 1
-				c.Set(k, 2*col[v], sign*normals[k][0])
-				c.Set(k, 2*col[v]+1, sign*normals[k][1])
 			}
-			r.SetVec(k, -offset(x0, k))
 		}
 		if err := ctx.Err(); err != nil {
 			return nil, err
 		}
-		var svd mat.SVD
-		if !svd.Factorize(c, mat.SVDThin) {
-			return nil, fault.New(fault.NoSolution, "the redrawing could not be computed: the singular value decomposition did not converge")
+		var delta []float64
+		var err error
+		if 2*free <= denseRedrawColumns {
+			delta, err = minNormDense(cons, 2*free)
+		} else {
+			delta, err = minNormSparse(ctx, cons, 2*free)
 		}
-		var delta mat.VecDense
-		svd.SolveVecTo(&delta, r, svd.Rank(1e-10))
+		if err != nil {
+			return nil, err
+		}
 		for v := range n {
 			if col[v] >= 0 {
-				x[2*v] += delta.AtVec(2 * col[v])
-				x[2*v+1] += delta.AtVec(2*col[v] + 1)
+				x[2*v] += delta[2*col[v]]
+				x[2*v+1] += delta[2*col[v]+1]
 			}
 		}
 	}
