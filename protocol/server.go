@@ -45,9 +45,16 @@ type Limits struct {
 	// Workers is the number of requests worked on at once; default the
 	// number of CPUs.
 	Workers int `json:"workers"`
-	// MaxQueued is how many read requests may wait for a worker before the
-	// server stops reading (back-pressure); default 1024.
+	// MaxQueued is how many read requests may wait for a worker whatever
+	// their size; default 1024.
 	MaxQueued int `json:"max_queued"`
+	// ReadAheadBytes lets more requests than max_queued wait while their
+	// lines total less than this many bytes (each counted with 1 KiB for
+	// its bookkeeping), so that a cancel or describe sent behind many
+	// small requests is still read and answered at once. When both are
+	// reached the server stops reading until a worker takes a request
+	// (back-pressure); default 16 MiB.
+	ReadAheadBytes int `json:"read_ahead_bytes"`
 	// TimeLimitSeconds is the wall time allowed per request, 0 for none.
 	TimeLimitSeconds float64 `json:"time_limit_seconds"`
 }
@@ -74,6 +81,9 @@ func (l Limits) WithDefaults() Limits {
 	}
 	if l.MaxQueued <= 0 {
 		l.MaxQueued = 1024
+	}
+	if l.ReadAheadBytes <= 0 {
+		l.ReadAheadBytes = 16 << 20
 	}
 	return l
 }
@@ -211,13 +221,13 @@ func (s *Server) Serve(ctx context.Context, in io.Reader, out io.Writer) (failur
 		w.send(marshalResponse(resp))
 	}
 
-	queue := make(chan *call, s.Limits.MaxQueued)
+	queue := newWaitQueue(s.Limits.MaxQueued, s.Limits.ReadAheadBytes)
 	var workers sync.WaitGroup
 	for i := 0; i < s.Limits.Workers; i++ {
 		workers.Add(1)
 		go func() {
 			defer workers.Done()
-			for c := range queue {
+			for c := queue.take(); c != nil; c = queue.take() {
 				finish(c, s.run(c, w))
 			}
 		}()
@@ -264,7 +274,7 @@ func (s *Server) Serve(ctx context.Context, in io.Reader, out io.Writer) (failur
 						break
 					}
 				}
-				queue <- c
+				queue.put(c, len(line))
 			}
 		}
 		if rerr != nil {
@@ -274,7 +284,7 @@ func (s *Server) Serve(ctx context.Context, in io.Reader, out io.Writer) (failur
 			break
 		}
 	}
-	close(queue)
+	queue.close()
 	workers.Wait()
 	werr := w.close()
 	return failures, werr

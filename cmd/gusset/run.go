@@ -80,7 +80,8 @@ func newFlags(out io.Writer) *flags {
 	f.fs.IntVar(&f.limits.MaxMembers, "max-members", d.MaxMembers, "most members in one model")
 	f.fs.IntVar(&f.limits.MaxSweepSteps, "max-sweep-steps", d.MaxSweepSteps, "most steps in one sweep")
 	f.fs.IntVar(&f.limits.MaxCandidates, "max-candidates", d.MaxCandidates, "most candidate members in one layout optimisation")
-	f.fs.IntVar(&f.limits.MaxQueued, "max-queued", d.MaxQueued, "requests read ahead while all workers are busy")
+	f.fs.IntVar(&f.limits.MaxQueued, "max-queued", d.MaxQueued, "requests that may wait for a worker whatever their size")
+	f.fs.IntVar(&f.limits.ReadAheadBytes, "read-ahead-bytes", d.ReadAheadBytes, "bytes of further waiting requests read ahead beyond --max-queued, so cancel is never held up behind small requests")
 	f.fs.Float64Var(&f.limits.TimeLimitSeconds, "time-limit", 0, "wall time allowed per request in seconds (0: none)")
 	f.fs.StringVar(&f.pictures, "pictures", "", "run only: write every picture a result carries into this folder, as ID.svg")
 	return f
