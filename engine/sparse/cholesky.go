@@ -529,7 +529,9 @@ func (f *numeric) supernode(w *workspace, s int, wide int) {
 			clear(block[(d.column-first)*m+ns : (d.column-first+1)*m])
 		}
 		u := f.pool.get(rs * rs)
-		updateMatrix(lower, u, wide)
+		scratch := f.pool.get(rs * ns)
+		updateMatrix(lower, u, scratch, wide)
+		f.pool.put(scratch)
 		for _, c := range children {
 			crows := sym.rows[sym.rowPtr[c]:sym.rowPtr[c+1]]
 			rc := len(crows)
@@ -565,17 +567,25 @@ func (f *numeric) supernode(w *workspace, s int, wide int) {
 // column from a saved copy, replacing each deficient pivot by 1 and zeroing
 // the rest of its column of L, so that all deficient columns are found.
 func (f *numeric) factorDiagonal(w *workspace, s int, block []float64, ns, m int) {
+	// The dense kernel works on a lower-triangular copy: gonum's Potrf on
+	// a lower triangle runs its updates as Gemm(NoTrans, Trans), several
+	// times faster than the Gemm(Trans, NoTrans) of the upper form on a
+	// strided block (measured here), which matters for the large root
+	// separators of solid 3D structures. The block keeps A until the copy
+	// is accepted, so the column-by-column path below starts from it.
 	if cap(w.backup) < ns*ns {
 		w.backup = make([]float64, ns*ns)
 	}
-	backup := w.backup[:ns*ns]
-	for k := 0; k < ns; k++ {
-		copy(backup[k*ns+k:(k+1)*ns], block[k*m+k:k*m+ns])
+	lower := w.backup[:ns*ns]
+	for j := 0; j < ns; j++ {
+		for t, v := range block[j*m+j : j*m+ns] {
+			lower[(j+t)*ns+j] = v
+		}
 	}
-	_, ok := lapack64.Potrf(blas64.Symmetric{Uplo: blas.Upper, N: ns, Stride: m, Data: block})
+	_, ok := lapack64.Potrf(blas64.Symmetric{Uplo: blas.Lower, N: ns, Stride: ns, Data: lower})
 	if ok {
 		for k := 0; k < ns; k++ {
-			d := block[k*m+k]
+			d := lower[k*ns+k]
 			if !(d*d > f.threshold) || math.IsInf(d, 1) {
 				ok = false
 				break
@@ -583,10 +593,13 @@ func (f *numeric) factorDiagonal(w *workspace, s int, block []float64, ns, m int
 		}
 	}
 	if ok {
+		for j := 0; j < ns; j++ {
+			row := block[j*m+j : j*m+ns]
+			for t := range row {
+				row[t] = lower[(j+t)*ns+j]
+			}
+		}
 		return
-	}
-	for k := 0; k < ns; k++ {
-		copy(block[k*m+k:k*m+ns], backup[k*ns+k:(k+1)*ns])
 	}
 	first := f.sym.superFirst[s]
 	for k := 0; k < ns; k++ {

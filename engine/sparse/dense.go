@@ -14,29 +14,43 @@ import (
 const syrkBlock = 64
 
 // updateMatrix sets the upper triangle of the r×r row-major u to −Aᵀ·A for
-// the k×r matrix a. Large updates go strip by strip: the diagonal block of
-// each strip through Syrk and the rest of the strip through Gemm, which is
-// blocked for the cache (gonum's Syrk streams the whole of A once per row of
-// u). The split depends on r only, so the result does not depend on the
-// number of workers.
-// The strips are independent and run on up to workers goroutines.
-func updateMatrix(a blas64.General, u []float64, workers int) {
-	r := a.Cols
+// the k×r matrix a, using scratch (at least r·k long, overwritten) for Aᵀ.
+// A sits in its supernode's block with the block's long rows as stride, and
+// gonum's Gemm multiplying a transposed A by a strided A runs at a fifth of
+// the speed of the contiguous no-transpose by transpose form (measured here:
+// 2.4 against 12 GFLOP/s on a 1024×3000 panel), so A is first copied to Aᵀ
+// (r·k moves against r²·k multiply-adds). Large updates then go strip by
+// strip: the diagonal block of each strip through Syrk and the rest of the
+// strip through Gemm, which is blocked for the cache (gonum's Syrk streams
+// the whole of its operand once per row of u). The split depends on r only,
+// so the result does not depend on the number of workers; the strips are
+// independent and run on up to workers goroutines.
+func updateMatrix(a blas64.General, u, scratch []float64, workers int) {
+	r, k := a.Cols, a.Rows
+	at := scratch[:r*k]
+	for l := 0; l < k; l++ {
+		row := a.Data[l*a.Stride : l*a.Stride+r]
+		for i, v := range row {
+			at[i*k+l] = v
+		}
+	}
+	rowsOf := func(i0, i1 int) blas64.General {
+		return blas64.General{Rows: i1 - i0, Cols: k, Stride: k, Data: at[i0*k : i1*k]}
+	}
 	if r <= 2*syrkBlock {
-		blas64.Syrk(blas.Trans, -1, a, 0, blas64.Symmetric{Uplo: blas.Upper, N: r, Stride: r, Data: u})
+		blas64.Syrk(blas.NoTrans, -1, rowsOf(0, r), 0, blas64.Symmetric{Uplo: blas.Upper, N: r, Stride: r, Data: u})
 		return
 	}
 	strips := (r + syrkBlock - 1) / syrkBlock
-	parallelFor(workers, strips, func(k int) {
-		i0 := k * syrkBlock
+	parallelFor(workers, strips, func(s int) {
+		i0 := s * syrkBlock
 		i1 := min(i0+syrkBlock, r)
-		strip := blas64.General{Rows: a.Rows, Cols: i1 - i0, Stride: a.Stride, Data: a.Data[i0:]}
-		blas64.Syrk(blas.Trans, -1, strip, 0, blas64.Symmetric{Uplo: blas.Upper, N: i1 - i0, Stride: r, Data: u[i0*r+i0:]})
+		strip := rowsOf(i0, i1)
+		blas64.Syrk(blas.NoTrans, -1, strip, 0, blas64.Symmetric{Uplo: blas.Upper, N: i1 - i0, Stride: r, Data: u[i0*r+i0:]})
 		if i1 == r {
 			return
 		}
-		rest := blas64.General{Rows: a.Rows, Cols: r - i1, Stride: a.Stride, Data: a.Data[i1:]}
-		blas64.Gemm(blas.Trans, blas.NoTrans, -1, strip, rest, 0,
+		blas64.Gemm(blas.NoTrans, blas.Trans, -1, strip, rowsOf(i1, r), 0,
 			blas64.General{Rows: i1 - i0, Cols: r - i1, Stride: r, Data: u[i0*r+i1:]})
 	})
 }

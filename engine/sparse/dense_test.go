@@ -10,8 +10,9 @@ import (
 )
 
 // TestUpdateMatrix compares the strip-wise update −AᵀA with gonum's dense
-// product (reference library), below and above the strip threshold and with
-// one and two workers (which must agree bit for bit).
+// product (reference library), below and above the strip threshold, with
+// one and two workers and from inside a wider block (which must all agree
+// bit for bit).
 func TestUpdateMatrix(t *testing.T) {
 	for _, r := range []int{1, 50, 300} {
 		k := 37
@@ -19,10 +20,20 @@ func TestUpdateMatrix(t *testing.T) {
 		var want mat.Dense
 		am := mat.NewDense(k, r, a)
 		want.Mul(am.T(), am)
+		// The same A inside a block with longer rows, as in a supernode.
+		const extra = 7
+		wide := nanVec(k * (r + extra))
+		for l := 0; l < k; l++ {
+			copy(wide[l*(r+extra):], a[l*r:(l+1)*r])
+		}
 		var first []float64
-		for _, workers := range []int{1, 2} {
+		for _, workers := range []int{1, 2, -1} {
 			u := nanVec(r * r)
-			updateMatrix(blas64.General{Rows: k, Cols: r, Stride: r, Data: a}, u, workers)
+			in := blas64.General{Rows: k, Cols: r, Stride: r, Data: a}
+			if workers < 0 { // the strided block, one worker
+				in, workers = blas64.General{Rows: k, Cols: r, Stride: r + extra, Data: wide}, 1
+			}
+			updateMatrix(in, u, nanVec(k*r), workers)
 			for i := 0; i < r; i++ {
 				for j := i; j < r; j++ {
 					if !scalar.EqualWithinAbsOrRel(u[i*r+j], -want.At(i, j), 1e-12, 1e-12) {
@@ -37,7 +48,7 @@ func TestUpdateMatrix(t *testing.T) {
 			for i := 0; i < r; i++ {
 				for j := i; j < r; j++ {
 					if u[i*r+j] != first[i*r+j] {
-						t.Fatalf("r=%d: workers change U[%d,%d]", r, i, j)
+						t.Fatalf("r=%d: workers or stride change U[%d,%d]", r, i, j)
 					}
 				}
 			}
