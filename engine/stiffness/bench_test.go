@@ -41,9 +41,9 @@ var benchModels = []struct {
 		func() *model.Spec { return modelgen.Frame3D(5, 5, 10) },
 		func() *model.Spec { return modelgen.Frame3D(10, 10, 30) },
 		// About 100k members in a solid block of 21 × 21 × 79 nodes:
-		// 206k freedoms and 1.5e8 entries in the factor (73 s and a peak
-		// of 3.1 GiB on two cores, measured 2026-12-02), so it runs only
-		// when GUSSET_BENCH_HUGE is set.
+		// 206k freedoms and 1.5e8 entries in the factor (58 s, 53 s of
+		// it factorising, and a peak of 3.1 GiB on two cores, measured
+		// 2026-12-02), so it runs only when GUSSET_BENCH_HUGE is set.
 		func() *model.Spec {
 			if os.Getenv("GUSSET_BENCH_HUGE") == "" {
 				return nil
