@@ -1,6 +1,7 @@
 package sparse
 
 import (
+	"cmp"
 	"context"
 	"runtime"
 	"time"
@@ -81,6 +82,8 @@ func FactorizeWith(ctx context.Context, a *Matrix, an *Analysis, opt Options) (*
 		workers:    workers,
 		threshold:  tol,
 		regularize: opt.Regularize,
+		ownDiag:    opt.OwnDiagonal,
+		deficient1: cmp.Or(opt.DeficientPivot, 1),
 		rep:        progress.Or(opt.Reporter),
 	}
 	if err := c.numeric(ctx, a); err != nil {

@@ -40,6 +40,19 @@ type Options struct {
 	// Regularize makes Factorize succeed on deficient pivots: they are
 	// listed by Cholesky.Deficient instead of returned as a *PivotError.
 	Regularize bool
+	// OwnDiagonal measures each pivot against its own column's diagonal
+	// entry of A instead of the largest one: a pivot that cancels to
+	// PivotTolerance times A_kk is deficient. Systems whose diagonal spans
+	// many orders of magnitude need it, as the normal equations A·D·Aᵀ of
+	// an interior-point method do, where such a pivot marks a row
+	// dependent on others (S. J. Wright, "Primal-Dual Interior-Point
+	// Methods", SIAM 1997, ch. 11; from memory).
+	OwnDiagonal bool
+	// DeficientPivot is the value that replaces a deficient pivot (its
+	// column of L below the diagonal is zeroed); 0 means 1. A huge value
+	// such as 1e64 makes the solution's component there zero, as the
+	// interior-point method wants.
+	DeficientPivot float64
 }
 
 // PivotError reports the columns whose pivots were non-positive, NaN or at
@@ -87,6 +100,8 @@ type Cholesky struct {
 	workers    int
 	threshold  float64 // relative pivot tolerance
 	regularize bool
+	ownDiag    bool
+	deficient1 float64 // the value of a replaced pivot
 	rep        progress.Reporter
 
 	ok        bool // the last numeric factorisation succeeded
@@ -241,10 +256,19 @@ func (c *Cholesky) numeric(ctx context.Context, a *Matrix) error {
 		aVal:      a.Val,
 		reused:    reused,
 		threshold: c.threshold * maxDiag,
+		pivotFor:  c.deficient1,
 		updates:   make([][]float64, sym.nsuper),
 		defects:   make([][]defect, sym.nsuper),
 		rep:       c.rep,
 		done:      ctx.Done(),
+	}
+	if c.ownDiag {
+		f.floors = make([]float64, a.N)
+		for k, old := range sym.perm {
+			if p := a.ColPtr[old]; p < a.ColPtr[old+1] && a.RowIdx[p] == old {
+				f.floors[k] = c.threshold * abs(a.Val[p])
+			}
+		}
 	}
 	if err := f.run(c.workers); err != nil {
 		return ctx.Err()
@@ -284,8 +308,9 @@ func sortDefects(cols []int, pivots []float64) {
 }
 
 // Deficient returns the original indices, ascending, of the columns whose
-// pivots were replaced by 1 with their off-diagonal entries in L zeroed (the
-// freedoms treated as constrained); it is empty for a positive definite A.
+// pivots were replaced (by Options.DeficientPivot) with their off-diagonal
+// entries in L zeroed (the freedoms treated as constrained); it is empty
+// for a positive definite A.
 func (c *Cholesky) Deficient() []int { return slices.Clone(c.deficient) }
 
 // Stats returns the sizes, work and timings of the factorisation.
@@ -306,12 +331,16 @@ type numeric struct {
 	aVal      []float64 // values of A
 	reused    bool      // val holds an earlier factor and must be cleared
 	threshold float64
-	updates   [][]float64 // update matrix of each supernode, row-major upper, until its parent consumes it
-	defects   [][]defect
-	rep       progress.Reporter
-	done      <-chan struct{}
-	finished  atomic.Int64
-	pool      bufferPool
+	// floors, when set, holds each permuted column's own pivot floor
+	// instead of threshold (Options.OwnDiagonal).
+	floors   []float64
+	pivotFor float64     // the value of a replaced pivot
+	updates  [][]float64 // update matrix of each supernode, row-major upper, until its parent consumes it
+	defects  [][]defect
+	rep      progress.Reporter
+	done     <-chan struct{}
+	finished atomic.Int64
+	pool     bufferPool
 }
 
 // workspace is one worker's scratch space.
@@ -561,11 +590,21 @@ func (f *numeric) supernode(w *workspace, s int, wide int) {
 	}
 }
 
+// floor is the smallest acceptable pivot of permuted column k (before its
+// square root).
+func (f *numeric) floor(k int) float64 {
+	if f.floors != nil {
+		return f.floors[k]
+	}
+	return f.threshold
+}
+
 // factorDiagonal factorises the ns×ns diagonal block in place (upper
 // triangle of the row-major block = L11ᵀ). The dense kernel does the work
 // when every pivot is acceptable; otherwise the block is redone column by
-// column from a saved copy, replacing each deficient pivot by 1 and zeroing
-// the rest of its column of L, so that all deficient columns are found.
+// column from A, replacing each deficient pivot by Options.DeficientPivot
+// (1 by default) and zeroing the rest of its column of L, so that all
+// deficient columns are found.
 func (f *numeric) factorDiagonal(w *workspace, s int, block []float64, ns, m int) {
 	// The dense kernel works on a lower-triangular copy: gonum's Potrf on
 	// a lower triangle runs its updates as Gemm(NoTrans, Trans), several
@@ -573,6 +612,7 @@ func (f *numeric) factorDiagonal(w *workspace, s int, block []float64, ns, m int
 	// strided block (measured here), which matters for the large root
 	// separators of solid 3D structures. The block keeps A until the copy
 	// is accepted, so the column-by-column path below starts from it.
+	first := f.sym.superFirst[s]
 	if cap(w.backup) < ns*ns {
 		w.backup = make([]float64, ns*ns)
 	}
@@ -586,7 +626,7 @@ func (f *numeric) factorDiagonal(w *workspace, s int, block []float64, ns, m int
 	if ok {
 		for k := 0; k < ns; k++ {
 			d := lower[k*ns+k]
-			if !(d*d > f.threshold) || math.IsInf(d, 1) {
+			if !(d*d > f.floor(first+k)) || math.IsInf(d, 1) {
 				ok = false
 				break
 			}
@@ -601,13 +641,12 @@ func (f *numeric) factorDiagonal(w *workspace, s int, block []float64, ns, m int
 		}
 		return
 	}
-	first := f.sym.superFirst[s]
 	for k := 0; k < ns; k++ {
 		row := block[k*m : k*m+ns]
 		d := row[k]
-		if !(d > f.threshold) || math.IsInf(d, 1) {
+		if !(d > f.floor(first+k)) || math.IsInf(d, 1) {
 			f.defects[s] = append(f.defects[s], defect{column: first + k, pivot: d})
-			row[k] = 1
+			row[k] = f.pivotFor
 			clear(row[k+1:])
 			continue
 		}
