@@ -33,9 +33,9 @@
 //
 // The linear programs are solved by a primal–dual interior-point method with
 // Mehrotra's predictor–corrector (Wright, Primal-Dual Interior-Point Methods,
-// SIAM 1997) whose normal equations A D Aᵀ are factorised by a sparse
-// Cholesky factorisation in a nested-dissection order taken from the node
-// coordinates.
+// SIAM 1997) whose normal equations A D Aᵀ are factorised by the supernodal
+// sparse Cholesky of engine/sparse in a nested-dissection order taken from
+// the node coordinates, each pivot measured against its own diagonal entry.
 //
 // Several load cases are handled in three modes. Alternatives (the default)
 // solves the multiple-load-case program: each member's area must carry its
