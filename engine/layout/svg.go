@@ -23,6 +23,9 @@ type SVGOptions struct {
 	MaxStroke float64
 	// Title is an optional heading.
 	Title string
+	// LengthUnit names the length unit, so that the legend gives the
+	// volume in its cube; "" leaves the volume without a unit.
+	LengthUnit string
 }
 
 // Colours and dashes of the picture. Tension and compression differ in
@@ -131,7 +134,11 @@ func (l *Layout) WriteSVG(w io.Writer, opt SVGOptions) error {
 	fmt.Fprintf(b, `<text x="%.1f" y="%.1f">tension (solid)</text>`+"\n", margin+48, legendY+4)
 	fmt.Fprintf(b, `<line x1="%.1f" y1="%.1f" x2="%.1f" y2="%.1f" stroke="%s" stroke-width="4" stroke-dasharray="16 9"/>`+"\n", margin+170, legendY, margin+210, legendY, compressionColour)
 	fmt.Fprintf(b, `<text x="%.1f" y="%.1f">compression (dashed)</text>`+"\n", margin+218, legendY+4)
-	fmt.Fprintf(b, `<text x="%.1f" y="%.1f">line width ∝ area; volume %.6g</text>`+"\n", margin+370, legendY+4, l.Volume)
+	volume := fmt.Sprintf("%.4g", l.Volume)
+	if opt.LengthUnit != "" {
+		volume += " " + escape(opt.LengthUnit) + "³"
+	}
+	fmt.Fprintf(b, `<text x="%.1f" y="%.1f">line width ∝ area; volume %s</text>`+"\n", margin+370, legendY+4, volume)
 	fmt.Fprintf(b, `<text x="%.1f" y="%.1f" font-style="italic">%s</text>`+"\n", margin, legendY+34, escape(Caution))
 	fmt.Fprintf(b, "</svg>\n")
 	return b.Flush()

@@ -56,6 +56,16 @@ text { font-family: "DejaVu Sans", Arial, sans-serif; fill: ` + inkColour + `; }
 type canvas struct {
 	w   *bufio.Writer
 	err error
+	// placed holds the estimated boxes of the labels written by label, so
+	// that later labels can step aside.
+	placed []rect
+}
+
+// rect is an axis-aligned box in picture coordinates.
+type rect struct{ x0, y0, x1, y1 float64 }
+
+func (r rect) overlaps(o rect) bool {
+	return r.x0 < o.x1 && o.x0 < r.x1 && r.y0 < o.y1 && o.y0 < r.y1
 }
 
 func newCanvas(w io.Writer, width, height float64) *canvas {
@@ -99,6 +109,60 @@ func (c *canvas) text(x, y float64, s, class, anchor string) {
 	_ = xml.EscapeText(&b, []byte(s))
 	c.printf(`<text x="%s" y="%s" class="%s" text-anchor="%s">%s</text>`+"\n", num(x), num(y), class, anchor, b.String())
 }
+
+// label writes a text as text does, at the first of a few nearby positions
+// (tried in the order given by steps, in multiples of the text's height and
+// width) where its estimated box overlaps no label placed before; when all
+// overlap it goes at (x, y). The box is estimated from the font size and an
+// average glyph width of 0.62 em (0.68 em bold), close enough for the sans
+// fonts the style names (common practice for label placement without font
+// metrics).
+func (c *canvas) label(x, y float64, s, class, anchor string, steps [][2]float64) {
+	size := 12.0
+	if strings.Contains(class, "small") {
+		size = 11
+	}
+	em := 0.62
+	if strings.Contains(class, "space") {
+		em = 0.68
+	}
+	w := em * size * float64(len([]rune(s)))
+	h := size
+	boxAt := func(x, y float64) rect {
+		x0 := x
+		switch anchor {
+		case "middle":
+			x0 = x - w/2
+		case "end":
+			x0 = x - w
+		}
+		return rect{x0 - 1, y - 0.8*h - 1, x0 + w + 1, y + 0.25*h + 1}
+	}
+	at := [2]float64{x, y}
+	for _, st := range steps {
+		cx, cy := x+st[0]*(w+3), y+st[1]*(1.05*h+3) // one box apart
+		b := boxAt(cx, cy)
+		free := true
+		for _, o := range c.placed {
+			if b.overlaps(o) {
+				free = false
+				break
+			}
+		}
+		if free {
+			at = [2]float64{cx, cy}
+			break
+		}
+	}
+	c.placed = append(c.placed, boxAt(at[0], at[1]))
+	c.text(at[0], at[1], s, class, anchor)
+}
+
+// Steps for label: around a point above and below first, then to the sides.
+var (
+	stepsVertical = [][2]float64{{0, 0}, {0, -1}, {0, 1}, {0, -2}, {0, 2}, {0.6, 0}, {-0.6, 0}, {0, -3}, {0, 3}}
+	stepsAround   = [][2]float64{{0, 0}, {0, 1.2}, {-1.2, 0}, {-1.2, 1.2}, {0, -1}, {1, 0}, {1, 1.2}, {1, -1}, {2, 0}, {2, 1.2}, {2, -1}, {0, 2.2}, {-1.2, -1}, {3, 0}, {3, 1.2}}
+)
 
 // num formats a coordinate compactly.
 func num(x float64) string { return strconv.FormatFloat(x, 'f', 2, 64) }

@@ -83,6 +83,15 @@ func (s *formScene) draw(c *canvas, f frame, forceLabels bool) {
 		w := 1.2 + 3.3*math.Abs(t)/math.Max(maxT, 1e-300)
 		c.line(f.x(p[0]), f.y(p[1]), f.x(q[0]), f.y(q[1]), senseClass(t, s.tol), w, "")
 	}
+	// Space labels first, so that the numbers written next step aside
+	// from them.
+	for _, l := range s.labels {
+		class := "label"
+		if l.outer {
+			class = "label space"
+		}
+		c.label(f.x(l.at[0]), f.y(l.at[1])+4, l.text, class, "middle", stepsVertical)
+	}
 	if forceLabels && len(m.Members) <= 80 {
 		for e, mb := range m.Members {
 			p, q := node(m, mb.Ends[0]), node(m, mb.Ends[1])
@@ -92,7 +101,7 @@ func (s *formScene) draw(c *canvas, f frame, forceLabels bool) {
 			if ny > 0 { // keep the number above or left of the member
 				nx, ny = -nx, -ny
 			}
-			c.text((x1+x2)/2+9*nx, (y1+y2)/2+9*ny+4, fmt.Sprintf("%.3g", s.axial[e]), "small label", "middle")
+			c.label((x1+x2)/2+9*nx, (y1+y2)/2+9*ny+4, fmt.Sprintf("%.3g", s.axial[e]), "small label", "middle", stepsVertical)
 		}
 	}
 	for _, sp := range m.Supports {
@@ -127,14 +136,7 @@ func (s *formScene) draw(c *canvas, f frame, forceLabels bool) {
 			far = head
 		}
 		fx, fy := f.x(far[0])+9*a.dir[0], f.y(far[1])-9*a.dir[1]+4
-		c.text(fx, fy, fmt.Sprintf("%.3g %s", math.Hypot(a.force[0], a.force[1]), unit), "small label", "middle")
-	}
-	for _, l := range s.labels {
-		class := "label"
-		if l.outer {
-			class = "label space"
-		}
-		c.text(f.x(l.at[0]), f.y(l.at[1])+4, l.text, class, "middle")
+		c.label(fx, fy, fmt.Sprintf("%.3g %s", math.Hypot(a.force[0], a.force[1]), unit), "small label", "middle", stepsVertical)
 	}
 }
 

@@ -106,7 +106,12 @@ func drawForce(c *canvas, f frame, d *reciprocal.Diagram) {
 	}
 	for _, s := range d.Forces {
 		p, q := d.Points[s.Left], d.Points[s.Right]
-		c.line(f.x(p[0]), f.y(p[1]), f.x(q[0]), f.y(q[1]), "external", 2.6, ` marker-end="url(#arrow)"`)
+		x1, y1, x2, y2 := f.x(p[0]), f.y(p[1]), f.x(q[0]), f.y(q[1])
+		head := ` marker-end="url(#arrow)"`
+		if math.Hypot(x2-x1, y2-y1) < 16 {
+			head = "" // an arrowhead longer than its segment hides its neighbours
+		}
+		c.line(x1, y1, x2, y2, "external", 2.6, head)
 	}
 	// Points that coincide (zero-force members, spaces on the load line)
 	// share one label: "3=4".
@@ -163,6 +168,6 @@ func drawForce(c *canvas, f frame, d *reciprocal.Diagram) {
 		if g.outer {
 			class = "label space"
 		}
-		c.text(x+6, y-6, strings.Join(g.names, "="), class, "start")
+		c.label(x+6, y-6, strings.Join(g.names, "="), class, "start", stepsAround)
 	}
 }

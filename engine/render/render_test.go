@@ -153,3 +153,23 @@ func TestWriteError(t *testing.T) {
 		t.Error("write error not returned")
 	}
 }
+
+// TestLabelsStepAside writes five labels at one point: each must land
+// where its estimated box overlaps none placed before.
+func TestLabelsStepAside(t *testing.T) {
+	var buf bytes.Buffer
+	c := newCanvas(&buf, 400, 300)
+	for _, s := range []string{"A", "2.36 kN", "B", "84.1 kN", "C"} {
+		c.label(200, 150, s, "small label", "middle", stepsVertical)
+	}
+	if err := c.close(); err != nil {
+		t.Fatal(err)
+	}
+	for i, a := range c.placed {
+		for _, b := range c.placed[:i] {
+			if a.overlaps(b) {
+				t.Fatalf("label %d at %v overlaps %v", i, a, b)
+			}
+		}
+	}
+}

@@ -81,7 +81,11 @@ func (a *Adapter) optimiseLayout(ctx context.Context, params json.RawMessage, st
 	out := layoutResult(l, p.Units, modulus)
 	if p.Picture {
 		var svg bytes.Buffer
-		if err := l.WriteSVG(&svg, layout.SVGOptions{Title: "Least-volume layout"}); err != nil {
+		unit := "m"
+		if p.Units != nil && p.Units.Length != "" {
+			unit = p.Units.Length
+		}
+		if err := l.WriteSVG(&svg, layout.SVGOptions{Title: "Least-volume layout", LengthUnit: unit}); err != nil {
 			return nil, err
 		}
 		out.Picture = svg.String()
