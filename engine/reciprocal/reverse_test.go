@@ -7,7 +7,6 @@ import (
 	"testing"
 
 	"gonum.org/v1/gonum/floats/scalar"
-	"gonum.org/v1/gonum/mat"
 
 	"gusset/engine/fault"
 )
@@ -41,22 +40,13 @@ func TestReciprocalOfReciprocal(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		// Fit x = s·x_original + (tx, ty) by least squares: a similarity
-		// with the original's directions fits exactly.
-		a := mat.NewDense(2*len(xy), 3, nil)
-		b := mat.NewVecDense(2*len(xy), r.Coords)
-		for v, p := range xy {
-			a.SetRow(2*v, []float64{p[0], 1, 0})
-			a.SetRow(2*v+1, []float64{p[1], 0, 1})
+		// A similarity with the original's directions fits exactly.
+		original := make([]float64, 0, 2*len(xy))
+		for _, p := range xy {
+			original = append(original, p[0], p[1])
 		}
-		var fit, res mat.VecDense
-		if err := fit.SolveVec(a, b); err != nil {
-			t.Fatal(err)
-		}
-		res.MulVec(a, &fit)
-		res.SubVec(&res, b)
-		if mat.Norm(&res, math.Inf(1)) > 1e-10 || math.Abs(fit.AtVec(0)) < 0.1 {
-			t.Errorf("not a dilation of the original: scale %g, residual %g", fit.AtVec(0), mat.Norm(&res, math.Inf(1)))
+		if misfit, scale := similarityResidual(original, r.Coords); misfit > 1e-10 || math.Abs(scale) < 0.1 {
+			t.Errorf("not a dilation of the original: scale %g, residual %g", scale, misfit)
 		}
 	})
 	t.Run("perpendicular", func(t *testing.T) {
