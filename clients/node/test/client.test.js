@@ -354,3 +354,33 @@ describe('the process', () => {
     assert.equal(out.trim(), 'gusset');
   });
 });
+
+describe('optimiseLayout', { skip }, () => {
+  test('a joint cost switches the layout', async (t) => {
+    // A load P = 1 hanging below pins at (-1, 1), (1, 1) and (0, 2.5): two
+    // ties at 45° need volume 2P/σ and cost 2 + √2·s with a joint cost s
+    // per member, the vertical tie 2.5P/σ and 2.5 + s (hand results from
+    // equilibrium at the loaded node; the joint cost after Parkes 1975, from
+    // memory).
+    if (!names.includes('optimise-layout')) return t.skip('optimise-layout not offered');
+    const problem = {
+      nodes: [[0, 0], [-1, 1], [1, 1], [0, 2.5]],
+      supports: [[-1, 1], [1, 1], [0, 2.5]].map((at) => ({ at, fix: ['x', 'y'] })),
+      cases: [{ id: 'P', loads: [{ at: [0, 0], force: [0, -1] }] }],
+      tension_limit: 1,
+      compression_limit: 1,
+    };
+    const client = new Client({ binary: bin });
+    try {
+      const plain = await client.optimiseLayout(problem);
+      const costly = await client.optimiseLayout({ ...problem, joint_cost: 2 });
+      assert.equal(plain.members.length, 2);
+      assert.ok(closeWithin(plain.volume, 2, 1e-7), String(plain.volume));
+      assert.equal(costly.members.length, 1);
+      assert.ok(closeWithin(costly.volume, 2.5, 1e-7), String(costly.volume));
+      assert.ok(closeWithin(costly.objective, 4.5, 1e-7), String(costly.objective));
+    } finally {
+      await client.close();
+    }
+  });
+});

@@ -825,15 +825,21 @@ class Client:
         divisions: Optional[Sequence[int]] = None,
         nodes: Optional[Sequence[Sequence[float]]] = None,
         connectivity: Optional[int] = None,
+        joint_cost: Optional[float] = None,
         units: Optional[Mapping[str, str]] = None,
         picture: Optional[bool] = None,
         timeout: Optional[float] = None,
         **options: Any,
     ) -> Dict[str, Any]:
-        """optimise_layout finds the least-volume pin-jointed layout over a ground structure."""
+        """optimise_layout finds the least-volume pin-jointed layout over a ground structure.
+
+        joint_cost, a length added to every member in the objective, makes
+        layouts with fewer members win when the saving outweighs the extra
+        volume; the result's "objective" includes it, "volume" does not.
+        """
         params = _params(supports=supports, cases=cases, tension_limit=tension_limit,
                          compression_limit=compression_limit, domain=domain, divisions=divisions, nodes=nodes,
-                         connectivity=connectivity, units=units, picture=picture, **options)
+                         connectivity=connectivity, joint_cost=joint_cost, units=units, picture=picture, **options)
         return self.call("optimise-layout", params, timeout)  # type: ignore[no-any-return]
 
 

@@ -305,5 +305,29 @@ class ProcessTest(unittest.TestCase):
         self.assertIsNone(client.pid)
 
 
+class LayoutTest(unittest.TestCase):
+    def test_joint_cost_switches_layout(self) -> None:
+        # A load P = 1 hanging below pins at (-1, 1), (1, 1) and (0, 2.5):
+        # two ties at 45 degrees need volume 2P/sigma and cost 2 + sqrt(2)s
+        # with a joint cost s per member, the vertical tie 2.5P/sigma and
+        # 2.5 + s (hand results from equilibrium at the loaded node; the
+        # joint cost after Parkes 1975, from memory).
+        if "optimise-layout" not in support.methods():
+            self.skipTest("optimise-layout not offered")
+        pins = [{"at": p, "fix": ["x", "y"]} for p in ([-1, 1], [1, 1], [0, 2.5])]
+        cases = [{"id": "P", "loads": [{"at": [0, 0], "force": [0, -1]}]}]
+        nodes = [[0, 0], [-1, 1], [1, 1], [0, 2.5]]
+        with gusset.Client(support.binary()) as client:
+            plain = client.optimise_layout(supports=pins, cases=cases, nodes=nodes,
+                                           tension_limit=1, compression_limit=1)
+            costly = client.optimise_layout(supports=pins, cases=cases, nodes=nodes,
+                                            tension_limit=1, compression_limit=1, joint_cost=2)
+        self.assertEqual(len(plain["members"]), 2)
+        self.assertTrue(close_within(plain["volume"], 2, 1e-7))
+        self.assertEqual(len(costly["members"]), 1)
+        self.assertTrue(close_within(costly["volume"], 2.5, 1e-7))
+        self.assertTrue(close_within(costly["objective"], 4.5, 1e-7))
+
+
 if __name__ == "__main__":
     unittest.main()
