@@ -65,8 +65,10 @@ func minNormDense(cons []constraint, cols int) ([]float64, error) {
 // δ₀ = 0 and δ ← δ + N⁻¹Cᵀ(r − C·δ). Every iterate stays in the row space
 // of C, and the error along a singular direction σ shrinks by λ/(σ² + λ)
 // per step, so the iteration converges to the minimum-norm least-squares
-// solution; directions with σ² far below λ barely move, which truncates
-// them as the dense path's rank cut does (A. N. Tikhonov, 1963, and the
+// solution. Directions with σ² far below λ (1e-7 of the largest diagonal
+// entry of CᵀC) barely move: a softer cut than the dense path's (σ below
+// 1e-10 of the largest), which only nearly dependent constraints reach
+// (A. N. Tikhonov, 1963, and the
 // iterated form of its regularisation, e.g. Engl, Hanke & Neubauer,
 // "Regularization of Inverse Problems", 1996, §5.1; from memory). The
 // normal matrix has the sparsity of the network's node adjacency, so the
