@@ -87,30 +87,7 @@ func newNormalEquations(a *sparseColumns, rowCoord [][2]float64) *normalEquation
 	ne := &normalEquations{n: m, matrix: matrix}
 	var perm []int
 	if rowCoord != nil {
-		// Adjacency lists of the pattern for the geometric order.
-		adjStart := make([]int, m+1)
-		for j := 0; j < m; j++ {
-			for p := matrix.ColPtr[j]; p < matrix.ColPtr[j+1]; p++ {
-				if i := matrix.RowIdx[p]; i != j {
-					adjStart[i+1]++
-					adjStart[j+1]++
-				}
-			}
-		}
-		for i := 0; i < m; i++ {
-			adjStart[i+1] += adjStart[i]
-		}
-		adj := make([]int32, adjStart[m])
-		fill := append([]int(nil), adjStart[:m]...)
-		for j := 0; j < m; j++ {
-			for p := matrix.ColPtr[j]; p < matrix.ColPtr[j+1]; p++ {
-				if i := matrix.RowIdx[p]; i != j {
-					adj[fill[i]], adj[fill[j]] = int32(j), int32(i)
-					fill[i]++
-					fill[j]++
-				}
-			}
-		}
+		adjStart, adj := matrix.Adjacency()
 		perm = nestedDissection(m, adjStart, adj, rowCoord)
 	}
 	opt := normalOptions

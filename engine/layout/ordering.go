@@ -10,7 +10,7 @@ import "sort"
 // ordered first and the separator last, so no fill crosses between parts
 // (George, "Nested dissection of a regular finite element mesh", SIAM J.
 // Numer. Anal. 10, 1973). It returns perm with perm[new] = old.
-func nestedDissection(n int, adjStart []int, adj []int32, coord [][2]float64) []int {
+func nestedDissection(n int, adjStart, adj []int, coord [][2]float64) []int {
 	perm := make([]int, 0, n)
 	side := make([]int8, n)
 	all := make([]int32, n)

@@ -416,6 +416,10 @@ func (g *quotientGraph) finishStage(p int) {
 	g.lp = kept
 }
 
+// Adjacency returns the graph of a's off-diagonal structure, both triangles:
+// the neighbours of i are adj[ptr[i]:ptr[i+1]], for orderings of one's own.
+func (a *Matrix) Adjacency() (ptr, adj []int) { return fullAdjacency(a) }
+
 // fullAdjacency returns the graph of a's off-diagonal structure: the
 // neighbours of i are adj[ptr[i]:ptr[i+1]].
 func fullAdjacency(a *Matrix) (ptr, adj []int) {
