@@ -120,7 +120,9 @@ type SolveStats struct {
 type Mechanism struct {
 	// Freedoms lists the freedoms involved.
 	Freedoms []Freedom `json:"freedoms"`
-	// Modes are the mechanism's node motions.
+	// Modes are the mechanism's node motions: a basis of the mechanisms,
+	// each scaled to unit length with its largest entry positive, at most
+	// 16 of them (the error message counts them all).
 	Modes []Mode `json:"modes"`
 }
 

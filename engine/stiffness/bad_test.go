@@ -56,17 +56,121 @@ func TestMechanismSquare(t *testing.T) {
 		near(t, "n3 x", mode[3][0], 1/math.Sqrt2, 1e-9)
 		near(t, "n2 y", mode[2][1], 0, 1e-9)
 	}
-	// Above the stability limit the mode is the unit motion of the
-	// freedom whose pivot vanished.
+	// Above the stability limit the mode comes from the sparse
+	// factorisation, and it is the same sway.
 	_, err := Solve(context.Background(), square().m, Options{Path: Sparse, StabilityLimit: -1})
 	fe, ok := fault.As(err)
-	if !ok || fe.Kind != fault.Unstable || fe.Detail.(*Mechanism).FromNullSpace || len(fe.Detail.(*Mechanism).Freedoms) != 1 {
-		t.Errorf("large-model mechanism: %v %+v", err, fe)
+	if !ok || fe.Kind != fault.Unstable {
+		t.Fatalf("large-model mechanism: %v", err)
 	}
+	mech := fe.Detail.(*Mechanism)
+	if !mech.FromNullSpace || len(mech.Modes) != 1 || len(mech.Freedoms) != 2 {
+		t.Fatalf("large-model mechanism: %+v", mech)
+	}
+	near(t, "sparse n2 x", mech.Modes[0].Translations[2][0], 1/math.Sqrt2, 1e-9)
+	near(t, "sparse n3 x", mech.Modes[0].Translations[3][0], 1/math.Sqrt2, 1e-9)
+	near(t, "sparse n2 y", mech.Modes[0].Translations[2][1], 0, 1e-9)
 	// One diagonal makes it stable.
 	if _, err := Solve(context.Background(), square([2]int{0, 2}).m, Options{}); err != nil {
 		t.Errorf("braced square: %v", err)
 	}
+}
+
+// TestSparseModesSpanTheNullSpace builds a strip of eight unit squares on
+// a pin and a roller with the diagonals of squares 2 and 5 left out: two
+// sway mechanisms. The modes found from the sparse factorisation (above
+// the stability limit) must span the same space as the eigenvectors of the
+// stiffness matrix's two smallest eigenvalues (gonum's EigenSym, the
+// reference library, on the dense path): each set projects onto the other
+// with a residual at round-off.
+func TestSparseModesSpanTheNullSpace(t *testing.T) {
+	b := newBuilder(2, 2e8, 0, 1e-3, 0, 0, 0)
+	const squares = 8
+	for i := range squares + 1 {
+		b.node(float64(i), 0)
+		b.node(float64(i), 1)
+	}
+	for i := range squares {
+		bl, tl, br, tr := 2*i, 2*i+1, 2*i+2, 2*i+3
+		b.bar(bl, br)
+		b.bar(tl, tr)
+		if i != 2 && i != 5 {
+			b.bar(bl, tr)
+		}
+	}
+	for i := range squares + 1 {
+		b.bar(2*i, 2*i+1)
+	}
+	b.fix(0, pinned2...)
+	b.fix(2*squares, model.Y)
+	b.force(1, [3]float64{1, 0}, [3]float64{})
+	modes := func(limit int) [][]float64 {
+		_, err := Solve(context.Background(), b.m, Options{StabilityLimit: limit})
+		fe, ok := fault.As(err)
+		if !ok || fe.Kind != fault.Unstable {
+			t.Fatalf("limit %d: %v, want a mechanism", limit, err)
+		}
+		mech := fe.Detail.(*Mechanism)
+		if !mech.FromNullSpace {
+			t.Fatalf("limit %d: modes not from the null space", limit)
+		}
+		var out [][]float64
+		for _, md := range mech.Modes {
+			var v []float64
+			for _, tr := range md.Translations {
+				v = append(v, tr...)
+			}
+			out = append(out, v)
+		}
+		return out
+	}
+	dense, sparse := modes(10000), modes(-1)
+	if len(dense) != 2 || len(sparse) != 2 {
+		t.Fatalf("%d dense and %d sparse modes, want 2 each", len(dense), len(sparse))
+	}
+	residual := func(v []float64, basis [][]float64) float64 {
+		r := append([]float64(nil), v...)
+		// basis is orthonormal up to the scaling back to displacements:
+		// project by least squares through Gram–Schmidt.
+		var q [][]float64
+		for _, bv := range basis {
+			w := append([]float64(nil), bv...)
+			for _, u := range q {
+				d := dotProduct(u, w)
+				for i := range w {
+					w[i] -= d * u[i]
+				}
+			}
+			n := math.Sqrt(dotProduct(w, w))
+			for i := range w {
+				w[i] /= n
+			}
+			q = append(q, w)
+		}
+		for _, u := range q {
+			d := dotProduct(u, r)
+			for i := range r {
+				r[i] -= d * u[i]
+			}
+		}
+		return math.Sqrt(dotProduct(r, r))
+	}
+	for k := range 2 {
+		if r := residual(sparse[k], dense); r > 1e-8 {
+			t.Errorf("sparse mode %d leaves the dense null space by %g", k, r)
+		}
+		if r := residual(dense[k], sparse); r > 1e-8 {
+			t.Errorf("dense mode %d leaves the sparse null space by %g", k, r)
+		}
+	}
+}
+
+func dotProduct(u, v []float64) float64 {
+	s := 0.0
+	for i := range u {
+		s += u[i] * v[i]
+	}
+	return s
 }
 
 // TestDisconnected checks a second triangle that no support holds (an
@@ -172,5 +276,35 @@ func TestCancelled(t *testing.T) {
 	_, err := Solve(ctx, square([2]int{0, 2}).m, Options{})
 	if !errors.Is(err, context.Canceled) {
 		t.Errorf("error %v, want context.Canceled", err)
+	}
+}
+
+// TestModesCapped hangs twenty nodes each on one bar from its own pin, one
+// pushed sideways: each can swing, twenty mechanisms (Maxwell's rule
+// b − 2j + k = 20 − 80 + 40 = −20 = s − m, with s = 0 by inspection). The
+// error counts all twenty while its detail carries at most sixteen modes,
+// on both paths.
+func TestModesCapped(t *testing.T) {
+	b := newBuilder(2, 2e8, 0, 1e-3, 0, 0, 0)
+	for i := range 20 {
+		pin := b.node(float64(i), 1)
+		hung := b.node(float64(i), 0)
+		b.bar(pin, hung)
+		b.fix(pin, pinned2...)
+	}
+	b.force(1, [3]float64{1, 0}, [3]float64{})
+	for _, limit := range []int{10000, -1} {
+		_, err := Solve(context.Background(), b.m, Options{StabilityLimit: limit})
+		fe, ok := fault.As(err)
+		if !ok || fe.Kind != fault.Unstable {
+			t.Fatalf("limit %d: %v, want a mechanism", limit, err)
+		}
+		if !strings.Contains(fe.Message, "20 mechanism(s)") {
+			t.Errorf("limit %d: message %q does not count 20 mechanisms", limit, fe.Message)
+		}
+		mech := fe.Detail.(*Mechanism)
+		if len(mech.Modes) != maxModes || len(mech.Freedoms) != 20 {
+			t.Errorf("limit %d: %d modes and %d freedoms, want %d and 20", limit, len(mech.Modes), len(mech.Freedoms), maxModes)
+		}
 	}
 }

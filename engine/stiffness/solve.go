@@ -142,9 +142,12 @@ func solve(ctx context.Context, m *model.Model, opt Options, an *Analysis) (*Res
 			return held, nil
 		}
 		if nb.equations <= opt.StabilityLimit {
-			return nil, mechanismError(m, nb, deficient.equations, sys.dense(), sys.scale)
+			return nil, mechanismError(m, nb, deficient.equations, denseModes(sys.dense(), sys.scale, len(deficient.equations)))
 		}
-		return nil, mechanismError(m, nb, deficient.equations, nil, nil)
+		if err := ctx.Err(); err != nil {
+			return nil, err
+		}
+		return nil, mechanismError(m, nb, deficient.equations, sparseModes(ctx, sys, opt))
 	}
 	if err != nil {
 		return nil, err
