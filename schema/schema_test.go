@@ -5,6 +5,7 @@ import (
 	"encoding/json"
 	"fmt"
 	"os"
+	"strings"
 	"testing"
 
 	"gusset/protocol"
@@ -90,5 +91,44 @@ func TestValidatorPointers(t *testing.T) {
 				t.Errorf("problems %+v lack path %s", e.Data.Problems, c.path)
 			}
 		})
+	}
+}
+
+// TestUnknownPropertyHints: a misspelt or misremembered property name gets
+// the nearest allowed name of that object; an unrelated one gets none.
+func TestUnknownPropertyHints(t *testing.T) {
+	v, err := NewValidator(map[string]string{"solve": "SolveParams"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, c := range []struct{ field, hint string }{
+		{"cases", "did you mean 'load_cases' for 'cases'?"},
+		{"load_case", "did you mean 'load_cases' for 'load_case'?"},
+		{"Supports", "did you mean 'supports' for 'Supports'?"},
+		{"colour", ""},
+	} {
+		params := `{"model":{"dimension":2,"materials":[],"sections":[],"nodes":[],"members":[],"` + c.field + `":[]}}`
+		e := v.Validate("solve", []byte(params))
+		if e == nil || len(e.Data.Problems) != 1 {
+			t.Fatalf("%s: %+v", c.field, e)
+		}
+		msg := e.Data.Problems[0].Message
+		if c.hint == "" && strings.Contains(msg, "did you mean") || c.hint != "" && !strings.Contains(msg, c.hint) {
+			t.Errorf("%s: message %q, want hint %q", c.field, msg, c.hint)
+		}
+	}
+}
+
+// TestEditDistance checks the Levenshtein distance on the textbook pairs
+// kitten/sitting (3) and flaw/lawn (2) (common practice) and the empty
+// string.
+func TestEditDistance(t *testing.T) {
+	for _, c := range []struct {
+		a, b string
+		want int
+	}{{"kitten", "sitting", 3}, {"flaw", "lawn", 2}, {"", "abc", 3}, {"same", "same", 0}} {
+		if got := editDistance(c.a, c.b); got != c.want {
+			t.Errorf("editDistance(%q, %q) = %d, want %d", c.a, c.b, got, c.want)
+		}
 	}
 }

@@ -125,7 +125,11 @@ func displayPath(p string) string {
 // fail, the branch errors are merged into one message at that location.
 func leaves(e *jsonschema.ValidationError, out *[]protocol.Problem) {
 	if len(e.Causes) == 0 {
-		*out = append(*out, protocol.Problem{Path: "/params" + e.InstanceLocation, Message: e.Message})
+		msg := e.Message
+		if strings.HasSuffix(e.KeywordLocation, "/additionalProperties") {
+			msg += suggestion(e.AbsoluteKeywordLocation, msg)
+		}
+		*out = append(*out, protocol.Problem{Path: "/params" + e.InstanceLocation, Message: msg})
 		return
 	}
 	if strings.HasSuffix(e.KeywordLocation, "/oneOf") {
