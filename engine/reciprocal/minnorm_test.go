@@ -42,6 +42,20 @@ func scrambled(m *model.Model, amount float64, seed uint64) []float64 {
 	return x
 }
 
+// scrambledGrid builds the diagram of a loaded grid (loadedGrid) and then
+// scrambles the model's coordinates by up to ±0.2, returning the model,
+// the diagram and the original coordinates.
+func scrambledGrid(t testing.TB, rows, cols int, seed uint64) (*model.Model, *Diagram, []float64) {
+	m, axial, ext := loadedGrid(rows, cols, seed)
+	d, err := Build(context.Background(), Input{Model: m, AxialForce: axial, External: ext})
+	if err != nil {
+		t.Fatal(err)
+	}
+	original := slices.Clone(m.Coords)
+	copy(m.Coords, scrambled(m, 0.2, seed))
+	return m, d, original
+}
+
 // similarityResidual fits coords = s·original + (tx, ty) by least squares
 // (gonum) and returns the largest misfit and the scale s.
 func similarityResidual(original, coords []float64) (misfit, scale float64) {
@@ -69,13 +83,7 @@ func similarityResidual(original, coords []float64) (misfit, scale float64) {
 // change (gonum's SVD is the reference). An edit the fixed boundary cannot
 // follow must give the same least-squares form by both paths.
 func TestReverseSparseMatchesDense(t *testing.T) {
-	m, axial, ext := loadedGrid(9, 8, 3)
-	d, err := Build(context.Background(), Input{Model: m, AxialForce: axial, External: ext})
-	if err != nil {
-		t.Fatal(err)
-	}
-	original := slices.Clone(m.Coords)
-	copy(m.Coords, scrambled(m, 0.2, 1))
+	m, d, original := scrambledGrid(t, 9, 8, 3)
 	defer copy(m.Coords, original)
 	redraw := func(sparse bool, points [][2]float64, fixed []bool) (*Redrawn, error) {
 		old := denseRedrawColumns
@@ -134,13 +142,7 @@ func TestReverseSparseMatchesDense(t *testing.T) {
 // (2·1,700 free coordinates, beyond the dense path) from scrambled
 // coordinates: the result must again be a dilation of the original.
 func TestReverseLargeNetwork(t *testing.T) {
-	m, axial, ext := loadedGrid(40, 40, 5)
-	d, err := Build(context.Background(), Input{Model: m, AxialForce: axial, External: ext})
-	if err != nil {
-		t.Fatal(err)
-	}
-	original := slices.Clone(m.Coords)
-	copy(m.Coords, scrambled(m, 0.2, 2))
+	m, d, original := scrambledGrid(t, 40, 40, 5)
 	r, err := Reverse(context.Background(), m, d, nil, nil)
 	if err != nil {
 		t.Fatal(err)
@@ -154,12 +156,7 @@ func TestReverseLargeNetwork(t *testing.T) {
 // members from their own diagrams, all nodes free.
 func BenchmarkReverse(b *testing.B) {
 	for _, side := range []int{18, 58, 183} {
-		m, axial, ext := loadedGrid(side, side, 1)
-		d, err := Build(context.Background(), Input{Model: m, AxialForce: axial, External: ext})
-		if err != nil {
-			b.Fatal(err)
-		}
-		copy(m.Coords, scrambled(m, 0.2, 3))
+		m, d, _ := scrambledGrid(b, side, side, 1)
 		b.Run(fmt.Sprintf("members=%d", len(m.Members)), func(b *testing.B) {
 			for b.Loop() {
 				if _, err := Reverse(context.Background(), m, d, nil, nil); err != nil {
