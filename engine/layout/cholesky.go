@@ -50,7 +50,6 @@ func (a *sparseColumns) mulTransVec(dst, y []float64) {
 // symbolic factorisation are computed once; each factorisation runs through
 // the supernodal solver of engine/sparse.
 type normalEquations struct {
-	n      int
 	matrix *sparse.Matrix
 	order  *sparse.Analysis
 	chol   *sparse.Cholesky
@@ -84,7 +83,7 @@ func newNormalEquations(a *sparseColumns, rowCoord [][2]float64) *normalEquation
 			}
 		}
 	})
-	ne := &normalEquations{n: m, matrix: matrix}
+	ne := &normalEquations{matrix: matrix}
 	var perm []int
 	if rowCoord != nil {
 		adjStart, adj := matrix.Adjacency()

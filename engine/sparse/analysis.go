@@ -77,14 +77,14 @@ func FactorizeWith(ctx context.Context, a *Matrix, an *Analysis, opt Options) (*
 		return nil, err
 	}
 	c := &Cholesky{
-		sym:        an.sym,
-		pattern:    an.pattern,
-		workers:    workers,
-		threshold:  tol,
-		regularize: opt.Regularize,
-		ownDiag:    opt.OwnDiagonal,
-		deficient1: cmp.Or(opt.DeficientPivot, 1),
-		rep:        progress.Or(opt.Reporter),
+		sym:            an.sym,
+		pattern:        an.pattern,
+		workers:        workers,
+		threshold:      tol,
+		regularize:     opt.Regularize,
+		ownDiag:        opt.OwnDiagonal,
+		deficientPivot: cmp.Or(opt.DeficientPivot, 1),
+		rep:            progress.Or(opt.Reporter),
 	}
 	if err := c.numeric(ctx, a); err != nil {
 		return nil, err

@@ -95,14 +95,14 @@ type Stats struct {
 // Cholesky is the sparse factorisation P·A·Pᵀ = L·Lᵀ of a symmetric positive
 // definite matrix A. It is safe for concurrent use by several solves.
 type Cholesky struct {
-	sym        *symbolic
-	pattern    uint64
-	workers    int
-	threshold  float64 // relative pivot tolerance
-	regularize bool
-	ownDiag    bool
-	deficient1 float64 // the value of a replaced pivot
-	rep        progress.Reporter
+	sym            *symbolic
+	pattern        uint64
+	workers        int
+	threshold      float64 // relative pivot tolerance
+	regularize     bool
+	ownDiag        bool
+	deficientPivot float64 // the value of a replaced pivot
+	rep            progress.Reporter
 
 	ok        bool // the last numeric factorisation succeeded
 	val       []float64
@@ -256,7 +256,7 @@ func (c *Cholesky) numeric(ctx context.Context, a *Matrix) error {
 		aVal:      a.Val,
 		reused:    reused,
 		threshold: c.threshold * maxDiag,
-		pivotFor:  c.deficient1,
+		pivotFor:  c.deficientPivot,
 		updates:   make([][]float64, sym.nsuper),
 		defects:   make([][]defect, sym.nsuper),
 		rep:       c.rep,
@@ -345,9 +345,9 @@ type numeric struct {
 
 // workspace is one worker's scratch space.
 type workspace struct {
-	local  []int // local position of each permuted row in the current supernode
-	rel    []int
-	backup []float64
+	local []int // local position of each permuted row in the current supernode
+	rel   []int
+	lower []float64 // a lower-triangular copy of the diagonal block
 }
 
 func newWorkspace(n int) *workspace {
@@ -613,10 +613,10 @@ func (f *numeric) factorDiagonal(w *workspace, s int, block []float64, ns, m int
 	// separators of solid 3D structures. The block keeps A until the copy
 	// is accepted, so the column-by-column path below starts from it.
 	first := f.sym.superFirst[s]
-	if cap(w.backup) < ns*ns {
-		w.backup = make([]float64, ns*ns)
+	if cap(w.lower) < ns*ns {
+		w.lower = make([]float64, ns*ns)
 	}
-	lower := w.backup[:ns*ns]
+	lower := w.lower[:ns*ns]
 	for j := 0; j < ns; j++ {
 		for t, v := range block[j*m+j : j*m+ns] {
 			lower[(j+t)*ns+j] = v

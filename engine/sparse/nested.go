@@ -17,7 +17,7 @@ const nestedLeaf = 200
 func OrderNested(a *Matrix) []int {
 	a.check()
 	n := a.N
-	vptr, vadj := fullAdjacency(a)
+	vptr, vadj := a.Adjacency()
 	group, gptr, gmem := compressGraph(n, vptr, vadj)
 	ng := len(gptr) - 1
 	cptr, cadj := compressedAdjacency(group, gptr, gmem, vptr, vadj)

@@ -10,7 +10,7 @@ import "math"
 // the same pattern always yields the same permutation.
 func Order(a *Matrix) []int {
 	a.check()
-	ptr, adj := fullAdjacency(a)
+	ptr, adj := a.Adjacency()
 	return orderGraph(a.N, ptr, adj)
 }
 
@@ -416,13 +416,10 @@ func (g *quotientGraph) finishStage(p int) {
 	g.lp = kept
 }
 
-// Adjacency returns the graph of a's off-diagonal structure, both triangles:
-// the neighbours of i are adj[ptr[i]:ptr[i+1]], for orderings of one's own.
-func (a *Matrix) Adjacency() (ptr, adj []int) { return fullAdjacency(a) }
-
-// fullAdjacency returns the graph of a's off-diagonal structure: the
-// neighbours of i are adj[ptr[i]:ptr[i+1]].
-func fullAdjacency(a *Matrix) (ptr, adj []int) {
+// Adjacency returns the graph of a's off-diagonal structure, both
+// triangles: the neighbours of i are adj[ptr[i]:ptr[i+1]]. The orderings
+// start from it, and so can a caller's own.
+func (a *Matrix) Adjacency() (ptr, adj []int) {
 	n := a.N
 	ptr = make([]int, n+1)
 	for j := 0; j < n; j++ {
