@@ -68,19 +68,23 @@ func closest(name string, allowed []string) string {
 		s = strings.ToLower(strings.NewReplacer("_", "", "-", "", " ", "").Replace(s))
 		return strings.TrimSuffix(s, "s")
 	}
+	folded := make([]string, len(allowed))
+	for i, a := range allowed {
+		folded[i] = fold(a)
+	}
+	fn := fold(name)
 	best, bestDistance := "", max(1, len([]rune(name))/3)+1
-	for _, a := range allowed {
-		if d := editDistance(fold(name), fold(a)); d < bestDistance {
-			best, bestDistance = a, d
+	for i, fa := range folded {
+		if d := editDistance(fn, fa); d < bestDistance {
+			best, bestDistance = allowed[i], d
 		}
 	}
 	if best != "" {
 		return best
 	}
-	for _, a := range allowed {
-		fn, fa := fold(name), fold(a)
+	for i, fa := range folded {
 		if len(fn) >= 3 && len(fa) >= 3 && (strings.Contains(fa, fn) || strings.Contains(fn, fa)) {
-			return a
+			return allowed[i]
 		}
 	}
 	return ""
@@ -88,7 +92,9 @@ func closest(name string, allowed []string) string {
 
 // editDistance is the Levenshtein distance between a and b (insertions,
 // deletions and substitutions of single characters; V. I. Levenshtein,
-// 1965), by the usual two-row dynamic programme.
+// 1965), by the usual two-row dynamic programme. engine/expr keeps its own
+// (with transpositions) for names in expressions: schema may not import
+// engine packages, nor they it.
 func editDistance(a, b string) int {
 	ra, rb := []rune(a), []rune(b)
 	prev := make([]int, len(rb)+1)

@@ -68,14 +68,16 @@ func minNormDense(cons []constraint, cols int) ([]float64, error) {
 // solution. Directions with σ² far below λ (1e-7 of the largest diagonal
 // entry of CᵀC) barely move: a softer cut than the dense path's (σ below
 // 1e-10 of the largest), which only nearly dependent constraints reach
-// (A. N. Tikhonov, 1963, and the
-// iterated form of its regularisation, e.g. Engl, Hanke & Neubauer,
-// "Regularization of Inverse Problems", 1996, §5.1; from memory). The
+// (A. N. Tikhonov, 1963, and the iterated form of its regularisation, e.g.
+// Engl, Hanke & Neubauer, "Regularization of Inverse Problems", 1996, §5.1;
+// from memory). The
 // normal matrix has the sparsity of the network's node adjacency, so the
 // cost grows like that of a stiffness solve of the same network.
 func minNormSparse(ctx context.Context, cons []constraint, cols int) ([]float64, error) {
 	b := sparse.NewBuilder(cols, 10*len(cons)+cols)
-	diag := make([]float64, cols)
+	for j := range cols {
+		b.Add(j, j, 0) // every diagonal entry stored, for λ below
+	}
 	for _, row := range cons {
 		// The row's nonzeros (distinct columns: a member's ends are two
 		// nodes); each unordered pair of them adds one entry of CᵀC.
@@ -92,18 +94,18 @@ func minNormSparse(ctx context.Context, cons []constraint, cols int) ([]float64,
 			for q := range p + 1 {
 				b.Add(at[p], at[q], val[p]*val[q])
 			}
-			diag[at[p]] += val[p] * val[p]
 		}
 	}
+	normal := b.Matrix()
+	// A column's first stored entry is its diagonal (rows ascend from j).
 	largest := 0.0
-	for _, d := range diag {
-		largest = math.Max(largest, d)
+	for j := range cols {
+		largest = math.Max(largest, normal.Val[normal.ColPtr[j]])
 	}
 	lambda := 1e-7 * math.Max(largest, 1e-300)
 	for j := range cols {
-		b.Add(j, j, lambda)
+		normal.Val[normal.ColPtr[j]] += lambda
 	}
-	normal := b.Matrix()
 	chol, err := sparse.Factorize(ctx, normal, sparse.Options{})
 	if err != nil {
 		if ctx.Err() != nil {

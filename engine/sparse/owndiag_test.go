@@ -6,6 +6,7 @@ import (
 	"math"
 	"testing"
 
+	"gonum.org/v1/gonum/floats"
 	"gonum.org/v1/gonum/mat"
 )
 
@@ -71,17 +72,10 @@ func TestOwnDiagonal(t *testing.T) {
 func TestDependentRows(t *testing.T) {
 	rows := [][]float64{{1, 2, 0, 1}, {0, 1, 3, -1}}
 	rows = append(rows, []float64{1, 3, 3, 0})
-	dot := func(u, v []float64) float64 {
-		s := 0.0
-		for k := range u {
-			s += u[k] * v[k]
-		}
-		return s
-	}
 	bld := NewBuilder(3, 6)
 	for i := range 3 {
 		for j := range i + 1 {
-			bld.Add(i, j, dot(rows[i], rows[j]))
+			bld.Add(i, j, floats.Dot(rows[i], rows[j]))
 		}
 	}
 	c, err := Factorize(context.Background(), bld.Matrix(), Options{Perm: []int{0, 1, 2}, OwnDiagonal: true, DeficientPivot: 1e64, Regularize: true})
@@ -97,7 +91,7 @@ func TestDependentRows(t *testing.T) {
 	if math.Abs(x[2]) > 1e-50 {
 		t.Errorf("x[2] = %g, want 0", x[2])
 	}
-	reduced := mat.NewSymDense(2, []float64{dot(rows[0], rows[0]), dot(rows[0], rows[1]), dot(rows[1], rows[0]), dot(rows[1], rows[1])})
+	reduced := mat.NewSymDense(2, []float64{floats.Dot(rows[0], rows[0]), floats.Dot(rows[0], rows[1]), floats.Dot(rows[1], rows[0]), floats.Dot(rows[1], rows[1])})
 	var want mat.VecDense
 	if err := want.SolveVec(reduced, mat.NewVecDense(2, rhs[:2])); err != nil {
 		t.Fatal(err)

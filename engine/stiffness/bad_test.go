@@ -7,6 +7,8 @@ import (
 	"strings"
 	"testing"
 
+	"gonum.org/v1/gonum/floats"
+
 	"gusset/engine/fault"
 	"gusset/engine/model"
 )
@@ -136,24 +138,24 @@ func TestSparseModesSpanTheNullSpace(t *testing.T) {
 		for _, bv := range basis {
 			w := append([]float64(nil), bv...)
 			for _, u := range q {
-				d := dotProduct(u, w)
+				d := floats.Dot(u, w)
 				for i := range w {
 					w[i] -= d * u[i]
 				}
 			}
-			n := math.Sqrt(dotProduct(w, w))
+			n := math.Sqrt(floats.Dot(w, w))
 			for i := range w {
 				w[i] /= n
 			}
 			q = append(q, w)
 		}
 		for _, u := range q {
-			d := dotProduct(u, r)
+			d := floats.Dot(u, r)
 			for i := range r {
 				r[i] -= d * u[i]
 			}
 		}
-		return math.Sqrt(dotProduct(r, r))
+		return math.Sqrt(floats.Dot(r, r))
 	}
 	for k := range 2 {
 		if r := residual(sparse[k], dense); r > 1e-8 {
@@ -163,14 +165,6 @@ func TestSparseModesSpanTheNullSpace(t *testing.T) {
 			t.Errorf("dense mode %d leaves the sparse null space by %g", k, r)
 		}
 	}
-}
-
-func dotProduct(u, v []float64) float64 {
-	s := 0.0
-	for i := range u {
-		s += u[i] * v[i]
-	}
-	return s
 }
 
 // TestDisconnected checks a second triangle that no support holds (an

@@ -197,13 +197,9 @@ func mechanismError(m *model.Model, nb *numbering, deficient []int, modes [][]fl
 			detail.Modes = append(detail.Modes, mode)
 		}
 	}
-	if len(deficient) > len(modes) && modes != nil {
-		// Freedoms beyond the modes computed are named as they are.
-		for _, eq := range deficient[len(modes):] {
-			involved[nb.freedomOf[eq]] = true
-		}
-	}
-	if len(involved) == 0 {
+	if len(involved) == 0 || len(deficient) > len(modes) {
+		// No mode moved anything, or some mechanisms have no mode: the
+		// freedoms whose pivots vanished are named as they are.
 		for _, eq := range deficient {
 			involved[nb.freedomOf[eq]] = true
 		}

@@ -144,10 +144,11 @@ func solve(ctx context.Context, m *model.Model, opt Options, an *Analysis) (*Res
 		if nb.equations <= opt.StabilityLimit {
 			return nil, mechanismError(m, nb, deficient.equations, denseModes(sys.dense(), sys.scale, len(deficient.equations)))
 		}
+		modes := sparseModes(ctx, sys, opt)
 		if err := ctx.Err(); err != nil {
 			return nil, err
 		}
-		return nil, mechanismError(m, nb, deficient.equations, sparseModes(ctx, sys, opt))
+		return nil, mechanismError(m, nb, deficient.equations, modes)
 	}
 	if err != nil {
 		return nil, err
