@@ -1,10 +1,15 @@
 package protocol
 
-// MethodTypes lists the params and result types of the engine methods, for
-// the schema generator.
-func MethodTypes() []any {
-	return []any{
-		SolveParams{}, SolveResult{}, Mechanism{},
-		ReciprocateParams{}, ReciprocateResult{}, LoadPathParams{}, LoadPathResult{}, SweepParams{}, SweepResult{}, LayoutParams{}, LayoutResult{},
-	}
-}
+// The method names on the wire. The adapter's method table
+// (cmd/gusset/adapter/table.go) pairs each with its params and result types
+// and its handler; describe, the schema's definitions and dispatch are all
+// derived from that table.
+const (
+	MethodDescribe       = "describe"
+	MethodCancel         = "cancel"
+	MethodSolve          = "solve"
+	MethodReciprocate    = "reciprocate"
+	MethodLoadPath       = "load-path"
+	MethodSweepParameter = "sweep-parameter"
+	MethodOptimiseLayout = "optimise-layout"
+)

@@ -17,6 +17,9 @@ import (
 	"gusset/protocol"
 )
 
+// ID is the published schema's $id.
+const ID = "urn:gusset:protocol:1"
+
 // Document is the published schema, embedded.
 //
 //go:embed gusset.schema.json

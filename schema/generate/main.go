@@ -9,15 +9,13 @@ import (
 	"flag"
 	"fmt"
 	"os"
-
-	"gusset/schema"
 )
 
 func main() {
 	out := flag.String("out", "gusset.schema.json", "output file")
 	dir := flag.String("protocol", ".", "directory of package protocol's source")
 	flag.Parse()
-	b, err := schema.Generate(*dir)
+	b, err := Generate(*dir)
 	if err != nil {
 		fmt.Fprintln(os.Stderr, err)
 		os.Exit(1)

@@ -6,7 +6,6 @@ import (
 	"encoding/json"
 	"errors"
 	"fmt"
-	"sort"
 	"strings"
 
 	"gusset/engine/fault"
@@ -18,20 +17,6 @@ import (
 // Caution is carried by every result a person might build from.
 const Caution = "Preliminary design aid: a qualified engineer must check the design against the local codes and standards."
 
-// entry is one engine method: its description and handler.
-type entry struct {
-	method  protocol.Method
-	handler func(a *Adapter) protocol.Handler
-}
-
-// registry lists the engine methods; each method's file adds itself with
-// register.
-var registry []entry
-
-func register(m protocol.Method, handler func(a *Adapter) protocol.Handler) {
-	registry = append(registry, entry{method: m, handler: handler})
-}
-
 // Adapter holds the limits the handlers enforce and the schema validator.
 type Adapter struct {
 	Limits    protocol.Limits
@@ -42,25 +27,18 @@ type Adapter struct {
 // of params and the mapping of engine errors to wire codes.
 func Register(s *protocol.Server) error {
 	s.Limits = s.Limits.WithDefaults()
-	// Methods are listed in the order a newcomer meets them.
-	order := map[string]int{"solve": 0, "reciprocate": 1, "load-path": 2, "sweep-parameter": 3, "optimise-layout": 4}
-	sort.SliceStable(registry, func(i, j int) bool { return order[registry[i].method.Name] < order[registry[j].method.Name] })
-	params := map[string]string{"cancel": "CancelParams", "describe": "DescribeParams"}
-	for _, e := range registry {
-		params[e.method.Name] = e.method.Params
-	}
-	v, err := schema.NewValidator(params)
+	v, err := schema.NewValidator(paramsDefinitions())
 	if err != nil {
 		return err
 	}
 	a := &Adapter{Limits: s.Limits, validator: v}
-	for _, e := range registry {
-		s.Handle(e.method, e.handler(a))
+	for _, e := range methods {
+		s.Handle(e.describe(), e.bind(a))
 	}
 	// Engine methods validate their params in decode; the server checks
 	// only the small params of its own methods.
 	s.Validate = func(method string, params json.RawMessage) *protocol.Error {
-		if method == "cancel" || method == "describe" {
+		if method == protocol.MethodCancel || method == protocol.MethodDescribe {
 			return v.ValidateFull(method, params)
 		}
 		return nil

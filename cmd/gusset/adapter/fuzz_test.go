@@ -24,18 +24,14 @@ func FuzzMethodParams(f *testing.F) {
 	for _, r := range transcriptRequests(f) {
 		f.Add(r.Method, []byte(r.Params))
 	}
-	params := map[string]string{}
-	for _, e := range registry {
-		params[e.method.Name] = e.method.Params
-	}
-	v, err := schema.NewValidator(params)
+	v, err := schema.NewValidator(paramsDefinitions())
 	if err != nil {
 		f.Fatal(err)
 	}
 	a := &Adapter{Limits: protocol.Limits{}.WithDefaults(), validator: v}
 	handlers := map[string]protocol.Handler{}
-	for _, e := range registry {
-		handlers[e.method.Name] = e.handler(a)
+	for _, e := range methods {
+		handlers[e.name] = e.bind(a)
 	}
 	ctx, cancel := context.WithCancel(context.Background())
 	cancel()

@@ -3,7 +3,6 @@ package adapter
 import (
 	"bytes"
 	"context"
-	"encoding/json"
 	"fmt"
 
 	"gusset/engine/layout"
@@ -11,21 +10,13 @@ import (
 	"gusset/protocol"
 )
 
-func init() {
-	register(protocol.Method{Name: "optimise-layout", Params: "LayoutParams", Result: "LayoutResult",
-		Summary: "The least-volume pin-jointed layout over a design domain by the ground-structure method with member adding, returned as a model ready for analysis."},
-		func(a *Adapter) protocol.Handler { return a.optimiseLayout })
-}
-
 // defaultModulus is steel's Young's modulus in kN/m², the default for the
 // returned model.
 const defaultModulus = 2.1e8
 
-func (a *Adapter) optimiseLayout(ctx context.Context, params json.RawMessage, st protocol.Stream) (any, error) {
-	var p protocol.LayoutParams
-	if err := a.decode("optimise-layout", params, &p); err != nil {
-		return nil, err
-	}
+// optimiseLayout finds the least-volume layout the request describes.
+func (a *Adapter) optimiseLayout(ctx context.Context, r *request[protocol.LayoutParams]) (*protocol.LayoutResult, error) {
+	p, st := r.Params, r.Stream
 	prob := layout.Problem{Level: p.Connectivity, TensionLimit: p.TensionLimit, CompressionLimit: p.CompressionLimit, JointCost: p.JointCost}
 	switch p.Mode {
 	case "together":

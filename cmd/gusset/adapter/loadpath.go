@@ -2,7 +2,6 @@ package adapter
 
 import (
 	"context"
-	"encoding/json"
 	"errors"
 	"fmt"
 
@@ -12,21 +11,9 @@ import (
 	"gusset/protocol"
 )
 
-func init() {
-	register(protocol.Method{Name: "load-path", Params: "LoadPathParams", Result: "LoadPathResult",
-		Summary: "Maxwell's load path and theorem residual, member sizing, volume, mass and embodied carbon, enveloped over cases."},
-		func(a *Adapter) protocol.Handler { return a.loadPath })
-}
-
-func (a *Adapter) loadPath(ctx context.Context, params json.RawMessage, st protocol.Stream) (any, error) {
-	var p protocol.LoadPathParams
-	m, err := a.decodeModel(ctx, "load-path", params, &p, &p.Model)
-	if err != nil {
-		return nil, err
-	}
-	if err := checkCases(m, p.Cases, "/params/cases"); err != nil {
-		return nil, err
-	}
+// loadPath computes the load path and quantities of the request's model.
+func (a *Adapter) loadPath(ctx context.Context, r *request[protocol.LoadPathParams]) (*protocol.LoadPathResult, error) {
+	p, m, st := r.Params, r.Model, r.Stream
 	var cases []loadpath.Case
 	if p.Forces != nil {
 		c, err := givenForcesCase(m, p.Forces, p.Cases)

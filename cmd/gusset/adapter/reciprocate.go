@@ -3,7 +3,6 @@ package adapter
 import (
 	"bytes"
 	"context"
-	"encoding/json"
 	"fmt"
 
 	"gusset/engine/fault"
@@ -14,18 +13,9 @@ import (
 	"gusset/protocol"
 )
 
-func init() {
-	register(protocol.Method{Name: "reciprocate", Params: "ReciprocateParams", Result: "ReciprocateResult",
-		Summary: "The reciprocal force diagram of a planar network in Bow's notation, its closure and its Airy stress function; with edit, the form that fits an edited force diagram."},
-		func(a *Adapter) protocol.Handler { return a.reciprocate })
-}
-
-func (a *Adapter) reciprocate(ctx context.Context, params json.RawMessage, st protocol.Stream) (any, error) {
-	var p protocol.ReciprocateParams
-	m, err := a.decodeModel(ctx, "reciprocate", params, &p, &p.Model)
-	if err != nil {
-		return nil, err
-	}
+// reciprocate draws the reciprocal force diagram of the request's model.
+func (a *Adapter) reciprocate(ctx context.Context, r *request[protocol.ReciprocateParams]) (*protocol.ReciprocateResult, error) {
+	p, m, st := r.Params, r.Model, r.Stream
 	if m.Dim != 2 {
 		return nil, protocol.NewError(fault.WrongDimension.Code(), fault.WrongDimension.String(),
 			"Reciprocal diagrams are drawn for planar networks: the model has dimension 3. Send a 2D model.",
@@ -38,7 +28,7 @@ func (a *Adapter) reciprocate(ctx context.Context, params json.RawMessage, st pr
 			return nil, e
 		}
 	}
-	in, label, err := a.diagramInput(ctx, m, &p, st)
+	in, label, err := a.diagramInput(ctx, m, p, st)
 	if err != nil {
 		return nil, err
 	}

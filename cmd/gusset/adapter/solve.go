@@ -2,7 +2,6 @@ package adapter
 
 import (
 	"context"
-	"encoding/json"
 	"errors"
 	"fmt"
 	"math"
@@ -13,26 +12,13 @@ import (
 	"gusset/protocol"
 )
 
-func init() {
-	register(protocol.Method{Name: "solve", Params: "SolveParams", Result: "SolveResult",
-		Summary: "Linear-elastic stiffness analysis: displacements, axial and end forces, reactions, stresses, utilisation and the stability report."},
-		func(a *Adapter) protocol.Handler { return a.solve })
-}
-
-func (a *Adapter) solve(ctx context.Context, params json.RawMessage, st protocol.Stream) (any, error) {
-	var p protocol.SolveParams
-	m, err := a.decodeModel(ctx, "solve", params, &p, &p.Model)
+// solve runs the stiffness analysis of the request's model.
+func (a *Adapter) solve(ctx context.Context, r *request[protocol.SolveParams]) (*protocol.SolveResult, error) {
+	res, err := a.analyse(ctx, r.Model, r.Params.Cases, r.Stream)
 	if err != nil {
 		return nil, err
 	}
-	if err := checkCases(m, p.Cases, "/params/cases"); err != nil {
-		return nil, err
-	}
-	r, err := a.analyse(ctx, m, p.Cases, st)
-	if err != nil {
-		return nil, err
-	}
-	return solveResult(m, r), nil
+	return solveResult(r.Model, res), nil
 }
 
 // analyse runs the stiffness solve and locates its errors in the request.

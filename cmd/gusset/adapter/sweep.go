@@ -2,7 +2,6 @@ package adapter
 
 import (
 	"context"
-	"encoding/json"
 	"errors"
 	"fmt"
 	"math"
@@ -14,21 +13,9 @@ import (
 	"gusset/protocol"
 )
 
-func init() {
-	register(protocol.Method{Name: "sweep-parameter", Params: "SweepParams", Result: "SweepResult",
-		Summary: "Varies one or two parameters, streams every step's metrics, and refines the best step to an optimum (Brent's method; Nelder–Mead for two)."},
-		func(a *Adapter) protocol.Handler { return a.sweep })
-}
-
-func (a *Adapter) sweep(ctx context.Context, params json.RawMessage, st protocol.Stream) (any, error) {
-	var p protocol.SweepParams
-	m, err := a.decodeModel(ctx, "sweep-parameter", params, &p, &p.Model)
-	if err != nil {
-		return nil, err
-	}
-	if err := checkCases(m, p.Cases, "/params/cases"); err != nil {
-		return nil, err
-	}
+// sweep runs the parameter sweep of the request's model.
+func (a *Adapter) sweep(ctx context.Context, r *request[protocol.SweepParams]) (*protocol.SweepResult, error) {
+	p, m, st := r.Params, r.Model, r.Stream
 	plan := sweep.Plan{Workers: a.Limits.Workers, MaxSteps: a.Limits.MaxSweepSteps}
 	names := make([]string, len(p.Parameters))
 	for i, axis := range p.Parameters {

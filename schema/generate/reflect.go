@@ -1,4 +1,4 @@
-package schema
+package main
 
 import (
 	"bytes"
@@ -8,21 +8,20 @@ import (
 
 	"github.com/invopop/jsonschema"
 
+	"gusset/cmd/gusset/adapter"
 	"gusset/protocol"
+	"gusset/schema"
 )
 
-// ID is the published schema's $id.
-const ID = "urn:gusset:protocol:1"
-
 // Definitions lists the types whose definitions the schema publishes, by
-// the name they get in $defs: the envelope, and the params and result of
-// every method.
+// the name they get in $defs: the envelope, the transport's own methods,
+// and the params and result of every method of the adapter's method table.
 func Definitions() []any {
 	return append([]any{
 		protocol.Request{}, protocol.Response{}, protocol.Notification{}, protocol.Progress{},
 		protocol.DescribeParams{}, protocol.DescribeResult{},
 		protocol.CancelParams{}, protocol.CancelResult{},
-	}, protocol.MethodTypes()...)
+	}, adapter.SchemaTypes()...)
 }
 
 // Generate reflects the protocol types into the schema document. protocolDir
@@ -35,7 +34,7 @@ func Generate(protocolDir string) ([]byte, error) {
 	}
 	root := &jsonschema.Schema{
 		Version:     jsonschema.Version,
-		ID:          ID,
+		ID:          schema.ID,
 		Title:       "Gusset wire protocol",
 		Description: "JSON-RPC 2.0 messages, one per line, exchanged with the gusset solver process. Each method's params and result are definitions in $defs (see the describe method for which is which). Results are for preliminary design: a qualified engineer checks the design against the local codes and standards.",
 		Ref:         "#/$defs/Request",
