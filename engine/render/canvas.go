@@ -26,32 +26,6 @@ type Options struct {
 	ForceLabels bool
 }
 
-// Colours and dash patterns of the style (our own).
-const (
-	tensionColour     = "#1f5fa8"
-	compressionColour = "#b8322a"
-	zeroColour        = "#8a8a8a"
-	externalColour    = "#2e7d32"
-	inkColour         = "#222222"
-	compressionDash   = "8 4"
-	zeroDash          = "1.5 3"
-)
-
-// styleSheet is the CSS of every picture.
-const styleSheet = `
-text { font-family: "DejaVu Sans", Arial, sans-serif; fill: ` + inkColour + `; }
-.title { font-size: 15px; font-weight: bold; }
-.small { font-size: 11px; }
-.label { font-size: 12px; paint-order: stroke; stroke: #ffffff; stroke-width: 3px; stroke-linejoin: round; }
-.space { font-weight: bold; }
-.tension { stroke: ` + tensionColour + `; fill: none; stroke-linecap: round; }
-.compression { stroke: ` + compressionColour + `; fill: none; stroke-dasharray: ` + compressionDash + `; }
-.zero { stroke: ` + zeroColour + `; fill: none; stroke-dasharray: ` + zeroDash + `; stroke-linecap: round; }
-.external { stroke: ` + externalColour + `; fill: none; }
-.frame { stroke: #d0d0d0; fill: none; }
-.bar { stroke: #444444; fill: none; }
-`
-
 // canvas accumulates SVG elements and remembers the first write error.
 type canvas struct {
 	w   *bufio.Writer
@@ -73,9 +47,8 @@ func newCanvas(w io.Writer, width, height float64) *canvas {
 	c.printf(`<?xml version="1.0" encoding="UTF-8"?>`+"\n"+
 		`<svg xmlns="http://www.w3.org/2000/svg" width="%s" height="%s" viewBox="0 0 %s %s">`+"\n",
 		num(width), num(height), num(width), num(height))
-	c.printf("<style>%s</style>\n", styleSheet)
-	c.printf(`<defs><marker id="arrow" viewBox="0 0 10 10" refX="9" refY="5" markerWidth="7" markerHeight="7" orient="auto-start-reverse">`+
-		`<path d="M0,0 L10,5 L0,10 z" fill="%s"/></marker></defs>`+"\n", externalColour)
+	c.printf("<style>%s</style>\n", StyleSheet)
+	c.printf("%s\n", markerDefs)
 	c.printf(`<rect width="100%%" height="100%%" fill="#ffffff"/>` + "\n")
 	return c
 }
@@ -251,9 +224,9 @@ func senseClass(t, tol float64) string {
 // legend draws the key of line styles with units, and returns the y below it.
 func (c *canvas) legend(x, y float64, forceUnit, lengthUnit string, withExternal bool) float64 {
 	items := []struct{ class, text string }{
-		{"tension", "Tension (axial force > 0), " + forceUnit},
-		{"compression", "Compression (axial force < 0), " + forceUnit},
-		{"zero", "Zero force"},
+		{"tension", "Tension (axial force > 0), continuous"},
+		{"compression", "Compression (axial force < 0), dash-dot"},
+		{"zero", "Zero force, dotted"},
 	}
 	for k, it := range items {
 		xx := x + float64(k)*250
@@ -262,8 +235,10 @@ func (c *canvas) legend(x, y float64, forceUnit, lengthUnit string, withExternal
 	}
 	y += 20
 	if withExternal {
-		c.line(x, y, x+36, y, "external", 2, ` marker-end="url(#arrow)"`)
-		c.text(x+44, y+4, "External force (load or reaction), "+forceUnit, "small", "start")
+		c.line(x, y, x+36, y, "load", 2, ` marker-end="url(#arrow)"`)
+		c.text(x+44, y+4, "Load, "+forceUnit, "small", "start")
+		c.line(x+250, y, x+286, y, "reaction", 2, ` marker-end="url(#arrow-reaction)"`)
+		c.text(x+294, y+4, "Reaction (open head), "+forceUnit, "small", "start")
 		y += 20
 	}
 	c.text(x, y+4, "Lengths in "+lengthUnit+", forces in "+forceUnit+"; tension positive. Line width in the form diagram grows with |axial force|.", "small", "start")
@@ -287,4 +262,36 @@ func unitOr(s, def string) string {
 		return def
 	}
 	return s
+}
+
+// support draws the symbol of a support at the node drawn at (x, y): a
+// clamp (the in-plane rotation held) as a hatched block beside the node, a
+// pin (both directions held) as a triangle on a hatched ground line, and a
+// roller (one direction held) as a triangle on a line set off by a gap,
+// turned to push along the held direction. held names the held components
+// (model.X, model.Y, model.RZ). The symbols follow textbook practice
+// (common practice) and are drawn in InkColour.
+func (c *canvas) support(x, y float64, held [6]bool) {
+	hatch := func(x0, y0, x1 float64) {
+		c.line(x0, y0, x1, y0, "hatch", 1.3, "")
+		for hx := x0 + 3; hx <= x1; hx += 4 {
+			c.line(hx, y0, hx-4, y0+4, "hatch", 0.9, "")
+		}
+	}
+	switch {
+	case held[5] && held[0] && held[1]: // clamp
+		c.printf(`<rect x="%s" y="%s" width="16" height="7" class="support"/>`+"\n", num(x-8), num(y+3))
+		hatch(x-9, y+10, x+9)
+	case held[0] && held[1]: // pin
+		c.printf(`<path d="M%s,%s L%s,%s L%s,%s z" class="support"/>`+"\n", num(x), num(y+3), num(x-7), num(y+14), num(x+7), num(y+14))
+		hatch(x-10, y+14, x+10)
+	case held[1]: // roller, holding y
+		c.printf(`<path d="M%s,%s L%s,%s L%s,%s z" class="support"/>`+"\n", num(x), num(y+3), num(x-7), num(y+13), num(x+7), num(y+13))
+		c.line(x-10, y+16, x+10, y+16, "hatch", 1.3, "")
+	case held[0]: // roller, holding x
+		c.printf(`<path d="M%s,%s L%s,%s L%s,%s z" class="support"/>`+"\n", num(x-3), num(y), num(x-13), num(y-7), num(x-13), num(y+7))
+		c.line(x-16, y-10, x-16, y+10, "hatch", 1.3, "")
+	default: // springs or a held rotation alone: a small open square
+		c.printf(`<rect x="%s" y="%s" width="8" height="8" class="support"/>`+"\n", num(x-4), num(y+3))
+	}
 }

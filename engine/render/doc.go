@@ -1,12 +1,16 @@
-// Package render draws structural diagrams as SVG: the form and force
-// diagrams of a reciprocal pair side by side (FormAndForce) and a form
-// diagram alone coloured by axial force (Form).
+// Package render draws structural diagrams and charts as SVG: the form and
+// force diagrams of a reciprocal pair side by side (FormAndForce), a form
+// diagram alone coloured by axial force (Form), a solved model's deflected
+// shape and member forces (Solved), and line charts of sweeps (Chart).
 //
-// The visual style is our own. Tension and compression are told apart both
-// by colour and by line style: tension is a solid blue line, compression a
-// dashed red line, a zero-force member a dotted grey line; external forces
-// (loads and reactions) are green arrows. Every picture carries a legend
-// with the units, a scale bar per diagram and a caption with the caution
-// that it is a preliminary design aid that a qualified engineer must check
-// against the local codes and standards.
+// The visual language is our own and is defined once, in style.go, for
+// every picture: tension is a continuous deep-indigo line, compression a
+// dash-dot amber line, a zero-force member a dotted light-grey line; loads
+// are teal arrows with filled heads, reactions near-black arrows with open
+// heads; supports are drawn with textbook symbols. The colours stay apart
+// in greyscale and under simulated protanopia, deuteranopia and
+// tritanopia (style_test.go). Every picture carries a legend with the
+// units, a scale bar per diagram and a caption with the caution that it is
+// a preliminary design aid that a qualified engineer must check against
+// the local codes and standards.
 package render

@@ -106,8 +106,7 @@ func (s *formScene) draw(c *canvas, f frame, forceLabels bool) {
 	}
 	for _, sp := range m.Supports {
 		x, y := f.x(node(m, sp.Node)[0]), f.y(node(m, sp.Node)[1])
-		c.printf(`<path d="M%s,%s L%s,%s L%s,%s z" fill="none" stroke="#444444" stroke-width="1.3"/>`+"\n",
-			num(x), num(y+3), num(x-7), num(y+14), num(x+7), num(y+14))
+		c.support(x, y, sp.Fixed)
 	}
 	for v := range m.NodeCount() {
 		p := node(m, v)
@@ -195,9 +194,9 @@ func panelHeight(pw float64, b box) float64 {
 // legendCompact is the legend stacked in one column, for narrow pictures.
 func (c *canvas) legendCompact(x, y float64, forceUnit, lengthUnit string) float64 {
 	items := []struct{ class, text string }{
-		{"tension", "Tension (axial force > 0), " + forceUnit},
-		{"compression", "Compression (axial force < 0), " + forceUnit},
-		{"zero", "Zero force"},
+		{"tension", "Tension (axial force > 0, " + forceUnit + "), continuous"},
+		{"compression", "Compression (axial force < 0, " + forceUnit + "), dash-dot"},
+		{"zero", "Zero force, dotted"},
 	}
 	for _, it := range items {
 		c.line(x, y, x+36, y, it.class, 2.5, "")

@@ -15,10 +15,11 @@ import (
 // force diagram side by side, both labelled in Bow's notation: the letters
 // of the spaces and the numbers of the inner faces sit in the form's faces
 // and at the matching points of the force diagram. Members and their
-// segments are styled by sense (tension solid blue, compression dashed red,
-// zero dotted grey; the form uses the given sign, the force diagram the
-// sense read from it); external forces are green arrows in the form and
-// the load line, with arrowheads, in the force diagram. Each diagram has a
+// segments are styled by sense in the style of style.go (tension a
+// continuous indigo line, compression a dash-dot amber line, zero a dotted
+// grey line; the form uses the given sign, the force diagram the sense read
+// from it); external forces are teal arrows in the form and the load line,
+// with arrowheads, in the force diagram. Each diagram has a
 // scale bar (model length unit, model force unit), and the caption carries
 // the legend, the closure error and the caution. m must be the model d was
 // built from. It returns the first write error.

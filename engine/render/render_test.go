@@ -88,7 +88,7 @@ func TestFormAndForce(t *testing.T) {
 	}
 	text := parseSVG(t, buf.Bytes())
 	for _, want := range []string{
-		Caution, "Tension", "Compression", "Zero force", "External force",
+		Caution, "Tension", "Compression", "Zero force", "Load, kN", "Reaction",
 		"kN", "Form diagram", "Force diagram",
 	} {
 		if !strings.Contains(text, want) {
