@@ -55,4 +55,10 @@ type Options struct {
 	// solves) and its warning: Stats.ConditionNumber is then 0. Sweeps,
 	// which keep only metrics, set it.
 	SkipCondition bool
+	// Stations is the number of evenly spaced stations (both ends
+	// included) at which each beam's internal forces and displacements are
+	// reported in CaseResult.Members; 0 means DefaultStations and a
+	// negative value none. The exact extremes along each member are found
+	// whatever the stations.
+	Stations int
 }

@@ -10,7 +10,7 @@ import (
 // recoverCase turns the displacements u (every global freedom) into the
 // case's results, sharing the members of a large model among up to workers
 // goroutines.
-func recoverCase(m *model.Model, nb *numbering, sys *system, ls *loadSet, u []float64, workers int) (*CaseResult, error) {
+func recoverCase(m *model.Model, nb *numbering, sys *system, ls *loadSet, u []float64, workers, stations int) (*CaseResult, error) {
 	_, rotational := m.DOFsPerNode()
 	cr := &CaseResult{
 		Displacements: make([][]float64, m.NodeCount()),
@@ -20,6 +20,7 @@ func recoverCase(m *model.Model, nb *numbering, sys *system, ls *loadSet, u []fl
 		Reactions:     make([]Reaction, len(m.Supports)),
 		Stress:        make([]float64, len(m.Members)),
 		Utilisation:   make([]float64, len(m.Members)),
+		Members:       make([]MemberResult, len(m.Members)),
 		LoadSum:       make([]float64, m.Dim),
 		ReactionSum:   make([]float64, m.Dim),
 	}
@@ -41,6 +42,7 @@ func recoverCase(m *model.Model, nb *numbering, sys *system, ls *loadSet, u []fl
 	for e := range m.Members {
 		cr.EndForces[e] = ends[endOff[e]:endOff[e+1]:endOff[e+1]]
 	}
+	layoutStations(m, cr, stations)
 	// nodeForce gathers Σ over members of the forces the members receive
 	// from each freedom (global axes); equivalent gathers the equivalent
 	// nodal loads of the member loads. Both are summed in member order
@@ -49,9 +51,10 @@ func recoverCase(m *model.Model, nb *numbering, sys *system, ls *loadSet, u []fl
 	equivalent := make([]float64, nb.total)
 	if workers <= 1 || len(m.Members) < recoverParallel {
 		var el element
+		var sc memberScratch
 		var fg, fe [12]float64
 		for e := range m.Members {
-			loaded := recoverMember(m, nb, ls, u, cr, e, &el, fg[:], fe[:])
+			loaded := recoverMember(m, nb, ls, u, cr, e, &el, &sc, fg[:], fe[:])
 			for i := range el.size {
 				nodeForce[el.dofs[i]] += fg[i]
 				if loaded {
@@ -69,8 +72,9 @@ func recoverCase(m *model.Model, nb *numbering, sys *system, ls *loadSet, u []fl
 		chunks := (len(m.Members) + chunk - 1) / chunk
 		_ = parallel(workers, chunks, func(c int) error {
 			var el element
+			var sc memberScratch
 			for e := c * chunk; e < min((c+1)*chunk, len(m.Members)); e++ {
-				loaded[e] = recoverMember(m, nb, ls, u, cr, e, &el, fg[12*e:12*e+12], fe[12*e:12*e+12])
+				loaded[e] = recoverMember(m, nb, ls, u, cr, e, &el, &sc, fg[12*e:12*e+12], fe[12*e:12*e+12])
 			}
 			return nil
 		}, nil)
@@ -172,6 +176,7 @@ func recoverCase(m *model.Model, nb *numbering, sys *system, ls *loadSet, u []fl
 	} else if resid > 0 {
 		cr.Residual = math.Sqrt(resid)
 	}
+	summarise(m, cr)
 	if !cr.finite() {
 		return nil, fault.New(fault.Unstable, "the solution is not finite: the stiffness matrix is numerically singular")
 	}
@@ -186,7 +191,7 @@ const recoverParallel = 8192
 // which has its length), axial force, stress and utilisation into cr, the forces it exerts on its freedoms (global axes)
 // into fg and, when it carries member loads (the result), their equivalent
 // nodal loads into fe; el is scratch space.
-func recoverMember(m *model.Model, nb *numbering, ls *loadSet, u []float64, cr *CaseResult, e int, el *element, fg, fe []float64) bool {
+func recoverMember(m *model.Model, nb *numbering, ls *loadSet, u []float64, cr *CaseResult, e int, el *element, sc *memberScratch, fg, fe []float64) bool {
 	var ug, ul, p, fl [12]float64
 	el.build(m, nb, e)
 	n := el.size
@@ -206,7 +211,13 @@ func recoverMember(m *model.Model, nb *numbering, ls *loadSet, u []float64, cr *
 	copy(cr.EndForces[e], p[:n])
 	cr.AxialForce[e] = -p[0]
 	el.toGlobal(fg, p[:])
-	sec := m.Sections[m.Members[e].Section]
+	sec := &m.Sections[m.Members[e].Section]
+	if el.beam {
+		sc.loading.gather(ls, m, el, e, loaded)
+		alongBeam(&cr.Members[e], el, sec, m.Materials[m.Members[e].Material].ElasticModulus, p[:n], ul[:n], &sc.loading, &sc.field)
+	} else {
+		alongBar(&cr.Members[e], el, p[:n], cr.Displacements[m.Members[e].Ends[0]], cr.Displacements[m.Members[e].Ends[1]])
+	}
 	cr.Stress[e] = cr.AxialForce[e] / sec.Area
 	cr.Utilisation[e] = utilisation(m, e, cr.AxialForce[e])
 	return loaded
@@ -302,6 +313,11 @@ func (cr *CaseResult) finite() bool {
 	}
 	for _, r := range cr.Reactions {
 		if !finite(r.Force) || !finite(r.Moment) {
+			return false
+		}
+	}
+	for e := range cr.Members {
+		if !cr.Members[e].finite() {
 			return false
 		}
 	}

@@ -74,6 +74,16 @@ type CaseResult struct {
 	LoadSum      []float64
 	ReactionSum  []float64
 	BalanceError float64
+	// Members holds per member its results along its length: internal
+	// forces and displacements at the stations, and exact extremes.
+	Members []MemberResult
+	// MaxDisplacement is the largest translation magnitude anywhere, at
+	// the nodes and inside the members (length units).
+	MaxDisplacement Peak
+	// MaxMoment is the bending moment of largest magnitude in any member
+	// (signed; about local z, or local y in 3D where that is larger), with
+	// Node −1; Member is −1 when no member is a beam.
+	MaxMoment Peak
 }
 
 // Stats describes a solve.

@@ -208,7 +208,7 @@ func solve(ctx context.Context, m *model.Model, opt Options, an *Analysis) (*Res
 				u[f] = nb.prescribed[f]
 			}
 		}
-		cr, err := recoverCase(m, nb, sys, newLoadSet(m, nb, rq.terms), u, inner)
+		cr, err := recoverCase(m, nb, sys, newLoadSet(m, nb, rq.terms), u, inner, stationCount(opt.Stations))
 		if err != nil {
 			return err
 		}

@@ -1,0 +1,127 @@
+package stiffness
+
+import "math"
+
+// maxDegree is the largest polynomial degree the root finder takes: the
+// derivative of a squared quintic deflection.
+const maxDegree = 10
+
+// polyEval returns Σ c[k]·s^k by Horner's rule.
+func polyEval(c []float64, s float64) float64 {
+	var v float64
+	for k := len(c) - 1; k >= 0; k-- {
+		v = v*s + c[k]
+	}
+	return v
+}
+
+// polyDerivative writes the coefficients of p′ into dst and returns them.
+func polyDerivative(dst *[maxDegree + 1]float64, c []float64) []float64 {
+	if len(c) <= 1 {
+		return dst[:0]
+	}
+	for k := 1; k < len(c); k++ {
+		dst[k-1] = float64(k) * c[k]
+	}
+	return dst[:len(c)-1]
+}
+
+// trimZeros drops exactly zero leading coefficients.
+func trimZeros(c []float64) []float64 {
+	for len(c) > 0 && c[len(c)-1] == 0 {
+		c = c[:len(c)-1]
+	}
+	return c
+}
+
+// realRoots appends to dst the real roots of Σ c[k]·s^k that lie strictly
+// inside (lo, hi) and at which the polynomial changes sign, in increasing
+// order. The roots of p′ split the interval into pieces on which p is
+// monotone (found the same way, recursively); each piece whose ends differ
+// in sign holds exactly one root, found by safeguarded Newton steps. The
+// answer is exact to round-off for the degrees used here (at most
+// maxDegree); a root of even multiplicity (a touch, not a crossing) is not
+// reported, which is what extreme-value searches want: such a point of p′
+// is an inflection, not an extreme, of p.
+func realRoots(dst []float64, c []float64, lo, hi float64) []float64 {
+	c = trimZeros(c)
+	switch len(c) {
+	case 0, 1:
+		return dst
+	case 2:
+		if s := -c[0] / c[1]; s > lo && s < hi {
+			dst = append(dst, s)
+		}
+		return dst
+	case 3:
+		return quadraticRoots(dst, c[0], c[1], c[2], lo, hi)
+	}
+	var d [maxDegree + 1]float64
+	deriv := polyDerivative(&d, c)
+	var cbuf [maxDegree]float64
+	critical := realRoots(cbuf[:0], deriv, lo, hi)
+	a, fa := lo, polyEval(c, lo)
+	for i := 0; i <= len(critical); i++ {
+		b := hi
+		if i < len(critical) {
+			b = critical[i]
+		}
+		fb := polyEval(c, b)
+		if fa != 0 && fb != 0 && (fa < 0) != (fb < 0) {
+			dst = append(dst, monotoneRoot(c, deriv, a, b, fa))
+		} else if fb == 0 && b < hi {
+			dst = append(dst, b)
+		}
+		a, fa = b, fb
+	}
+	return dst
+}
+
+// quadraticRoots appends the roots of c0 + c1·s + c2·s² inside (lo, hi),
+// computed in the cancellation-free form (Press et al., Numerical Recipes,
+// 3rd ed., 2007, §5.6, eq. 5.6.4–5.6.5).
+func quadraticRoots(dst []float64, c0, c1, c2, lo, hi float64) []float64 {
+	disc := c1*c1 - 4*c2*c0
+	if disc <= 0 {
+		return dst // no roots, or a double root (a touch, no sign change)
+	}
+	q := -0.5 * (c1 + math.Copysign(math.Sqrt(disc), c1))
+	r1, r2 := q/c2, c0/q
+	if r1 > r2 {
+		r1, r2 = r2, r1
+	}
+	for _, r := range [2]float64{r1, r2} {
+		if r > lo && r < hi {
+			dst = append(dst, r)
+		}
+	}
+	return dst
+}
+
+// monotoneRoot finds the one root of the polynomial c (derivative deriv) on
+// [a, b], where it is monotone and p(a) = fa has the opposite sign of p(b):
+// Newton steps kept inside the shrinking bracket, a bisection whenever a
+// step leaves it (Press et al., Numerical Recipes, 2007, §9.4, rtsafe).
+func monotoneRoot(c, deriv []float64, a, b, fa float64) float64 {
+	x := 0.5 * (a + b)
+	for range 100 {
+		f := polyEval(c, x)
+		if f == 0 {
+			return x
+		}
+		if (f < 0) == (fa < 0) {
+			a = x
+		} else {
+			b = x
+		}
+		next := x - f/polyEval(deriv, x)
+		if !(next > a && next < b) {
+			next = 0.5 * (a + b)
+		}
+		if math.Abs(next-x) <= 1e-15*math.Max(math.Abs(a), math.Abs(b)) || b-a <= 4e-16*math.Max(math.Abs(a), math.Abs(b)) {
+			return next
+		}
+		x = next
+	}
+	return x
+}
