@@ -8,8 +8,9 @@
 // plus; parentheses; and the functions sqrt, sin, cos, tan, abs (one
 // argument), atan2(y, x) and min, max (one or more arguments). Angles are
 // in radians. ^ binds tighter than unary minus and associates to the
-// right, as in mathematics: −2^2 = −4 and 2^3^2 = 2^9 = 512. Whitespace is
-// ignored.
+// right, as in mathematics: −2^2 = −4 and 2^3^2 = 2^9 = 512. Spaces, tabs
+// and line breaks are ignored; any other control character is an error.
+// A source holds at most MaxLength bytes and nests at most 200 levels.
 //
 // Compile reports a *SyntaxError with a byte offset, or a *NameError for
 // an unknown parameter or function (with the close candidates). Eval never

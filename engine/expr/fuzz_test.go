@@ -15,7 +15,7 @@ func FuzzCompile(f *testing.F) {
 	for _, seed := range []string{
 		"1", "1e-3", "-2^2", "2^3^2", "depth*2", "sqrt(depth^2+(span/n)^2)",
 		"atan2(depth, span)", "min(1,2,3)", "max(depth)", "1/0", "sqrt(-1)",
-		"2*(depth", "dpeth", "foo(1)", "((((1))))", "pi*span", "- -+-1", "1e400", "10^400",
+		"2*(depth", "dpeth", "foo(1)", "((((1))))", "pi*span", "- -+-1", "1e400", "10^400", "3\x00)))garbage", "1+\x7f", "((1))+2+3+4+5+6+7+8+9",
 		".5e+1", "abs(-0)", "tan(pi/2)", "span/-0",
 	} {
 		f.Add(seed)

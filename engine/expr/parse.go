@@ -1,28 +1,33 @@
 package expr
 
 import (
+	"fmt"
 	"strconv"
 )
 
-// node is an abstract syntax tree node.
-type node struct {
-	op    opcode
-	value float64 // opConst
-	param int     // opParam
-	args  []*node
-	pos   int
-}
+// MaxLength is the longest expression source Compile accepts, in bytes.
+// It bounds the work and memory of one expression (compiling allocates at
+// most a few times its length) far above any expression a person or a
+// parametric host writes.
+const MaxLength = 1 << 16
 
 // maxDepth bounds the parser's recursion so that hostile input (thousands
 // of nested parentheses) gives an error rather than exhausting the stack.
+// Only nesting recurses: a long chain of operators at one level is read in
+// a loop.
 const maxDepth = 200
 
+// parser reads the source by recursive descent and writes the program in
+// postfix order as it goes, folding an operation on constants into one
+// constant as soon as it is complete; it builds no tree.
 type parser struct {
-	src    string
-	pos    int
-	params []string
-	depth  int
-	err    error
+	src     string
+	pos     int
+	params  []string
+	depth   int
+	err     error
+	code    []instr
+	scratch []float64 // the operands of an operation being folded
 }
 
 func (p *parser) fail(pos int, msg string) {
@@ -63,78 +68,74 @@ func (p *parser) enter() bool {
 func (p *parser) leave() { p.depth-- }
 
 // parseSum: term (('+' | '-') term)*
-func (p *parser) parseSum() *node {
+func (p *parser) parseSum() {
 	if !p.enter() {
-		return nil
+		return
 	}
 	defer p.leave()
-	left := p.parseProduct()
+	p.parseProduct()
 	for p.err == nil {
 		c := p.peek()
 		if c != '+' && c != '-' {
 			break
 		}
-		pos := p.pos
 		p.pos++
-		right := p.parseProduct()
+		p.parseProduct()
 		op := opAdd
 		if c == '-' {
 			op = opSub
 		}
-		left = &node{op: op, args: []*node{left, right}, pos: pos}
+		p.operation(op, 2)
 	}
-	return left
 }
 
 // parseProduct: unary (('*' | '/') unary)*
-func (p *parser) parseProduct() *node {
-	left := p.parseUnary()
+func (p *parser) parseProduct() {
+	p.parseUnary()
 	for p.err == nil {
 		c := p.peek()
 		if c != '*' && c != '/' {
 			break
 		}
-		pos := p.pos
 		p.pos++
-		right := p.parseUnary()
+		p.parseUnary()
 		op := opMul
 		if c == '/' {
 			op = opDiv
 		}
-		left = &node{op: op, args: []*node{left, right}, pos: pos}
+		p.operation(op, 2)
 	}
-	return left
 }
 
 // parseUnary: ('-' | '+') unary | power
-func (p *parser) parseUnary() *node {
+func (p *parser) parseUnary() {
 	if !p.enter() {
-		return nil
+		return
 	}
 	defer p.leave()
 	switch p.peek() {
 	case '-':
-		pos := p.pos
 		p.pos++
-		return &node{op: opNeg, args: []*node{p.parseUnary()}, pos: pos}
+		p.parseUnary()
+		p.operation(opNeg, 1)
+		return
 	case '+':
 		p.pos++
-		return p.parseUnary()
+		p.parseUnary()
+		return
 	}
-	return p.parsePower()
+	p.parsePower()
 }
 
 // parsePower: primary ('^' unary)?, which makes ^ right-associative and
 // lets the exponent carry its own sign (2^-1).
-func (p *parser) parsePower() *node {
-	base := p.parsePrimary()
+func (p *parser) parsePower() {
+	p.parsePrimary()
 	if p.err == nil && p.peek() == '^' {
-		pos := p.pos
 		p.pos++
-		exp := p.parseUnary()
-		return &node{op: opPow, args: []*node{base, exp}, pos: pos}
+		p.parseUnary()
+		p.operation(opPow, 2)
 	}
-	return base
 }
 
 func isDigit(c byte) bool { return '0' <= c && c <= '9' }
@@ -143,9 +144,9 @@ func isIdentStart(c byte) bool {
 }
 func isIdent(c byte) bool { return isIdentStart(c) || isDigit(c) }
 
-func (p *parser) parsePrimary() *node {
+func (p *parser) parsePrimary() {
 	if p.err != nil {
-		return nil
+		return
 	}
 	c := p.peek()
 	start := p.pos
@@ -156,47 +157,50 @@ func (p *parser) parsePrimary() *node {
 		} else {
 			p.fail(start, "expression ends too early: expected a number, a name or \"(\"")
 		}
-		return nil
+		return
 	case isDigit(c) || c == '.':
-		return p.parseNumber()
+		p.parseNumber()
+		return
 	case isIdentStart(c):
 		for p.pos < len(p.src) && isIdent(p.src[p.pos]) {
 			p.pos++
 		}
 		name := p.src[start:p.pos]
 		if p.peek() == '(' {
-			return p.parseCall(name, start)
+			p.parseCall(name, start)
+			return
 		}
 		for i, param := range p.params {
 			if param == name {
-				return &node{op: opParam, param: i, pos: start}
+				p.code = append(p.code, instr{op: opParam, n: int32(i)})
+				return
 			}
 		}
 		if name == "pi" {
-			return &node{op: opConst, value: 3.141592653589793, pos: start}
+			p.code = append(p.code, instr{op: opConst, k: 3.141592653589793})
+			return
 		}
 		if p.err == nil {
 			p.err = newNameError(start, name, false, p.params)
 		}
-		return nil
+		return
 	case c == '(':
 		p.pos++
-		inner := p.parseSum()
+		p.parseSum()
 		if p.err != nil {
-			return nil
+			return
 		}
 		if p.peek() != ')' {
 			p.fail(p.pos, "missing \")\" to close the \"(\" at byte "+strconv.Itoa(start))
-			return nil
+			return
 		}
 		p.pos++
-		return inner
+		return
 	case c == ')':
 		p.fail(start, "unexpected \")\": expected a number, a name or \"(\"")
 	default:
 		p.fail(start, "unexpected "+describeByte(c)+": expected a number, a name or \"(\"")
 	}
-	return nil
 }
 
 func onlySpace(s string) bool {
@@ -217,7 +221,7 @@ func describeByte(c byte) string {
 	return "byte 0x" + strconv.FormatUint(uint64(c), 16)
 }
 
-func (p *parser) parseNumber() *node {
+func (p *parser) parseNumber() {
 	start := p.pos
 	digits := 0
 	for p.pos < len(p.src) && isDigit(p.src[p.pos]) {
@@ -233,7 +237,7 @@ func (p *parser) parseNumber() *node {
 	}
 	if digits == 0 {
 		p.fail(start, "a number needs at least one digit")
-		return nil
+		return
 	}
 	if p.pos < len(p.src) && (p.src[p.pos] == 'e' || p.src[p.pos] == 'E') {
 		mark := p.pos
@@ -248,16 +252,16 @@ func (p *parser) parseNumber() *node {
 		}
 		if expDigits == 0 {
 			p.fail(mark, "the exponent of a number needs digits, as in 1e-3")
-			return nil
+			return
 		}
 	}
 	text := p.src[start:p.pos]
 	v, err := strconv.ParseFloat(text, 64)
 	if err != nil {
 		p.fail(start, "number "+text+" is out of range")
-		return nil
+		return
 	}
-	return &node{op: opConst, value: v, pos: start}
+	p.code = append(p.code, instr{op: opConst, k: v})
 }
 
 type function struct {
@@ -286,7 +290,7 @@ func functionNames() []string {
 	return names
 }
 
-func (p *parser) parseCall(name string, start int) *node {
+func (p *parser) parseCall(name string, start int) {
 	var fn *function
 	for i := range functions {
 		if functions[i].name == name {
@@ -295,17 +299,18 @@ func (p *parser) parseCall(name string, start int) *node {
 	}
 	if fn == nil {
 		p.err = newNameError(start, name, true, functionNames())
-		return nil
+		return
 	}
 	p.pos++ // '('
-	var args []*node
+	args := 0
 	if p.peek() == ')' {
 		p.pos++
 	} else {
 		for p.err == nil {
-			args = append(args, p.parseSum())
+			p.parseSum()
+			args++
 			if p.err != nil {
-				return nil
+				return
 			}
 			c := p.peek()
 			if c == ',' {
@@ -321,18 +326,63 @@ func (p *parser) parseCall(name string, start int) *node {
 			} else {
 				p.fail(p.pos, "unexpected "+describeByte(c)+" in the arguments of "+name+": expected \",\" or \")\"")
 			}
-			return nil
+			return
 		}
 	}
-	if len(args) < fn.minArgs || (fn.maxArgs >= 0 && len(args) > fn.maxArgs) {
+	if args < fn.minArgs || (fn.maxArgs >= 0 && args > fn.maxArgs) {
 		want := strconv.Itoa(fn.minArgs) + " argument"
 		if fn.maxArgs < 0 {
 			want = "at least " + want
 		} else if fn.minArgs != 1 {
 			want += "s"
 		}
-		p.fail(start, name+" takes "+want+", got "+strconv.Itoa(len(args)))
-		return nil
+		p.fail(start, name+" takes "+want+", got "+strconv.Itoa(args))
+		return
 	}
-	return &node{op: fn.op, args: args, pos: start}
+	p.operation(fn.op, args)
+}
+
+// operation appends op on the last arity operands, or, when they are all
+// constants and op evaluates on them without error, replaces them with its
+// value (constant folding: an operand whose last instruction is a constant
+// is that one instruction, so the last arity instructions being constants
+// means the last arity operands are). A failing operation stays as code so
+// that Eval reports it.
+func (p *parser) operation(op opcode, arity int) {
+	if p.err != nil {
+		return
+	}
+	n := len(p.code)
+	constant := n >= arity
+	for i := n - arity; constant && i < n; i++ {
+		constant = p.code[i].op == opConst
+	}
+	if constant {
+		p.scratch = p.scratch[:0]
+		for _, in := range p.code[n-arity:] {
+			p.scratch = append(p.scratch, in.k)
+		}
+		if v, err := apply(op, p.scratch); err == nil {
+			p.code = append(p.code[:n-arity], instr{op: opConst, k: v})
+			return
+		}
+	}
+	in := instr{op: op}
+	if op == opMin || op == opMax {
+		in.n = int32(arity)
+	}
+	p.code = append(p.code, in)
+}
+
+// checkCharacters reports the first control character of the source (C0
+// controls other than tab, line feed and carriage return, and DEL), which
+// would otherwise be read as the end of the input or a stray byte.
+func (p *parser) checkCharacters() {
+	for i := 0; i < len(p.src); i++ {
+		c := p.src[i]
+		if (c < 0x20 && c != '\t' && c != '\n' && c != '\r') || c == 0x7f {
+			p.fail(i, "control character U+"+fmt.Sprintf("%04X", c)+" is not allowed in an expression")
+			return
+		}
+	}
 }

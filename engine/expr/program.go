@@ -3,9 +3,8 @@ package expr
 import (
 	"fmt"
 	"math"
+	"slices"
 	"sort"
-	"strconv"
-	"strings"
 )
 
 type opcode uint8
@@ -45,7 +44,6 @@ type Program struct {
 	stack int // the deepest stack the code needs
 	uses  []int
 	names []string
-	tree  *node
 }
 
 // stackOnFrame is the stack depth Eval keeps in a local array; deeper
@@ -53,13 +51,28 @@ type Program struct {
 const stackOnFrame = 32
 
 // Compile parses src as an expression over the named parameters (the
-// index of a name in params is its index in Eval's argument). Subtrees
-// without parameters are folded to constants where they evaluate without
-// error, so an expression with no parameters compiles to a single constant.
+// index of a name in params is its index in Eval's argument). Operations
+// on constants are folded to constants where they evaluate without error,
+// so an expression with no parameters compiles to a single constant.
+// A source longer than MaxLength bytes, nested more than 200 levels deep
+// or holding a control character is a syntax error. Parsing recurses only
+// into nesting, and compiling allocates a small multiple of len(src).
 // The error is a *SyntaxError or a *NameError.
 func Compile(src string, params []string) (*Program, error) {
+	// Every instruction comes from at least one byte of the source (a
+	// digit, a name, an operator or a function name), so len(src)+1
+	// instructions never need to grow while parsing; the program keeps an
+	// exact copy.
 	p := &parser{src: src, params: params}
-	tree := p.parseSum()
+	if len(src) > MaxLength {
+		p.fail(MaxLength, fmt.Sprintf("the expression is longer than %d bytes (it has %d); split it with parameters or compute it in the host", MaxLength, len(src)))
+		return nil, p.err
+	}
+	p.checkCharacters()
+	if p.err == nil {
+		p.code = make([]instr, 0, len(src)+1)
+		p.parseSum()
+	}
 	if p.err == nil {
 		if c := p.peek(); c != 0 {
 			if c == ')' {
@@ -72,60 +85,32 @@ func Compile(src string, params []string) (*Program, error) {
 	if p.err != nil {
 		return nil, p.err
 	}
-	tree = fold(tree)
-	prog := &Program{src: src, names: append([]string(nil), params...), tree: tree}
+	prog := &Program{src: src, names: append([]string(nil), params...), code: slices.Clone(p.code)}
 	seen := make(map[int]bool)
-	depth := prog.emit(tree, 0, seen)
-	prog.stack = depth
-	for i := range seen {
-		prog.uses = append(prog.uses, i)
+	h := 0
+	for _, in := range prog.code {
+		h += 1 - arity(in)
+		prog.stack = max(prog.stack, h)
+		if in.op == opParam && !seen[int(in.n)] {
+			seen[int(in.n)] = true
+			prog.uses = append(prog.uses, int(in.n))
+		}
 	}
 	sort.Ints(prog.uses)
 	return prog, nil
 }
 
-// emit appends the code of n, whose operands start at stack height h,
-// and returns the greatest stack height reached.
-func (prog *Program) emit(n *node, h int, seen map[int]bool) int {
-	deepest := h + 1
-	for i, a := range n.args {
-		deepest = max(deepest, prog.emit(a, h+i, seen))
-	}
-	in := instr{op: n.op, k: n.value}
-	switch n.op {
-	case opParam:
-		in.n = int32(n.param)
-		seen[n.param] = true
+// arity returns how many operands in takes from the stack.
+func arity(in instr) int {
+	switch in.op {
+	case opConst, opParam:
+		return 0
+	case opNeg, opSqrt, opSin, opCos, opTan, opAbs:
+		return 1
 	case opMin, opMax:
-		in.n = int32(len(n.args))
+		return int(in.n)
 	}
-	prog.code = append(prog.code, in)
-	return deepest
-}
-
-// fold replaces subtrees without parameters by their values, except where
-// evaluation fails: those stay as code so that Eval reports the failure.
-func fold(n *node) *node {
-	constant := true
-	for i, a := range n.args {
-		n.args[i] = fold(a)
-		if n.args[i].op != opConst {
-			constant = false
-		}
-	}
-	if !constant || n.op == opConst || n.op == opParam {
-		return n
-	}
-	var buf [stackOnFrame]float64
-	args := buf[:0]
-	for _, a := range n.args {
-		args = append(args, a.value)
-	}
-	v, err := apply(n.op, args)
-	if err != nil {
-		return n
-	}
-	return &node{op: opConst, value: v, pos: n.pos}
+	return 2
 }
 
 // apply computes one operation on its operands.
@@ -212,20 +197,12 @@ func (prog *Program) Eval(params []float64) (float64, error) {
 			h++
 			continue
 		}
-		var arity int
-		switch in.op {
-		case opNeg, opSqrt, opSin, opCos, opTan, opAbs:
-			arity = 1
-		case opMin, opMax:
-			arity = int(in.n)
-		default:
-			arity = 2
-		}
-		v, err := apply(in.op, stack[h-arity:h])
+		k := arity(in)
+		v, err := apply(in.op, stack[h-k:h])
 		if err != nil {
 			return 0, err
 		}
-		h -= arity
+		h -= k
 		stack[h] = v
 		h++
 	}
@@ -247,96 +224,3 @@ func (prog *Program) Constant() (value float64, ok bool) {
 
 // Source returns the expression as it was given to Compile.
 func (prog *Program) Source() string { return prog.src }
-
-// String returns the folded expression in a canonical form that Compile
-// accepts with the same parameter list and that evaluates to the same value
-// (bit for bit) or fails the same way. It writes only the parentheses the
-// grouping needs, so it nests no deeper than the expression itself: a long
-// sum stays flat.
-func (prog *Program) String() string {
-	var b strings.Builder
-	write(&b, prog.tree, prog.names)
-	return b.String()
-}
-
-var opSymbols = map[opcode]string{opAdd: "+", opSub: "-", opMul: "*", opDiv: "/", opPow: "^"}
-var opNames = map[opcode]string{opSqrt: "sqrt", opSin: "sin", opCos: "cos", opTan: "tan",
-	opAbs: "abs", opAtan2: "atan2", opMin: "min", opMax: "max"}
-
-// precedence orders the binary operators; every other node prints as an
-// atom (a number, a name, a call, or a parenthesised negation).
-func precedence(n *node) int {
-	switch n.op {
-	case opAdd, opSub:
-		return 1
-	case opMul, opDiv:
-		return 2
-	case opPow:
-		return 3
-	}
-	return 4
-}
-
-// writeOperand writes n, in parentheses when its precedence is below min.
-func writeOperand(b *strings.Builder, n *node, params []string, min int) {
-	n = simplified(n)
-	if precedence(n) < min {
-		b.WriteString("(")
-		write(b, n, params)
-		b.WriteString(")")
-		return
-	}
-	write(b, n, params)
-}
-
-// simplified drops pairs of negations: −(−x) is x exactly, so a chain of
-// negations prints as at most one.
-func simplified(n *node) *node {
-	for n.op == opNeg && n.args[0].op == opNeg {
-		n = n.args[0].args[0]
-	}
-	return n
-}
-
-func write(b *strings.Builder, n *node, params []string) {
-	n = simplified(n)
-	switch n.op {
-	case opConst:
-		s := strconv.FormatFloat(n.value, 'g', -1, 64)
-		if n.value < 0 || (n.value == 0 && math.Signbit(n.value)) {
-			b.WriteString("(-")
-			b.WriteString(s[1:])
-			b.WriteString(")")
-		} else {
-			b.WriteString(s)
-		}
-	case opParam:
-		b.WriteString(params[n.param])
-	case opNeg:
-		b.WriteString("(-")
-		writeOperand(b, n.args[0], params, 4)
-		b.WriteString(")")
-	case opAdd, opSub, opMul, opDiv:
-		// Left-associative: the left operand may be of the same level,
-		// the right one must bind tighter.
-		p := precedence(n)
-		writeOperand(b, n.args[0], params, p)
-		b.WriteString(opSymbols[n.op])
-		writeOperand(b, n.args[1], params, p+1)
-	case opPow:
-		// Right-associative: a^b^c is a^(b^c).
-		writeOperand(b, n.args[0], params, 4)
-		b.WriteString("^")
-		writeOperand(b, n.args[1], params, 3)
-	default:
-		b.WriteString(opNames[n.op])
-		b.WriteString("(")
-		for i, a := range n.args {
-			if i > 0 {
-				b.WriteString(",")
-			}
-			write(b, a, params)
-		}
-		b.WriteString(")")
-	}
-}

@@ -5,6 +5,7 @@ import (
 	"math"
 	"slices"
 	"strconv"
+	"unicode/utf8"
 
 	"gusset/engine/expr"
 	"gusset/engine/fault"
@@ -161,15 +162,15 @@ func (c *compiler) number(v Value, path func() string, bind binding) (float64, *
 	}
 	if ce.err != nil {
 		if se, ok := ce.err.(*expr.SyntaxError); ok {
-			c.add(true, path(), "expression %q has a syntax error at byte %d: %s", v.Expr, se.Pos, se.Msg)
+			c.add(true, path(), "expression %s has a syntax error at byte %d: %s", quoted(v.Expr), se.Pos, se.Msg)
 		} else {
-			c.add(true, path(), "expression %q: %v", v.Expr, ce.err)
+			c.add(true, path(), "expression %s: %v", quoted(v.Expr), ce.err)
 		}
 		return math.NaN(), nil
 	}
 	x, err := ce.prog.Eval(c.m.ParamValues)
 	if err != nil {
-		c.add(true, path(), "expression %q cannot be evaluated with %s: %v", v.Expr, describeParams(c.m.ParamNames, c.m.ParamValues), err)
+		c.add(true, path(), "expression %s cannot be evaluated with %s: %v", quoted(v.Expr), describeParams(c.m.ParamNames, c.m.ParamValues), err)
 		return math.NaN(), nil
 	}
 	if len(ce.prog.Uses()) == 0 {
@@ -182,6 +183,21 @@ func (c *compiler) number(v Value, path func() string, bind binding) (float64, *
 		c.bindings = append(c.bindings, bind)
 	}
 	return x, ce.prog
+}
+
+// quoted returns src quoted for a message: whole when short, else its
+// first 60 bytes (cut at a character boundary) and its length, so an error
+// about a megabyte-long expression stays a readable line.
+func quoted(src string) string {
+	const shown = 60
+	if len(src) <= 2*shown {
+		return strconv.Quote(src)
+	}
+	cut := shown
+	for cut > 0 && !utf8.RuneStart(src[cut]) {
+		cut--
+	}
+	return fmt.Sprintf("%s… (%d bytes)", strconv.Quote(src[:cut]), len(src))
 }
 
 // fast returns v's number without building a path when v is a plain

@@ -1,0 +1,59 @@
+package main
+
+import (
+	"strings"
+	"testing"
+	"time"
+)
+
+// triangleWith returns a solve request for a two-bar triangle (spans 8,
+// apex at (4, 3)) whose second node's x coordinate is the expression x.
+func triangleWith(x string) []byte {
+	return []byte(`{"jsonrpc":"2.0","id":"expr","method":"solve","params":{"model":{"dimension":2,` +
+		`"materials":[{"id":"steel","elastic_modulus":2.1e8}],"sections":[{"id":"tube","area":0.002}],` +
+		`"nodes":[{"id":"A","at":[0,0]},{"id":"B","at":["` + x + `",0]},{"id":"C","at":[4,3]}],` +
+		`"members":[{"id":"AC","ends":["A","C"],"material":"steel","section":"tube"},{"id":"BC","ends":["B","C"],"material":"steel","section":"tube"}],` +
+		`"supports":[{"node":"A","fix":["x","y"]},{"node":"B","fix":["x","y"]}],` +
+		`"load_cases":[{"id":"point","loads":[{"node":"C","force":[0,-10]}]}]}}}`)
+}
+
+// TestLongExpressionsThroughProcess sends the expressions that once ended
+// the process with a stack overflow in constant folding (1.5 million terms,
+// 3 MB) or took 4 s and 550 MB (a million terms): each is now an expression
+// error (1001, README's error table) pointing at the coordinate, and the
+// process stays small. The sum of 8 ones within the limit is 8, so the
+// model is the catalogue's triangle. Peak memory is sampled from /proc
+// (VmHWM); before the change the 3 MB case peaked at 1.29 GB and crashed.
+func TestLongExpressionsThroughProcess(t *testing.T) {
+	bin := buildGusset(t)
+	path := "/params/model/nodes/1/at/0"
+	for _, tc := range []struct {
+		name  string
+		terms int
+		code  int
+	}{
+		{"eight-terms", 8, 0},
+		{"one-million-terms", 1_000_000, 1001},
+		{"one-and-a-half-million-terms", 1_500_000, 1001},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			line := triangleWith(strings.Repeat("1+", tc.terms-1) + "1")
+			checkBadInput(t, bin, badInputWant{Code: tc.code, Path: &path}, line)
+			var peak int64
+			p := startGusset(t, bin, []string{"serve"}, func([]byte, *wireMessage) {})
+			go func() {
+				p.send(append(line, '\n'))
+				p.closeInput()
+			}()
+			if err, exited := p.waitWithin(60 * time.Second); !exited || err != nil {
+				t.Fatalf("exit: %v (exited %v)", err, exited)
+			}
+			peak = p.peakRSS()
+			// A small multiple of the line: the line itself, its decoded
+			// string and the runtime's own 20-30 MB.
+			if limit := int64(32<<20) + 8*int64(len(line)); peak > limit {
+				t.Errorf("peak resident memory %d MB for a %d-byte line, want at most %d MB", peak>>20, len(line), limit>>20)
+			}
+		})
+	}
+}
