@@ -4,6 +4,8 @@ import (
 	"fmt"
 	"math"
 
+	"gonum.org/v1/gonum/mat"
+
 	"gusset/engine/fault"
 )
 
@@ -100,28 +102,106 @@ func (f *finder) targetMisfit() float64 {
 	return worst
 }
 
-// updateTargets applies one step of the fixed-point force density update
-// and reports whether a force density changed. For a target force N*,
-// q ← N*/L makes the member carry N* on the present geometry; for a target
-// length L*, q ← q·L/L* keeps the member's force and asks for the length
-// L* (a member too long gets a larger force density and shortens). Both are
-// the update of the iterative force density method as described by
-// K. Linkwitz, "Force density method", in S. Adriaenssens et al. (eds.),
-// Shell Structures for Architecture, Routledge 2014, ch. 6 (from memory),
-// and compared by L. Veenendaal and P. Block, "An overview and comparison
-// of structural form finding methods for general networks", International
-// Journal of Solids and Structures 49(26):3741–3753, 2012 (from memory).
+// newtonLimit is the most targets solved by Newton's method; above it the
+// Jacobian (one solve per target and axis, a dense square system) costs
+// more than the slower fixed-point steps it saves.
+const newtonLimit = 64
+
+// updateTargets applies one step of the force density update for targets
+// and reports whether a force density changed. Up to newtonLimit targets it
+// takes a Newton step on the additional conditions gₖ(q) = Lₖ − L*ₖ or
+// Nₖ − N*ₖ in the unknowns ln|qₑ| of the targeted members, the nonlinear
+// force density method of Schek (1974, §4, additional conditions solved by
+// linearisation; from memory), with the Jacobian from ∂x/∂qₑ = −D⁻¹·Cₑᵀuₑ
+// (uₑ the member's vector) and the step at most ln 10 in any ln|qₑ| so no
+// force density changes sign. Loads that follow the form are held fixed in
+// the Jacobian. When the Jacobian is singular, or above newtonLimit, it
+// takes the fixed-point step of the iterative force density method: for a
+// target force N*, q ← N*/L; for a target length L*, q ← q·L/L* (K.
+// Linkwitz, "Force density method", in S. Adriaenssens et al. (eds.), Shell
+// Structures for Architecture, Routledge 2014, ch. 6; L. Veenendaal and P.
+// Block, International Journal of Solids and Structures 49(26), 2012; both
+// from memory), which converges linearly.
 func (f *finder) updateTargets() bool {
+	if len(f.targets) == 0 {
+		return false
+	}
+	if len(f.targets) <= newtonLimit && f.newtonStep() {
+		return true
+	}
 	for _, t := range f.targets {
-		L := f.lengths[t.member]
-		if L == 0 {
-			continue
-		}
-		if t.length {
-			f.q[t.member] *= L / t.value
-		} else {
-			f.q[t.member] = t.value / L
+		if L := f.lengths[t.member]; L > 0 {
+			if t.length {
+				f.q[t.member] *= L / t.value
+			} else {
+				f.q[t.member] = t.value / L
+			}
 		}
 	}
-	return len(f.targets) > 0
+	return true
+}
+
+// newtonStep takes the Newton step described at updateTargets and reports
+// whether it could.
+func (f *finder) newtonStep() bool {
+	m, nw, d := f.m, f.nw, f.m.Dim
+	T, nf := len(f.targets), len(nw.freeNodes)
+	// One right-hand side per target and axis: D·y = −Cₑᵀuₑ.
+	cols := make([][]float64, T*d)
+	for c, t := range f.targets {
+		a, b := m.Members[t.member].Ends[0], m.Members[t.member].Ends[1]
+		for k := 0; k < d; k++ {
+			col := make([]float64, nf)
+			u := f.coords[a*d+k] - f.coords[b*d+k]
+			if fa := nw.free[a]; fa >= 0 {
+				col[fa] = -nw.sign * u
+			}
+			if fb := nw.free[b]; fb >= 0 {
+				col[fb] = nw.sign * u
+			}
+			cols[c*d+k] = col
+		}
+	}
+	nw.chol.SolveMany(cols, cols)
+	jac := mat.NewDense(T, T, nil)
+	g := mat.NewVecDense(T, nil)
+	for r, t := range f.targets {
+		a, b := m.Members[t.member].Ends[0], m.Members[t.member].Ends[1]
+		L := f.lengths[t.member]
+		g.SetVec(r, f.achieved(t)-t.value)
+		for c, tc := range f.targets {
+			var dL float64 // ∂Lᵣ/∂q_c
+			for k := 0; k < d; k++ {
+				var da, db float64
+				if fa := nw.free[a]; fa >= 0 {
+					da = cols[c*d+k][fa]
+				}
+				if fb := nw.free[b]; fb >= 0 {
+					db = cols[c*d+k][fb]
+				}
+				dL += (f.coords[a*d+k] - f.coords[b*d+k]) / L * (da - db)
+			}
+			dg := dL
+			if !t.length {
+				dg = f.q[t.member] * dL
+				if c == r {
+					dg += L
+				}
+			}
+			jac.Set(r, c, dg*f.q[tc.member])
+		}
+	}
+	var step mat.VecDense
+	if err := step.SolveVec(jac, g); err != nil {
+		return false
+	}
+	largest := mat.Norm(&step, math.Inf(1))
+	if math.IsNaN(largest) || math.IsInf(largest, 0) {
+		return false
+	}
+	shrink := min(1, math.Ln10/largest)
+	for c, t := range f.targets {
+		f.q[t.member] *= math.Exp(-shrink * step.AtVec(c))
+	}
+	return true
 }

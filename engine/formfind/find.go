@@ -13,19 +13,19 @@ import (
 
 // finder holds the state of one Find.
 type finder struct {
-	m        *model.Model
-	p        *Problem
-	opt      Options
-	nw       *network
-	load     *loading
-	q        []float64 // force densities of the current factorisation
-	coords   []float64
-	lengths  []float64
-	loads    []float64 // lumped loads of the last solve, Dim per node
-	through  *throughTarget
-	targets  []target
-	rhs      [][]float64 // per axis: the full right-hand side
-	fixedRHS [][]float64 // per axis: the fixed nodes' part (through only)
+	m         *model.Model
+	p         *Problem
+	opt       Options
+	nw        *network
+	load      *loading
+	q         []float64 // force densities of the current factorisation
+	coords    []float64
+	lengths   []float64
+	loads     []float64 // lumped loads of the last solve, Dim per node
+	through   *throughTarget
+	targets   []target
+	rhs       [][]float64 // per axis: the full right-hand side
+	fixedRHS  [][]float64 // per axis: the fixed nodes' part (through only)
 	warnings  []fault.Problem
 	size      float64
 	converged bool

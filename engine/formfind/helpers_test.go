@@ -87,3 +87,5 @@ func find(t testing.TB, m *model.Model, p Problem) *Result {
 }
 
 func one(q float64) *model.Value { v := model.Num(q); return &v }
+
+func compileSpec(b *specBuilder) (*model.Model, error) { return model.Compile(b.s) }

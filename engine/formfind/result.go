@@ -147,4 +147,3 @@ func (r *Result) balance(loads []float64) {
 		}
 	}
 }
-
