@@ -393,8 +393,10 @@ func (c *compiler) sections() {
 		bind := func(set func(*Section, float64)) binding {
 			return binding{target: targetSections, sign: positive, set: func(m *Model, v float64) { set(&m.Sections[i], v) }}
 		}
-		sec.Area = c.positive(ss.Area, field("area"), "section", ss.ID, "area",
-			bind(func(sc *Section, v float64) { sc.Area = v }))
+		if ss.Shape == nil || ss.Area.IsExpr || ss.Area.Num != 0 {
+			sec.Area = c.positive(ss.Area, field("area"), "section", ss.ID, "area",
+				bind(func(sc *Section, v float64) { sc.Area = v }))
+		}
 		if ss.SecondMoment != nil {
 			var prog *expr.Program
 			sec.SecondMoment, prog = c.number(*ss.SecondMoment, field("second_moment"),
@@ -412,7 +414,10 @@ func (c *compiler) sections() {
 			sec.TorsionConstant = c.positive(*ss.TorsionConstant, field("torsion_constant"), "section", ss.ID, "torsion_constant",
 				bind(func(sc *Section, v float64) { sc.TorsionConstant = v }))
 		}
-		if c.dim == 3 {
+		c.sectionModuli(i)
+		if ss.Shape != nil {
+			c.sectionShape(i)
+		} else if c.dim == 3 {
 			c.roundSectionDefaults(i)
 		}
 	}

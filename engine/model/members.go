@@ -79,6 +79,9 @@ func (c *compiler) members() {
 		if ms.Orientation != nil {
 			c.orientation(i)
 		}
+		if ms.BucklingCurve != "" {
+			c.bucklingCurve(i)
+		}
 		if ms.BucklingFactor != nil {
 			k := *ms.BucklingFactor
 			if !(k > 0) || math.IsInf(k, 0) {

@@ -55,6 +55,9 @@ type Member struct {
 	Kind           MemberKind
 	Orientation    [3]float64 // unit-free reference vector; zero means the default
 	BucklingFactor float64    // effective-length factor k, 1 by default
+	// BucklingCurve is the EN 1993-1-1 buckling curve ("a0", "a", "b",
+	// "c" or "d") for the compression check; empty when not given.
+	BucklingCurve string
 }
 
 // Material is a compiled material. Optional limits are 0 when not given
@@ -78,6 +81,11 @@ type Section struct {
 	SecondMoment    float64 // about local z (in-plane bending in 2D)
 	SecondMomentY   float64 // about local y (3D)
 	TorsionConstant float64 // 3D
+	// SectionModulus and SectionModulusY are the elastic section moduli
+	// (length³) about local z and local y for the bending checks; 0 when
+	// neither given nor derived from a shape.
+	SectionModulus  float64
+	SectionModulusY float64
 }
 
 // Support is a compiled support. Arrays are indexed by component (X..RZ).

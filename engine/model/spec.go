@@ -66,6 +66,15 @@ type SectionSpec struct {
 	SecondMoment    *Value
 	SecondMomentY   *Value
 	TorsionConstant *Value
+	// SectionModulus and SectionModulusY are the elastic section moduli
+	// about local z and y (length³); absent means derived from Shape, or
+	// not given.
+	SectionModulus  *Value
+	SectionModulusY *Value
+	// Shape, when given, supplies every property not given above; Area
+	// may then be left zero (a plain 0, not an expression) to take the
+	// shape's.
+	Shape *ShapeSpec
 }
 
 // NodeSpec is a node; At has Dimension entries.
@@ -89,6 +98,9 @@ type MemberSpec struct {
 	// BucklingFactor is the effective-length factor k for Euler buckling;
 	// nil means 1.
 	BucklingFactor *float64
+	// BucklingCurve is the EN 1993-1-1 buckling curve, "a0", "a", "b",
+	// "c" or "d"; empty means not given.
+	BucklingCurve string
 }
 
 // SupportSpec fixes a subset of a node's freedoms, with optional springs
