@@ -3,7 +3,6 @@ package stiffness
 import (
 	"math"
 
-	"gusset/engine/fault"
 	"gusset/engine/model"
 )
 
@@ -178,7 +177,7 @@ func recoverCase(m *model.Model, nb *numbering, sys *system, ls *loadSet, u []fl
 	}
 	summarise(m, cr)
 	if !cr.finite() {
-		return nil, fault.New(fault.Unstable, "the solution is not finite: the stiffness matrix is numerically singular")
+		return nil, overflowError(m)
 	}
 	return cr, nil
 }
