@@ -78,9 +78,14 @@ func (c *canvas) circle(x, y, r float64, fill string) {
 }
 
 func (c *canvas) text(x, y float64, s, class, anchor string) {
+	c.printf(`<text x="%s" y="%s" class="%s" text-anchor="%s">%s</text>`+"\n", num(x), num(y), class, anchor, escape(s))
+}
+
+// escape escapes text for XML.
+func escape(s string) string {
 	var b strings.Builder
 	_ = xml.EscapeText(&b, []byte(s))
-	c.printf(`<text x="%s" y="%s" class="%s" text-anchor="%s">%s</text>`+"\n", num(x), num(y), class, anchor, b.String())
+	return b.String()
 }
 
 // label writes a text as text does, at the first of a few nearby positions
@@ -229,7 +234,7 @@ func (c *canvas) legend(x, y float64, forceUnit, lengthUnit string, withExternal
 		{"zero", "Zero force, dotted"},
 	}
 	for k, it := range items {
-		xx := x + float64(k)*250
+		xx := x + float64(k)*320
 		c.line(xx, y, xx+36, y, it.class, 2.5, "")
 		c.text(xx+44, y+4, it.text, "small", "start")
 	}
@@ -237,8 +242,8 @@ func (c *canvas) legend(x, y float64, forceUnit, lengthUnit string, withExternal
 	if withExternal {
 		c.line(x, y, x+36, y, "load", 2, ` marker-end="url(#arrow)"`)
 		c.text(x+44, y+4, "Load, "+forceUnit, "small", "start")
-		c.line(x+250, y, x+286, y, "reaction", 2, ` marker-end="url(#arrow-reaction)"`)
-		c.text(x+294, y+4, "Reaction (open head), "+forceUnit, "small", "start")
+		c.line(x+320, y, x+356, y, "reaction", 2, ` marker-end="url(#arrow-reaction)"`)
+		c.text(x+364, y+4, "Reaction (open head), "+forceUnit, "small", "start")
 		y += 20
 	}
 	c.text(x, y+4, "Lengths in "+lengthUnit+", forces in "+forceUnit+"; tension positive. Line width in the form diagram grows with |axial force|.", "small", "start")
