@@ -1,0 +1,231 @@
+package main
+
+import (
+	"bytes"
+	"context"
+	"encoding/json"
+	"fmt"
+	"io"
+	"math"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"syscall"
+	"time"
+
+	"gusset/cmd/gusset/adapter"
+	"gusset/engine/model"
+	"gusset/engine/sparse"
+	"gusset/engine/stiffness"
+	"gusset/protocol"
+)
+
+type config struct {
+	gusset, cholmod string
+	repeat          int
+	dir             string
+}
+
+// ours holds one in-process run of the request's phases and of our sparse
+// Cholesky on the exported system.
+type ours struct {
+	decode, compile                             time.Duration
+	assemble, order, factor, solve, recoverAll  time.Duration
+	sysOrder, sysSymbolic, sysNumeric, sysSolve time.Duration
+}
+
+// whole is one run of the request through the gusset binary.
+type whole struct {
+	wall    time.Duration
+	peakKiB int64
+	outSize int64
+}
+
+// reference is one CHOLMOD run as cholmod_bench prints it.
+type reference struct {
+	N             int     `json:"n"`
+	Analyse       float64 `json:"analyse_s"`
+	Factorise     float64 `json:"factorise_s"`
+	Solve         float64 `json:"solve_s"`
+	NonzerosL     float64 `json:"nnz_l"`
+	Flops         float64 `json:"flops"`
+	Ordering      string  `json:"ordering"`
+	PeakBytes     int64   `json:"peak_cholmod_bytes"`
+	PeakRSSKiB    int64   `json:"peak_rss_kib"`
+	InputRSSKiB   int64   `json:"rss_after_input_kib"`
+	solutionError float64
+}
+
+// measurement is everything reported for one model.
+type measurement struct {
+	name               string
+	members, equations int
+	requestBytes       int
+	nonzerosL          int
+	flops              float64
+	runs               []ours
+	wholes             []whole
+	references         []reference
+	relativeDifference float64
+}
+
+// measure exports one model and runs the four measurements cfg.repeat
+// times, interleaved so that drifts of the machine touch all alike.
+func measure(cfg config, name string, spec *model.Spec) (measurement, error) {
+	ctx := context.Background()
+	m, err := model.Compile(spec)
+	if err != nil {
+		return measurement{}, err
+	}
+	caseID := m.Cases[0].ID
+	out := measurement{name: name, members: len(m.Members)}
+	requestPath := filepath.Join(cfg.dir, name+".request.jsonl")
+	params, err := json.Marshal(protocol.SolveParams{Model: *adapter.WireModel(spec), Cases: []string{caseID}})
+	if err != nil {
+		return out, err
+	}
+	line := fmt.Appendf(nil, `{"jsonrpc":"2.0","id":1,"method":"solve","params":%s}`+"\n", params)
+	out.requestBytes = len(line)
+	if err := os.WriteFile(requestPath, line, 0o644); err != nil {
+		return out, err
+	}
+	s, g, err := stiffness.ScaledSystem(ctx, m, caseID)
+	if err != nil {
+		return out, err
+	}
+	out.equations = s.N
+	matrixPath := filepath.Join(cfg.dir, name+".mtx")
+	rhsPath := filepath.Join(cfg.dir, name+".rhs")
+	if err := writeMatrixMarket(matrixPath, s); err != nil {
+		return out, err
+	}
+	if err := writeVector(rhsPath, g); err != nil {
+		return out, err
+	}
+	var solution []float64
+	for range cfg.repeat {
+		w, err := runWhole(cfg.gusset, requestPath)
+		if err != nil {
+			return out, err
+		}
+		out.wholes = append(out.wholes, w)
+		r, y, st, err := runOurs(ctx, spec, params, s, g, caseID)
+		if err != nil {
+			return out, err
+		}
+		out.runs, solution = append(out.runs, r), y
+		out.nonzerosL, out.flops = st.NonzerosL, st.Flops
+		ref, err := runReference(cfg.cholmod, matrixPath, rhsPath, solution)
+		if err != nil {
+			return out, err
+		}
+		out.references = append(out.references, ref)
+		out.relativeDifference = ref.solutionError
+	}
+	return out, nil
+}
+
+// runWhole sends the request file to a fresh gusset process on its
+// standard input and times it from start to exit.
+func runWhole(bin, requestPath string) (whole, error) {
+	in, err := os.Open(requestPath)
+	if err != nil {
+		return whole{}, err
+	}
+	defer in.Close()
+	var counter countingWriter
+	var stderr bytes.Buffer
+	cmd := exec.Command(bin, "serve")
+	cmd.Stdin, cmd.Stdout, cmd.Stderr = in, &counter, &stderr
+	start := time.Now()
+	if err := cmd.Run(); err != nil {
+		return whole{}, fmt.Errorf("gusset: %v: %s", err, stderr.String())
+	}
+	w := whole{wall: time.Since(start), outSize: counter.n}
+	if ru, ok := cmd.ProcessState.SysUsage().(*syscall.Rusage); ok {
+		w.peakKiB = ru.Maxrss
+	}
+	if !bytes.Contains(counter.head, []byte(`"result"`)) {
+		return w, fmt.Errorf("gusset answered without a result: %.300s", counter.head)
+	}
+	return w, nil
+}
+
+type countingWriter struct {
+	n    int64
+	head []byte
+}
+
+func (c *countingWriter) Write(p []byte) (int, error) {
+	if len(c.head) < 4096 {
+		c.head = append(c.head, p[:min(len(p), 4096-len(c.head))]...)
+	}
+	c.n += int64(len(p))
+	return len(p), nil
+}
+
+var _ io.Writer = (*countingWriter)(nil)
+
+// runOurs times the request's in-process phases (decode, compile, the
+// engine's solve) and our sparse Cholesky on the exported system, whose
+// solution it returns.
+func runOurs(ctx context.Context, spec *model.Spec, params []byte, s *sparse.Matrix, g []float64, caseID string) (ours, []float64, sparse.Stats, error) {
+	var r ours
+	start := time.Now()
+	var p protocol.SolveParams
+	if err := json.Unmarshal(params, &p); err != nil {
+		return r, nil, sparse.Stats{}, err
+	}
+	r.decode = time.Since(start)
+	start = time.Now()
+	m, err := model.Compile(spec)
+	if err != nil {
+		return r, nil, sparse.Stats{}, err
+	}
+	r.compile = time.Since(start)
+	res, err := stiffness.Solve(ctx, m, stiffness.Options{Cases: []string{caseID}})
+	if err != nil {
+		return r, nil, sparse.Stats{}, err
+	}
+	st := res.Stats
+	r.assemble, r.order, r.factor, r.solve, r.recoverAll = st.Assemble, st.Order, st.Factor, st.Solve, st.Recover
+	c, err := sparse.Factorize(ctx, s, sparse.Options{})
+	if err != nil {
+		return r, nil, sparse.Stats{}, err
+	}
+	fs := c.Stats()
+	r.sysOrder, r.sysSymbolic, r.sysNumeric = fs.Ordering, fs.Symbolic, fs.Numeric
+	y := make([]float64, s.N)
+	start = time.Now()
+	c.Solve(y, g)
+	r.sysSolve = time.Since(start)
+	return r, y, fs, nil
+}
+
+// runReference runs cholmod_bench and compares its solution with ours.
+func runReference(bin, matrixPath, rhsPath string, ourSolution []float64) (reference, error) {
+	solutionPath := matrixPath + ".solution"
+	var stdout, stderr bytes.Buffer
+	cmd := exec.Command(bin, matrixPath, rhsPath, solutionPath)
+	cmd.Stdout, cmd.Stderr = &stdout, &stderr
+	if err := cmd.Run(); err != nil {
+		return reference{}, fmt.Errorf("cholmod_bench: %v: %s", err, stderr.String())
+	}
+	var ref reference
+	if err := json.Unmarshal(stdout.Bytes(), &ref); err != nil {
+		return ref, fmt.Errorf("cholmod_bench printed %q: %v", stdout.String(), err)
+	}
+	x, err := readVector(solutionPath, len(ourSolution))
+	if err != nil {
+		return ref, err
+	}
+	var diff, norm float64
+	for i, v := range x {
+		diff = math.Max(diff, math.Abs(v-ourSolution[i]))
+		norm = math.Max(norm, math.Abs(v))
+	}
+	if norm > 0 {
+		ref.solutionError = diff / norm
+	}
+	return ref, nil
+}
