@@ -58,6 +58,11 @@ type Material struct {
 	// ThermalExpansion is the coefficient of thermal expansion (strain per
 	// degree) for thermal loads given as a temperature change.
 	ThermalExpansion *Number `json:"thermal_expansion,omitempty"`
+	// MassDensity is mass per volume for vibration (modes), in the mass
+	// unit of the model's force and length units (force·s²/length: tonnes
+	// per m³ with kN and m, 7.85 for steel); not derived from
+	// weight_density.
+	MassDensity *Number `json:"mass_density,omitempty"`
 }
 
 // Section is a member cross-section.
@@ -84,6 +89,10 @@ type Node struct {
 	ID string `json:"id" jsonschema:"minLength=1"`
 	// At is the position: dimension coordinates.
 	At []Number `json:"at" jsonschema:"minItems=2,maxItems=3"`
+	// Mass is a lumped mass at the node for vibration (modes), acting in
+	// every translation, in the mass unit of the model's units
+	// (force·s²/length: tonnes with kN and m); non-negative.
+	Mass *float64 `json:"mass,omitempty" jsonschema:"minimum=0"`
 }
 
 // Member is a bar or a beam between two nodes.

@@ -364,6 +364,14 @@ func (c *compiler) materials() {
 				c.problem(field("carbon_factor")(), "material %q has a negative carbon_factor %g; use zero or a positive value", ms.ID, mat.CarbonFactor)
 			}
 		}
+		if ms.MassDensity != nil {
+			mat.HasMassDensity = true
+			mat.MassDensity = c.fast(*ms.MassDensity, field("mass_density"),
+				bind(nonNegative, func(mt *Material, v float64) { mt.MassDensity = v }))
+			if mat.MassDensity < 0 {
+				c.problem(field("mass_density")(), "material %q has a negative mass_density %g; use zero or a positive value", ms.ID, mat.MassDensity)
+			}
+		}
 		if ms.ThermalExpansion != nil {
 			c.hasThermal[i] = true
 			mat.ThermalExpansion, c.thermalProg[i] = c.number(*ms.ThermalExpansion, field("thermal_expansion"),
@@ -465,6 +473,15 @@ func (c *compiler) nodes() {
 	for i := range s.Nodes {
 		ns := &s.Nodes[i]
 		m.NodeIDs[i] = ns.ID
+		if ns.Mass != nil {
+			if m.NodeMasses == nil {
+				m.NodeMasses = make([]float64, n)
+			}
+			m.NodeMasses[i] = *ns.Mass
+			if !(*ns.Mass >= 0) || math.IsInf(*ns.Mass, 0) {
+				c.problem(pathf("nodes/%d/mass", i)(), "node %q has mass %g; use zero or a positive finite value", ns.ID, *ns.Mass)
+			}
+		}
 		if len(ns.At) != dim {
 			c.problem(pathf("nodes/%d/at", i)(), "node %q has %d coordinates; a %dD model needs %d", ns.ID, len(ns.At), dim, dim)
 			for k := range dim {

@@ -35,6 +35,9 @@ type Model struct {
 	NodeIDs []string
 	// Coords holds node i's coordinates at Coords[i*Dim : (i+1)*Dim].
 	Coords []float64
+	// NodeMasses holds per node a lumped translational mass
+	// (force·s²/length), or is nil when no node has one.
+	NodeMasses []float64
 
 	Members      []Member
 	Materials    []Material
@@ -72,6 +75,10 @@ type Material struct {
 	CarbonFactor     float64
 	HasCarbonFactor  bool
 	ThermalExpansion float64
+	// MassDensity is mass per volume (force·s²/length⁴); 0 when not given
+	// (HasMassDensity false).
+	MassDensity    float64
+	HasMassDensity bool
 }
 
 // Section is a compiled section. SecondMoment is 0 when not given (bars).

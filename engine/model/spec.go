@@ -54,6 +54,10 @@ type MaterialSpec struct {
 	CompressionLimit *Value // stress; absent means not given
 	CarbonFactor     *Value // kg CO2e per kg; absent means not given
 	ThermalExpansion *Value // strain per degree; default 0
+	// MassDensity is mass per length³ in the mass unit of the model's
+	// force and length (force·s²/length: tonnes with kN and m) for
+	// vibration; absent means not given.
+	MassDensity *Value
 }
 
 // SectionSpec is a cross-section. Area is required; SecondMoment is
@@ -81,6 +85,9 @@ type SectionSpec struct {
 type NodeSpec struct {
 	ID string
 	At []Value
+	// Mass is a lumped mass at the node (force·s²/length) acting in every
+	// translation, for vibration; nil means none.
+	Mass *float64
 }
 
 // MemberSpec is a member between two nodes.

@@ -28,7 +28,7 @@ func specOf(w *protocol.Model) *model.Spec {
 			ID: m.ID, ElasticModulus: value(m.ElasticModulus), ShearModulus: optional(m.ShearModulus),
 			WeightDensity: optional(m.WeightDensity), TensionLimit: optional(m.TensionLimit),
 			CompressionLimit: optional(m.CompressionLimit), CarbonFactor: optional(m.CarbonFactor),
-			ThermalExpansion: optional(m.ThermalExpansion),
+			ThermalExpansion: optional(m.ThermalExpansion), MassDensity: optional(m.MassDensity),
 		}
 	}
 	s.Sections = make([]model.SectionSpec, len(w.Sections))
@@ -38,7 +38,7 @@ func specOf(w *protocol.Model) *model.Spec {
 	}
 	s.Nodes = make([]model.NodeSpec, len(w.Nodes))
 	for i, n := range w.Nodes {
-		s.Nodes[i] = model.NodeSpec{ID: n.ID, At: values(n.At)}
+		s.Nodes[i] = model.NodeSpec{ID: n.ID, At: values(n.At), Mass: n.Mass}
 	}
 	s.Members = make([]model.MemberSpec, len(w.Members))
 	for i, m := range w.Members {

@@ -41,14 +41,15 @@ func WireModel(s *model.Spec) *protocol.Model {
 	for _, m := range s.Materials {
 		w.Materials = append(w.Materials, protocol.Material{ID: m.ID, ElasticModulus: num(m.ElasticModulus),
 			ShearModulus: opt(m.ShearModulus), WeightDensity: opt(m.WeightDensity), TensionLimit: opt(m.TensionLimit),
-			CompressionLimit: opt(m.CompressionLimit), CarbonFactor: opt(m.CarbonFactor), ThermalExpansion: opt(m.ThermalExpansion)})
+			CompressionLimit: opt(m.CompressionLimit), CarbonFactor: opt(m.CarbonFactor), ThermalExpansion: opt(m.ThermalExpansion),
+			MassDensity: opt(m.MassDensity)})
 	}
 	for _, c := range s.Sections {
 		w.Sections = append(w.Sections, protocol.Section{ID: c.ID, Area: num(c.Area), SecondMoment: opt(c.SecondMoment),
 			SecondMomentY: opt(c.SecondMomentY), TorsionConstant: opt(c.TorsionConstant)})
 	}
 	for _, n := range s.Nodes {
-		w.Nodes = append(w.Nodes, protocol.Node{ID: n.ID, At: nums(n.At)})
+		w.Nodes = append(w.Nodes, protocol.Node{ID: n.ID, At: nums(n.At), Mass: n.Mass})
 	}
 	for _, m := range s.Members {
 		w.Members = append(w.Members, protocol.Member{ID: m.ID, Ends: m.Ends, Material: m.Material, Section: m.Section,
