@@ -241,3 +241,16 @@ func scan(c []float64, x0, h float64, update func(v, x float64)) {
 		update(polyEval(c, s), x0+s)
 	}
 }
+
+// transverse reports whether the loading has any force across the member.
+func (ld *memberLoading) transverse() bool {
+	if ld.a[1] != 0 || ld.a[2] != 0 || ld.b[1] != 0 || ld.b[2] != 0 {
+		return true
+	}
+	for _, p := range ld.points {
+		if p.force[1] != 0 || p.force[2] != 0 {
+			return true
+		}
+	}
+	return false
+}

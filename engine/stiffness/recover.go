@@ -211,14 +211,17 @@ func recoverMember(m *model.Model, nb *numbering, ls *loadSet, u []float64, cr *
 	cr.AxialForce[e] = -p[0]
 	el.toGlobal(fg, p[:])
 	sec := &m.Sections[m.Members[e].Section]
+	sc.loading.gather(ls, m, el, e, loaded)
 	if el.beam {
-		sc.loading.gather(ls, m, el, e, loaded)
 		alongBeam(&cr.Members[e], el, sec, m.Materials[m.Members[e].Material].ElasticModulus, p[:n], ul[:n], &sc.loading, &sc.field)
 	} else {
 		alongBar(&cr.Members[e], el, p[:n], cr.Displacements[m.Members[e].Ends[0]], cr.Displacements[m.Members[e].Ends[1]])
+		if sc.loading.transverse() {
+			cr.Members[e].Unchecked |= barBending
+		}
 	}
 	cr.Stress[e] = cr.AxialForce[e] / sec.Area
-	cr.Utilisation[e] = utilisation(m, e, cr.AxialForce[e])
+	cr.Utilisation[e] = checkMember(m, e, &cr.Members[e])
 	return loaded
 }
 
@@ -255,43 +258,6 @@ func memberFreedoms(m *model.Model, nb *numbering, mem model.Member, dofs *[12]i
 }
 
 func sq(x float64) float64 { return x * x }
-
-// utilisation returns member e's utilisation under axial force n, or −1
-// when no limit applies.
-func utilisation(m *model.Model, e int, n float64) float64 {
-	mem := m.Members[e]
-	mat := m.Materials[mem.Material]
-	sec := m.Sections[mem.Section]
-	if n >= 0 {
-		if mat.TensionLimit > 0 {
-			return n / (sec.Area * mat.TensionLimit)
-		}
-		if n == 0 && mat.CompressionLimit > 0 {
-			return 0
-		}
-		return -1
-	}
-	capacity := math.Inf(1)
-	if mat.CompressionLimit > 0 {
-		capacity = sec.Area * mat.CompressionLimit
-	}
-	i := sec.SecondMoment
-	if m.Dim == 3 && sec.SecondMomentY > 0 && (i == 0 || sec.SecondMomentY < i) {
-		i = sec.SecondMomentY
-	}
-	if i > 0 {
-		k := mem.BucklingFactor
-		if !(k > 0) {
-			k = 1
-		}
-		kl := k * m.Length(e)
-		capacity = min(capacity, math.Pi*math.Pi*mat.ElasticModulus*i/(kl*kl))
-	}
-	if math.IsInf(capacity, 1) {
-		return -1
-	}
-	return -n / capacity
-}
 
 // finite reports whether every number in the result is finite.
 func (cr *CaseResult) finite() bool {

@@ -3,6 +3,7 @@ package stiffness
 import (
 	"time"
 
+	"gusset/engine/fault"
 	"gusset/engine/statics"
 )
 
@@ -20,6 +21,12 @@ type Result struct {
 	Warnings []string
 	// Stats describes the work done; its times vary from run to run.
 	Stats Stats
+	// Unchecked lists the member checks that could not be made, or were
+	// made on an assumption, in any case (a missing limit, section
+	// modulus or second moment, a buckling curve assumed, a bar loaded
+	// across its length), each with the pointer (into the model) of the
+	// data that would allow it; nil when every check was made.
+	Unchecked []fault.Problem
 }
 
 // Reaction is what one support exerts on its node: Force has Dim entries,
@@ -53,11 +60,12 @@ type CaseResult struct {
 	Reactions []Reaction
 	// Stress is AxialForce / Area for each member (force per length²).
 	Stress []float64
-	// Utilisation is, per member, N / (A·TensionLimit) in tension and
-	// |N| / min(A·CompressionLimit, π²EI/(kL)²) in compression, with I the
-	// lesser second moment and k the member's BucklingFactor; the
-	// buckling term needs a SecondMoment and each term is used only when
-	// its data is given. It is −1 when no limit applies (never NaN).
+	// Utilisation is, per member, the largest of the checks made along it
+	// (MemberResult's axial, bending and combined utilisation: tension
+	// N/(A·ft); compression |N|/(χ·A·fc) with χ from the EN 1993-1-1
+	// buckling curves; bending and the linear interaction for beams). It
+	// is −1 when no check could be made (never NaN); Result.Unchecked says
+	// which checks were not made and why.
 	Utilisation []float64
 	// Residual is the scaled equilibrium residual ‖K·u − f‖ / ‖f‖ over
 	// the unconstrained freedoms (0 when f = 0).

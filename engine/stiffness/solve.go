@@ -221,6 +221,8 @@ func solve(ctx context.Context, m *model.Model, opt Options, an *Analysis) (*Res
 	}
 	rep.Progress("recovering", len(requests), len(requests), nil)
 	res.Stats.Recover = time.Since(start)
+	res.Unchecked = uncheckedNotes(m, res.Cases, maxUncheckedNotes)
+	res.Warnings = append(res.Warnings, bendingCaveat(m, res.Cases)...)
 
 	est := <-condition
 	if est.crash != nil {

@@ -65,6 +65,15 @@ type MemberResult struct {
 	// member (its value is ≥ 0), found exactly (zeros of the derivative of
 	// the squared magnitude).
 	PeakDisplacement Extreme
+
+	// AxialUtilisation, BendingUtilisation and CombinedUtilisation are the
+	// member's checks (see Result.Unchecked and CaseResult.Utilisation);
+	// each is −1 when it could not be made. BucklingReduction is the χ
+	// used in compression (0 when the member is not in compression).
+	AxialUtilisation, BendingUtilisation, CombinedUtilisation float64
+	BucklingReduction                                         float64
+	// Unchecked flags the checks not made, or made on an assumption.
+	Unchecked uint16
 }
 
 // Peak is where a case's largest value occurs: at a node (Member −1) or
