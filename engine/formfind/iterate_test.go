@@ -1,6 +1,8 @@
 package formfind
 
 import (
+	"context"
+	"errors"
 	"fmt"
 	"math"
 	"testing"
@@ -159,5 +161,37 @@ func TestCatenary(t *testing.T) {
 	}
 	if previous > 1e-3 {
 		t.Errorf("finest chain %.3g from the catenary", previous)
+	}
+}
+
+// recorder keeps the iterations reported.
+type recorder struct{ iterations []Iteration }
+
+func (r *recorder) Progress(stage string, done, total int, partial any) {
+	if it, ok := partial.(Iteration); ok && stage == "iterating" {
+		r.iterations = append(r.iterations, it)
+	}
+}
+
+// TestProgressAndCancel checks that every iteration is reported with its
+// change, and that a cancelled context stops Find with ctx.Err().
+func TestProgressAndCancel(t *testing.T) {
+	b := chain(16, 1, 0)
+	density := model.Num(1e3)
+	b.s.Materials[0].WeightDensity = &density
+	b.s.LoadCases[0].SelfWeight = true
+	m := b.compile(t)
+	rec := &recorder{}
+	r, err := Find(t.Context(), m, Problem{ForceDensity: one(3)}, Options{Reporter: rec})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(rec.iterations) != r.Iterations || rec.iterations[len(rec.iterations)-1].Change != r.Change {
+		t.Errorf("reported %d iterations (%+v), result says %d with change %g", len(rec.iterations), rec.iterations, r.Iterations, r.Change)
+	}
+	ctx, cancel := context.WithCancel(t.Context())
+	cancel()
+	if _, err := Find(ctx, m, Problem{ForceDensity: one(3)}, Options{}); !errors.Is(err, context.Canceled) {
+		t.Errorf("cancelled: got %v", err)
 	}
 }

@@ -7,6 +7,7 @@ import (
 	"gonum.org/v1/gonum/floats"
 
 	"gusset/engine/fault"
+	"gusset/engine/loadpath"
 	"gusset/engine/model"
 )
 
@@ -40,8 +41,9 @@ type Result struct {
 	// Residual is the largest equilibrium residual of a free node,
 	// ‖pᵢ + Σ qₑ(xⱼ − xᵢ)‖ divided by ‖pᵢ‖ + Σ |qₑ|·Lₑ at that node.
 	Residual float64
-	// Sign is +1 when the matrix D was positive definite (a tension
-	// network), −1 when negative definite (a compression network).
+	// Sign is +1 when the matrix D of the found force densities is
+	// positive definite (a tension network), −1 when negative definite (a
+	// compression network).
 	Sign float64
 	// Scale is the factor s the through constraint applied to the given
 	// force densities (1 without one); ThroughMisfit is the distance from
@@ -87,6 +89,9 @@ func (f *finder) result(iterations int, change float64) *Result {
 	}
 	if f.through != nil {
 		r.Scale = f.through.scale
+		if r.Scale < 0 {
+			r.Sign = -r.Sign
+		}
 		for e := range r.ForceDensity {
 			r.ForceDensity[e] *= r.Scale
 		}
@@ -146,4 +151,31 @@ func (r *Result) balance(loads []float64) {
 			r.Residual = max(r.Residual, math.Sqrt(floats.Dot(s, s))/scale[i])
 		}
 	}
+}
+
+// Model returns the model at the found coordinates: m with Coords replaced
+// (the rest shared with the model Find was given, so it must not be
+// modified). It serves pictures and load paths; Ready gives the model to
+// send on.
+func (r *Result) Model() *model.Model {
+	found := *r.m
+	found.Coords = r.Coords
+	return &found
+}
+
+// LoadPath returns Maxwell's load-path quantities of the found form
+// (engine/loadpath) with its forces, loads and reactions.
+func (r *Result) LoadPath() (*loadpath.CaseResult, error) {
+	external := make([][]float64, len(r.Loads))
+	for i := range external {
+		external[i] = make([]float64, r.Dim)
+		for k := range external[i] {
+			external[i][k] = r.Loads[i][k] + r.Reactions[i][k]
+		}
+	}
+	lp, err := loadpath.Compute(r.Model(), []loadpath.Case{{ID: r.Case, AxialForce: r.Force, External: external}}, loadpath.Options{})
+	if err != nil {
+		return nil, err
+	}
+	return &lp.Cases[0], nil
 }
