@@ -213,7 +213,7 @@ func recoverMember(m *model.Model, nb *numbering, ls *loadSet, u []float64, cr *
 	sec := &m.Sections[m.Members[e].Section]
 	sc.loading.gather(ls, m, el, e, loaded)
 	if el.beam {
-		alongBeam(&cr.Members[e], el, sec, m.Materials[m.Members[e].Material].ElasticModulus, p[:n], ul[:n], &sc.loading, &sc.field)
+		alongBeam(&cr.Members[e], el, sec, &m.Materials[m.Members[e].Material], p[:n], ul[:n], &sc.loading, &sc.field)
 	} else {
 		alongBar(&cr.Members[e], el, p[:n], cr.Displacements[m.Members[e].Ends[0]], cr.Displacements[m.Members[e].Ends[1]])
 		if sc.loading.transverse() {

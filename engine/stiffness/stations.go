@@ -74,6 +74,12 @@ type MemberResult struct {
 	BucklingReduction                                         float64
 	// Unchecked flags the checks not made, or made on an assumption.
 	Unchecked uint16
+
+	// AxialEnergy, BendingEnergy and TorsionEnergy are the member's strain
+	// energy (force·length) from its axial force ∫N²/2EA, its bending
+	// ∫Mz²/2EIz + My²/2EIy and its torsion ∫T²/2GJ (Euler–Bernoulli: no
+	// shear strain energy), integrated exactly.
+	AxialEnergy, BendingEnergy, TorsionEnergy float64
 }
 
 // Peak is where a case's largest value occurs: at a node (Member −1) or
@@ -148,10 +154,14 @@ func layoutStations(m *model.Model, cr *CaseResult, n int) {
 // alongBeam fills r with the beam's extremes and, where r has station
 // arrays, its stations, from its local end forces p, local end
 // displacements ul and loading ld; f is scratch space.
-func alongBeam(r *MemberResult, el *element, sec *model.Section, e float64, p, ul []float64, ld *memberLoading, f *field) {
+func alongBeam(r *MemberResult, el *element, sec *model.Section, mat *model.Material, p, ul []float64, ld *memberLoading, f *field) {
+	e := mat.ElasticModulus
 	ei, eiy := e*sec.SecondMoment, e*sec.SecondMomentY
 	f.start(el, ei, eiy, p, ul, ld)
 	beamExtremes(r, f)
+	if f.dim3 {
+		r.TorsionEnergy = f.torsion * f.torsion * el.length / (2 * mat.ShearModulus * sec.TorsionConstant)
+	}
 	if len(r.Stations) == 0 {
 		return
 	}
@@ -181,6 +191,7 @@ func alongBeam(r *MemberResult, el *element, sec *model.Section, e float64, p, u
 // quantity's polynomial for its exact extremes.
 func beamExtremes(r *MemberResult, f *field) {
 	var maxN, minN, mz, my, vy, vz, disp peak
+	r.AxialEnergy, r.BendingEnergy = 0, 0
 	for {
 		end := f.stretchEnd()
 		h := end - f.x0
@@ -204,6 +215,11 @@ func beamExtremes(r *MemberResult, f *field) {
 			addSquare(&square, defZ[:])
 		}
 		scan(square[:], f.x0, h, disp.largest)
+		r.AxialEnergy += integralOfSquare(force[:], h) / (2 * f.ea)
+		r.BendingEnergy += integralOfSquare(momZ[:], h) / (2 * f.y.ei)
+		if f.dim3 {
+			r.BendingEnergy += integralOfSquare(momY[:], h) / (2 * f.z.ei)
+		}
 		if f.next >= len(f.points) {
 			break
 		}
@@ -237,6 +253,8 @@ func alongBar(r *MemberResult, el *element, p []float64, d1, d2 []float64) {
 	} else if n2 < n1 {
 		r.MinAxial = Extreme{Value: n2, At: el.length}
 	}
+	// N is linear between the ends: ∫N² = L(N₁² + N₁N₂ + N₂²)/3.
+	r.AxialEnergy = el.length * (n1*n1 + n1*n2 + n2*n2) / (6 * el.ea)
 	a, b := norm(d1), norm(d2)
 	r.PeakDisplacement = Extreme{Value: a}
 	if b > a {
@@ -294,4 +312,24 @@ func (r *MemberResult) finite() bool {
 	}
 	return finite([]float64{r.MaxAxial.Value, r.MinAxial.Value, r.PeakMomentY.Value, r.PeakMomentZ.Value,
 		r.PeakDeflectionY.Value, r.PeakDeflectionZ.Value, r.PeakDisplacement.Value})
+}
+
+// gauss4 is the four-point Gauss–Legendre rule on [−1, 1], exact for
+// polynomials up to degree 7 (Abramowitz & Stegun, Handbook of
+// Mathematical Functions, 1964, Table 25.4): the square of a cubic moment.
+var gauss4 = [4][2]float64{
+	{-0.8611363115940526, 0.3478548451374538},
+	{-0.3399810435848563, 0.6521451548625461},
+	{0.3399810435848563, 0.6521451548625461},
+	{0.8611363115940526, 0.3478548451374538},
+}
+
+// integralOfSquare returns ∫₀ʰ c(s)² ds for a polynomial c of degree ≤ 3.
+func integralOfSquare(c []float64, h float64) float64 {
+	var sum float64
+	for _, g := range gauss4 {
+		v := polyEval(c, 0.5*h*(1+g[0]))
+		sum += g[1] * v * v
+	}
+	return 0.5 * h * sum
 }

@@ -1,0 +1,69 @@
+package stiffness
+
+import (
+	"fmt"
+
+	"gusset/engine/model"
+)
+
+// BendingShare returns the share (0 to 1) of the case's strain energy held
+// in bending and torsion, and the member holding the most of it (−1 when
+// no member bends or twists). Maxwell's load path counts axial forces
+// only, so this share is what it leaves out.
+func (cr *CaseResult) BendingShare() (share float64, member int) {
+	var axial, other, most float64
+	member = -1
+	for e := range cr.Members {
+		r := &cr.Members[e]
+		axial += r.AxialEnergy
+		u := r.BendingEnergy + r.TorsionEnergy
+		other += u
+		if u > most {
+			most, member = u, e
+		}
+	}
+	if other == 0 {
+		return 0, -1
+	}
+	return other / (axial + other), member
+}
+
+// LoadPathCaveat returns the warning a load path of case cr needs when
+// members bend or twist: the share of the strain energy the axial measure
+// leaves out, where most of it is, and the largest bending utilisation
+// (or how many beams' bending went unchecked). It is empty when no member
+// bends.
+func LoadPathCaveat(m *model.Model, cr *CaseResult) string {
+	share, member := cr.BendingShare()
+	if member < 0 {
+		return ""
+	}
+	worst, unchecked := -1, 0
+	for e := range cr.Members {
+		r := &cr.Members[e]
+		if m.Members[e].Kind != model.Beam || r.BendingEnergy == 0 {
+			continue
+		}
+		if r.BendingUtilisation < 0 {
+			unchecked++
+		} else if worst < 0 || r.BendingUtilisation > cr.Members[worst].BendingUtilisation {
+			worst = e
+		}
+	}
+	s := fmt.Sprintf("%s %q: the load path counts axial forces only, but bending and torsion hold %.3g %% of the strain energy (most in member %q)",
+		caseWord(cr), cr.ID, 100*share, m.Members[member].ID)
+	if worst >= 0 {
+		s += fmt.Sprintf("; the largest bending utilisation is %.3g (member %q)", cr.Members[worst].BendingUtilisation, m.Members[worst].ID)
+	}
+	if unchecked > 0 {
+		s += fmt.Sprintf("; the bending of %d beams is not checked (no section modulus or limit; see solve's unchecked list)", unchecked)
+	}
+	return s + ": the load path, and volumes sized from it, understate what these members need"
+}
+
+func caseWord(cr *CaseResult) string {
+	if cr.Combination {
+		return "combination"
+	}
+	return "case"
+}
