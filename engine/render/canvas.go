@@ -31,8 +31,11 @@ type canvas struct {
 	w   *bufio.Writer
 	err error
 	// placed holds the estimated boxes of the labels written by label, so
-	// that later labels can step aside.
-	placed []rect
+	// that later labels can step aside; heads the boxes of the arrowheads
+	// drawn and segments the lines drawn, which labels avoid too.
+	placed   []rect
+	heads    []rect
+	segments []segment
 }
 
 // rect is an axis-aligned box in picture coordinates.
@@ -69,6 +72,10 @@ func (c *canvas) close() error {
 }
 
 func (c *canvas) line(x1, y1, x2, y2 float64, class string, width float64, extra string) {
+	c.segments = append(c.segments, segment{x1, y1, x2, y2})
+	if strings.Contains(extra, "marker-end") {
+		c.heads = append(c.heads, arrowheadBox(x1, y1, x2, y2))
+	}
 	c.printf(`<line x1="%s" y1="%s" x2="%s" y2="%s" class="%s" stroke-width="%s"%s/>`+"\n",
 		num(x1), num(y1), num(x2), num(y2), class, num(width), extra)
 }
@@ -86,54 +93,6 @@ func escape(s string) string {
 	var b strings.Builder
 	_ = xml.EscapeText(&b, []byte(s))
 	return b.String()
-}
-
-// label writes a text as text does, at the first of a few nearby positions
-// (tried in the order given by steps, in multiples of the text's height and
-// width) where its estimated box overlaps no label placed before; when all
-// overlap it goes at (x, y). The box is estimated from the font size and an
-// average glyph width of 0.62 em (0.68 em bold), close enough for the sans
-// fonts the style names (common practice for label placement without font
-// metrics).
-func (c *canvas) label(x, y float64, s, class, anchor string, steps [][2]float64) {
-	size := 12.0
-	if strings.Contains(class, "small") {
-		size = 11
-	}
-	em := 0.62
-	if strings.Contains(class, "space") {
-		em = 0.68
-	}
-	w := em * size * float64(len([]rune(s)))
-	h := size
-	boxAt := func(x, y float64) rect {
-		x0 := x
-		switch anchor {
-		case "middle":
-			x0 = x - w/2
-		case "end":
-			x0 = x - w
-		}
-		return rect{x0 - 1, y - 0.8*h - 1, x0 + w + 1, y + 0.25*h + 1}
-	}
-	at := [2]float64{x, y}
-	for _, st := range steps {
-		cx, cy := x+st[0]*(w+3), y+st[1]*(1.05*h+3) // one box apart
-		b := boxAt(cx, cy)
-		free := true
-		for _, o := range c.placed {
-			if b.overlaps(o) {
-				free = false
-				break
-			}
-		}
-		if free {
-			at = [2]float64{cx, cy}
-			break
-		}
-	}
-	c.placed = append(c.placed, boxAt(at[0], at[1]))
-	c.text(at[0], at[1], s, class, anchor)
 }
 
 // Steps for label: around a point above and below first, then to the sides.

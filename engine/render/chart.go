@@ -78,7 +78,7 @@ func Chart(w io.Writer, spec ChartSpec) error {
 	left := 18 + SmallFontSize + 8 + yLabelWidth + 8 // axis label, gap, tick labels, gap
 	right := 24.0 + textWidth(tickText(xTicks[len(xTicks)-1], xTicks), SmallFontSize, false)/2
 	top := 40.0
-	bottom := 16 + SmallFontSize + 10 + FontSize + 14 + float64(legendLines)*18 + float64(captionLines)*16 + 8
+	bottom := 19 + SmallFontSize + 10 + FontSize + 14 + float64(legendLines)*18 + float64(captionLines)*16 + 8
 	plot := frameChart{left: left, top: top, width: width - left - right, height: height - top - bottom,
 		x0: xTicks[0], x1: xTicks[len(xTicks)-1], y0: yTicks[0], y1: yTicks[len(yTicks)-1]}
 	if plot.height < 60 {
@@ -91,7 +91,7 @@ func Chart(w io.Writer, spec ChartSpec) error {
 	for k, s := range spec.Series {
 		plot.series(c, s, chartStyles[k%len(chartStyles)])
 	}
-	y := top + plot.height + 16 + SmallFontSize + 10 + FontSize + 18
+	y := top + plot.height + 19 + SmallFontSize + 10 + FontSize + 18
 	if spec.Optimum != nil {
 		px, py := plot.px(spec.Optimum[0]), plot.py(spec.Optimum[1])
 		c.printf(`<path d="M%s,%s l7,7 l-7,7 l-7,-7 z" fill="%s" stroke="#ffffff" stroke-width="1"/>`+"\n", num(px), num(py-7), CompressionColour)
@@ -183,7 +183,7 @@ func (f frameChart) axes(c *canvas, xTicks, yTicks []float64, xLabel, yLabel str
 	for _, t := range xTicks {
 		x := f.px(t)
 		c.line(x, f.top, x, f.top+f.height, "frame", 0.8, "")
-		c.text(x, f.top+f.height+16, tickText(t, xTicks), "small", "middle")
+		c.text(x, f.top+f.height+19, tickText(t, xTicks), "small", "middle")
 	}
 	for _, t := range yTicks {
 		y := f.py(t)
@@ -192,7 +192,7 @@ func (f frameChart) axes(c *canvas, xTicks, yTicks []float64, xLabel, yLabel str
 	}
 	c.printf(`<rect x="%s" y="%s" width="%s" height="%s" fill="none" stroke="#666666" stroke-width="1"/>`+"\n",
 		num(f.left), num(f.top), num(f.width), num(f.height))
-	c.text(f.left+f.width/2, f.top+f.height+16+SmallFontSize+14, xLabel, "", "middle")
+	c.text(f.left+f.width/2, f.top+f.height+19+SmallFontSize+14, xLabel, "", "middle")
 	cx, cy := 18+SmallFontSize, f.top+f.height/2
 	c.printf(`<text x="%s" y="%s" text-anchor="middle" transform="rotate(-90 %s %s)">%s</text>`+"\n",
 		num(cx), num(cy), num(cx), num(cy), escape(yLabel))

@@ -83,6 +83,17 @@ func (s *formScene) draw(c *canvas, f frame, forceLabels bool) {
 		w := 1.2 + 3.3*math.Abs(t)/math.Max(maxT, 1e-300)
 		c.line(f.x(p[0]), f.y(p[1]), f.x(q[0]), f.y(q[1]), senseClass(t, s.tol), w, "")
 	}
+	for _, sp := range m.Supports {
+		x, y := f.x(node(m, sp.Node)[0]), f.y(node(m, sp.Node)[1])
+		c.support(x, y, sp.Fixed)
+	}
+	for v := range m.NodeCount() {
+		p := node(m, v)
+		c.circle(f.x(p[0]), f.y(p[1]), 2.6, inkColour)
+	}
+	// Every line and arrowhead is drawn before any label, so that the
+	// labels can keep clear of them all.
+	arrowTags := s.drawArrows(c, f)
 	// Space labels first, so that the numbers written next step aside
 	// from them.
 	for _, l := range s.labels {
@@ -91,6 +102,9 @@ func (s *formScene) draw(c *canvas, f frame, forceLabels bool) {
 			class = "label space"
 		}
 		c.label(f.x(l.at[0]), f.y(l.at[1])+4, l.text, class, "middle", stepsVertical)
+	}
+	for _, t := range arrowTags {
+		c.label(t.x, t.y, t.text, "small label", "middle", stepsVertical)
 	}
 	if forceLabels && len(m.Members) <= 80 {
 		for e, mb := range m.Members {
@@ -104,14 +118,19 @@ func (s *formScene) draw(c *canvas, f frame, forceLabels bool) {
 			c.label((x1+x2)/2+9*nx, (y1+y2)/2+9*ny+4, fmt.Sprintf("%.3g", s.axial[e]), "small label", "middle", stepsVertical)
 		}
 	}
-	for _, sp := range m.Supports {
-		x, y := f.x(node(m, sp.Node)[0]), f.y(node(m, sp.Node)[1])
-		c.support(x, y, sp.Fixed)
-	}
-	for v := range m.NodeCount() {
-		p := node(m, v)
-		c.circle(f.x(p[0]), f.y(p[1]), 2.6, inkColour)
-	}
+}
+
+// arrowTag is an external force's magnitude, to be written near (x, y).
+type arrowTag struct {
+	x, y float64
+	text string
+}
+
+// drawArrows draws the external forces and returns their magnitude
+// labels, to be placed once every line is drawn.
+func (s *formScene) drawArrows(c *canvas, f frame) []arrowTag {
+	m := s.m
+	var arrowTags []arrowTag
 	unit := unitOr(m.Units.Force, "kN")
 	supported := make(map[int]bool, len(m.Supports))
 	for _, sp := range m.Supports {
@@ -134,9 +153,10 @@ func (s *formScene) draw(c *canvas, f frame, forceLabels bool) {
 		if tail == node(m, a.node) {
 			far = head
 		}
-		fx, fy := f.x(far[0])+9*a.dir[0], f.y(far[1])-9*a.dir[1]+4
-		c.label(fx, fy, fmt.Sprintf("%.3g %s", math.Hypot(a.force[0], a.force[1]), unit), "small label", "middle", stepsVertical)
+		arrowTags = append(arrowTags, arrowTag{f.x(far[0]) + 9*a.dir[0], f.y(far[1]) - 9*a.dir[1] + 4,
+			fmt.Sprintf("%.3g %s", math.Hypot(a.force[0], a.force[1]), unit)})
 	}
+	return arrowTags
 }
 
 // Form writes an SVG picture of a 2D form diagram alone, its members

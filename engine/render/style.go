@@ -36,6 +36,12 @@ const (
 	InkColour = "#222222"
 	// FrameColour outlines panels and draws chart grids.
 	FrameColour = "#d0d0d0"
+	// TensionBandColour and CompressionBandColour fill the pale band of a
+	// member drawn wide (a layout member's width is its area), under a
+	// thin centre line in TensionColour or CompressionColour and its dash,
+	// so that a wide compression member reads as one member.
+	TensionBandColour     = "#cfcbe6"
+	CompressionBandColour = "#f3d9b8"
 	// DeflectedColour strokes the deflected shape over the undeformed
 	// model, which is drawn in ZeroColour beneath it.
 	DeflectedColour = TensionColour
@@ -46,6 +52,9 @@ const (
 	CompressionDash = "9 3 2 3"
 	// ZeroDash is the SVG stroke-dasharray of zero-force members: dotted.
 	ZeroDash = "1.5 3"
+
+	// ArrowheadSize is the length and width of an arrowhead in pixels.
+	ArrowheadSize = 12.0
 
 	// FontFamily is the one font stack of every picture and chart.
 	FontFamily = `"DejaVu Sans", "Liberation Sans", Arial, sans-serif`
@@ -87,13 +96,20 @@ text { font-family: ` + FontFamily + `; fill: ` + InkColour + `; font-size: 12px
 .bar { stroke: #444444; fill: none; }
 .support { stroke: ` + InkColour + `; fill: #ffffff; stroke-width: 1.3; }
 .hatch { stroke: ` + InkColour + `; stroke-width: 0.9; fill: none; }
+.tension-band { stroke: ` + TensionBandColour + `; fill: none; stroke-linecap: butt; }
+.compression-band { stroke: ` + CompressionBandColour + `; fill: none; stroke-linecap: butt; }
+.zero-band { stroke: #e4e4e4; fill: none; stroke-linecap: butt; }
+.domain { stroke: #a8a8a8; fill: none; }
+.hole { stroke: #5a5a5a; fill: none; stroke-dasharray: 2 2; }
 `
 
 // markerDefs defines the arrowheads: a filled head for loads, an open
-// head for reactions.
+// head for reactions, both of a fixed size in pixels (ArrowheadSize)
+// whatever the line's width, so that short load-line segments keep
+// readable heads.
 const markerDefs = `<defs>` +
-	`<marker id="arrow" viewBox="0 0 10 10" refX="9" refY="5" markerWidth="7" markerHeight="7" orient="auto-start-reverse">` +
+	`<marker id="arrow" viewBox="0 0 10 10" refX="9" refY="5" markerUnits="userSpaceOnUse" markerWidth="11" markerHeight="11" orient="auto-start-reverse">` +
 	`<path d="M0,0 L10,5 L0,10 z" fill="` + LoadColour + `"/></marker>` +
-	`<marker id="arrow-reaction" viewBox="0 0 12 12" refX="10" refY="6" markerWidth="8" markerHeight="8" orient="auto-start-reverse">` +
+	`<marker id="arrow-reaction" viewBox="0 0 12 12" refX="10" refY="6" markerUnits="userSpaceOnUse" markerWidth="12" markerHeight="12" orient="auto-start-reverse">` +
 	`<path d="M1,1 L11,6 L1,11 z" fill="#ffffff" stroke="` + ReactionColour + `" stroke-width="1.6"/></marker>` +
 	`</defs>`

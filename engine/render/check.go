@@ -1,0 +1,122 @@
+package render
+
+import (
+	"bytes"
+	"encoding/xml"
+	"fmt"
+	"io"
+	"strconv"
+	"strings"
+)
+
+// LabelReport counts the label defects of a picture, as a reader would
+// see them: texts whose estimated boxes overlap another text or an
+// arrowhead, and texts without a white halo lying on a drawn line.
+type LabelReport struct {
+	Texts          int
+	TextOverlaps   []string
+	ArrowOverlaps  []string
+	UnhaloedOnLine []string
+}
+
+// Defects is the number of defects found.
+func (r LabelReport) Defects() int {
+	return len(r.TextOverlaps) + len(r.ArrowOverlaps) + len(r.UnhaloedOnLine)
+}
+
+// CheckLabels reads an SVG picture and reports its label defects. It
+// reads <text> elements (position, anchor, class; rotated texts are left
+// out) and <line> elements (an arrowhead where marker-end is set), with
+// the same box estimates the placement uses; it is meant for tests of
+// every picture Gusset writes, including pictures drawn outside this
+// package.
+func CheckLabels(svg []byte) (LabelReport, error) {
+	var rep LabelReport
+	type text struct {
+		box   rect
+		s     string
+		halo  bool
+		inner string
+	}
+	var texts []text
+	var segs []segment
+	var heads []rect
+	dec := xml.NewDecoder(bytes.NewReader(svg))
+	for {
+		tok, err := dec.Token()
+		if err == io.EOF {
+			break
+		}
+		if err != nil {
+			return rep, err
+		}
+		el, ok := tok.(xml.StartElement)
+		if !ok {
+			continue
+		}
+		attr := func(name string) string {
+			for _, a := range el.Attr {
+				if a.Name.Local == name {
+					return a.Value
+				}
+			}
+			return ""
+		}
+		f := func(name string) float64 {
+			v, _ := strconv.ParseFloat(attr(name), 64)
+			return v
+		}
+		switch el.Name.Local {
+		case "line":
+			if attr("class") == "leader" {
+				continue // a leader ends at its label by design
+			}
+			s := segment{f("x1"), f("y1"), f("x2"), f("y2")}
+			segs = append(segs, s)
+			if attr("marker-end") != "" {
+				heads = append(heads, arrowheadBox(s.x1, s.y1, s.x2, s.y2))
+			}
+		case "text":
+			var content string
+			if err := dec.DecodeElement(&content, &el); err != nil {
+				return rep, err
+			}
+			if attr("transform") != "" || strings.TrimSpace(content) == "" {
+				continue
+			}
+			class, anchor := attr("class"), attr("text-anchor")
+			if anchor == "" {
+				anchor = "start"
+			}
+			texts = append(texts, text{box: labelBox(f("x"), f("y"), content, class, anchor), s: content,
+				halo: strings.Contains(class, "label")})
+		}
+	}
+	rep.Texts = len(texts)
+	for i, a := range texts {
+		for _, b := range texts[:i] {
+			if a.box.overlaps(shrink(b.box)) {
+				rep.TextOverlaps = append(rep.TextOverlaps, fmt.Sprintf("%q on %q", a.s, b.s))
+			}
+		}
+		for _, h := range heads {
+			if shrink(a.box).overlaps(h) {
+				rep.ArrowOverlaps = append(rep.ArrowOverlaps, fmt.Sprintf("%q on an arrowhead", a.s))
+				break
+			}
+		}
+		if !a.halo {
+			for _, s := range segs {
+				if s.hits(shrink(a.box)) {
+					rep.UnhaloedOnLine = append(rep.UnhaloedOnLine, fmt.Sprintf("%q on a line without a halo", a.s))
+					break
+				}
+			}
+		}
+	}
+	return rep, nil
+}
+
+// shrink takes the one-pixel margin off a label box, so that two labels
+// merely touching do not count as overlapping.
+func shrink(r rect) rect { return rect{r.x0 + 1, r.y0 + 1, r.x1 - 1, r.y1 - 1} }
