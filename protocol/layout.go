@@ -32,7 +32,7 @@ type LayoutMember struct {
 	// ID is the member's id in model.
 	ID string `json:"id"`
 	// Ends are the ids of its nodes in model.
-	Ends [2]string `json:"ends"`
+	Ends []string `json:"ends" jsonschema:"minItems=2,maxItems=2"`
 	// Length is its length.
 	Length float64 `json:"length"`
 	// Area is the area it needs.

@@ -12,5 +12,4 @@ const (
 	MethodLoadPath       = "load-path"
 	MethodSweepParameter = "sweep-parameter"
 	MethodOptimiseLayout = "optimise-layout"
-	MethodFindForm       = "find-form"
 )

@@ -101,7 +101,7 @@ type Member struct {
 	ID string `json:"id" jsonschema:"minLength=1"`
 	// Ends are the ids of the first and second node. The member's local x
 	// axis runs from the first to the second.
-	Ends [2]string `json:"ends"`
+	Ends []string `json:"ends" jsonschema:"minItems=2,maxItems=2"`
 	// Material is a material id.
 	Material string `json:"material"`
 	// Section is a section id.

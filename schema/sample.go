@@ -15,7 +15,15 @@ import (
 // the rest of the structure on this sample. Fields absent from the input
 // appear as zero values in the sample, so when it fails the caller should
 // report ValidateFull of the original bytes, which has precise pointers.
+// Every array's length is checked in full first (CheckBounds), since the
+// sample leaves out most elements.
 func (v *Validator) ValidateSample(method string, value any) *protocol.Error {
+	if problems := CheckBounds(value); len(problems) > 0 {
+		for i := range problems {
+			problems[i].Path = "/params" + problems[i].Path
+		}
+		return protocol.NewError(protocol.CodeInvalidParams, "invalid params", problems[0].Path+": "+problems[0].Message+".", problems...)
+	}
 	sample := truncated(reflect.ValueOf(value), ElideAbove)
 	b, err := json.Marshal(sample.Interface())
 	if err != nil {

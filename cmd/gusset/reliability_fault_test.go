@@ -229,7 +229,7 @@ func TestFaults(t *testing.T) {
 		overNodes.Nodes = append(overNodes.Nodes, protocol.Node{ID: "spare", At: []protocol.Number{{Value: 20}, {Value: 9}}})
 		overMembers := wireModel(modelgen.Pratt(10, 40, 4, 10))
 		extra := overMembers.Members[0]
-		extra.ID, extra.Ends = "extra", [2]string{overMembers.Nodes[0].ID, overMembers.Nodes[len(overMembers.Nodes)-1].ID}
+		extra.ID, extra.Ends = "extra", []string{overMembers.Nodes[0].ID, overMembers.Nodes[len(overMembers.Nodes)-1].ID}
 		overMembers.Members = append(overMembers.Members, extra)
 		if len(atLimit.Nodes) != maxNodes || len(atLimit.Members) != maxMembers || len(overMembers.Nodes) != maxNodes {
 			t.Fatalf("generated model has %d nodes and %d members", len(atLimit.Nodes), len(atLimit.Members))

@@ -42,7 +42,7 @@ func specOf(w *protocol.Model) *model.Spec {
 	}
 	s.Members = make([]model.MemberSpec, len(w.Members))
 	for i, m := range w.Members {
-		s.Members[i] = model.MemberSpec{ID: m.ID, Ends: m.Ends, Material: m.Material, Section: m.Section,
+		s.Members[i] = model.MemberSpec{ID: m.ID, Ends: memberEnds(m.Ends), Material: m.Material, Section: m.Section,
 			Type: m.Type, Orientation: m.Orientation, BucklingFactor: m.BucklingFactor}
 	}
 	s.Supports = make([]model.SupportSpec, len(w.Supports))

@@ -51,9 +51,6 @@ var methods = []entry{
 	method(protocol.MethodOptimiseLayout,
 		"The least-volume pin-jointed layout over a design domain by the ground-structure method with member adding, returned as a model ready for analysis.",
 		(*Adapter).optimiseLayout),
-	method(protocol.MethodFindForm,
-		"Equilibrium forms of pin-jointed networks from force densities (Schek's force density method) in 2D and 3D, through a point, to target lengths or forces, with loads that follow the form; the answer is a model.",
-		(*Adapter).findForm),
 }
 
 // detailTypes are published in the schema because errors carry them as

@@ -52,7 +52,7 @@ func WireModel(s *model.Spec) *protocol.Model {
 		w.Nodes = append(w.Nodes, protocol.Node{ID: n.ID, At: nums(n.At), Mass: n.Mass})
 	}
 	for _, m := range s.Members {
-		w.Members = append(w.Members, protocol.Member{ID: m.ID, Ends: m.Ends, Material: m.Material, Section: m.Section,
+		w.Members = append(w.Members, protocol.Member{ID: m.ID, Ends: []string{m.Ends[0], m.Ends[1]}, Material: m.Material, Section: m.Section,
 			Type: m.Type, Orientation: m.Orientation, BucklingFactor: m.BucklingFactor})
 	}
 	for _, p := range s.Supports {
