@@ -51,6 +51,9 @@ var methods = []entry{
 	method(protocol.MethodOptimiseLayout,
 		"The least-volume pin-jointed layout over a design domain by the ground-structure method with member adding, returned as a model ready for analysis.",
 		(*Adapter).optimiseLayout),
+	method(protocol.MethodModes,
+		"Linear buckling load factors of a load case, or natural frequencies with participation factors, and their mode shapes, by shift-invert Lanczos.",
+		(*Adapter).modes),
 }
 
 // detailTypes are published in the schema because errors carry them as
