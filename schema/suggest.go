@@ -6,6 +6,8 @@ import (
 	"sort"
 	"strings"
 	"sync"
+
+	"gusset/protocol"
 )
 
 // document is the published schema decoded once, for looking up the
@@ -56,7 +58,52 @@ func suggestion(keywordURL, message string) string {
 	if len(hints) == 0 {
 		return ""
 	}
-	return " (did you mean " + strings.Join(hints, ", ") + "?)"
+	return " (" + didYouMean + " " + strings.Join(hints, ", ") + "?)"
+}
+
+// didYouMean opens every hint, so that messages holding one can be found.
+const didYouMean = "did you mean"
+
+// Closest returns the name in allowed nearest to name, by the rule of the
+// property hints (see closest), or "" when none is near: for a host's
+// misspelt method or case name.
+func Closest(name string, allowed []string) string { return closest(name, allowed) }
+
+// bareModel returns a problem when params hold a model's own fields but
+// no "model" although the method's params (definition def) take one: the
+// host forgot the wrapper. It needs two of the model's fields present, so
+// that one stray name is left to the ordinary hints.
+func bareModel(def string, doc any) *protocol.Problem {
+	params, ok := doc.(map[string]any)
+	if !ok {
+		return nil
+	}
+	if _, has := params["model"]; has {
+		return nil
+	}
+	defs, _ := document()["$defs"].(map[string]any)
+	paramsDef, _ := defs[def].(map[string]any)
+	paramsProps, _ := paramsDef["properties"].(map[string]any)
+	if _, takesModel := paramsProps["model"]; !takesModel {
+		return nil
+	}
+	modelDef, _ := defs["Model"].(map[string]any)
+	modelProps, _ := modelDef["properties"].(map[string]any)
+	var found []string
+	for name := range params {
+		if _, isParam := paramsProps[name]; isParam {
+			continue
+		}
+		if _, isModel := modelProps[name]; isModel {
+			found = append(found, "'"+name+"'")
+		}
+	}
+	if len(found) < 2 {
+		return nil
+	}
+	sort.Strings(found)
+	return &protocol.Problem{Path: "/params", Message: "the params hold a model's fields (" + strings.Join(found, ", ") +
+		") but no 'model': wrap the model, as {\"model\": {\"dimension\": …, \"nodes\": …}}, and put the method's own params beside it"}
 }
 
 // closest returns the allowed name nearest to name: the one at the smallest

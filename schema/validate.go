@@ -103,9 +103,17 @@ func (v *Validator) validate(method string, params json.RawMessage, elide bool) 
 	if !errors.As(err, &ve) {
 		return protocol.NewError(protocol.CodeInvalidParams, "invalid params", err.Error())
 	}
+	if p := bareModel(v.params[method], doc); p != nil {
+		return protocol.NewError(protocol.CodeInvalidParams, "invalid params", p.Message+".", *p)
+	}
 	leaves(ve, &problems)
 	sort.SliceStable(problems, func(i, j int) bool { return problems[i].Path < problems[j].Path })
 	problems = dedupe(problems)
+	// A did-you-mean leads: it names the cause (a misspelt property),
+	// where "missing properties" beside it names only the effect.
+	sort.SliceStable(problems, func(i, j int) bool {
+		return strings.Contains(problems[i].Message, didYouMean) && !strings.Contains(problems[j].Message, didYouMean)
+	})
 	total := len(problems)
 	if total > MaxProblems {
 		problems = problems[:MaxProblems]
