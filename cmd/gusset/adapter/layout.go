@@ -8,6 +8,7 @@ import (
 	"gusset/engine/layout"
 	"gusset/engine/model"
 	"gusset/protocol"
+	"gusset/protocol/jsonrpc"
 )
 
 // defaultModulus is steel's Young's modulus in kN/m², the default for the
@@ -85,7 +86,7 @@ func (a *Adapter) optimiseLayout(ctx context.Context, r *request[protocol.Layout
 }
 
 // layoutReporter passes the member-adding rounds on as partial results.
-type layoutReporter struct{ st protocol.Stream }
+type layoutReporter struct{ st jsonrpc.Stream }
 
 func (r layoutReporter) Progress(stage string, done, total int, partial any) {
 	if round, ok := partial.(layout.Round); ok {
@@ -127,7 +128,7 @@ func layoutResult(l *layout.Layout, units *protocol.Units, modulus float64) *pro
 		id, section := fmt.Sprintf("m%d", e), fmt.Sprintf("a%d", e)
 		spec.Sections = append(spec.Sections, model.SectionSpec{ID: section, Area: model.Num(m.Area)})
 		spec.Members = append(spec.Members, model.MemberSpec{ID: id, Ends: [2]string{nodeID(m.Ends[0]), nodeID(m.Ends[1])}, Material: "material", Section: section})
-		out.Members = append(out.Members, protocol.LayoutMember{ID: id, Ends: []string{nodeID(m.Ends[0]), nodeID(m.Ends[1])},
+		out.Members = append(out.Members, protocol.LayoutMember{ID: id, Ends: [2]string{nodeID(m.Ends[0]), nodeID(m.Ends[1])},
 			Length: m.Length, Area: m.Area, Forces: m.Forces})
 	}
 	for _, s := range l.Supports {
