@@ -12,4 +12,5 @@ const (
 	MethodLoadPath       = "load-path"
 	MethodSweepParameter = "sweep-parameter"
 	MethodOptimiseLayout = "optimise-layout"
+	MethodFindForm       = "find-form"
 )

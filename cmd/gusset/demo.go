@@ -15,7 +15,6 @@ import (
 
 	"gusset/cmd/gusset/adapter"
 	"gusset/protocol"
-	"gusset/protocol/jsonrpc"
 )
 
 // footbridge is the demo scenario, of our own invention: the Brannock Cut
@@ -35,7 +34,7 @@ const deckArea = 72.0
 type demo struct {
 	out    io.Writer
 	dir    string
-	server *jsonrpc.Server
+	server *protocol.Server
 	model  json.RawMessage
 	next   int
 }

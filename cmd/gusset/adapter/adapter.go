@@ -11,7 +11,6 @@ import (
 	"gusset/engine/fault"
 	"gusset/engine/model"
 	"gusset/protocol"
-	"gusset/protocol/jsonrpc"
 	"gusset/schema"
 )
 
@@ -26,7 +25,7 @@ type Adapter struct {
 
 // Register adds every engine method to the server, with schema validation
 // of params and the mapping of engine errors to wire codes.
-func Register(s *jsonrpc.Server) error {
+func Register(s *protocol.Server) error {
 	s.Limits = s.Limits.WithDefaults()
 	v, err := schema.NewValidator(paramsDefinitions())
 	if err != nil {

@@ -9,7 +9,6 @@ import (
 	"testing"
 
 	"gusset/protocol"
-	"gusset/protocol/jsonrpc"
 	"gusset/schema"
 )
 
@@ -30,7 +29,7 @@ func FuzzMethodParams(f *testing.F) {
 		f.Fatal(err)
 	}
 	a := &Adapter{Limits: protocol.Limits{}.WithDefaults(), validator: v}
-	handlers := map[string]jsonrpc.Handler{}
+	handlers := map[string]protocol.Handler{}
 	for _, e := range methods {
 		handlers[e.name] = e.bind(a)
 	}

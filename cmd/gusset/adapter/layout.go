@@ -8,7 +8,6 @@ import (
 	"gusset/engine/layout"
 	"gusset/engine/model"
 	"gusset/protocol"
-	"gusset/protocol/jsonrpc"
 )
 
 // defaultModulus is steel's Young's modulus in kN/m², the default for the
@@ -86,7 +85,7 @@ func (a *Adapter) optimiseLayout(ctx context.Context, r *request[protocol.Layout
 }
 
 // layoutReporter passes the member-adding rounds on as partial results.
-type layoutReporter struct{ st jsonrpc.Stream }
+type layoutReporter struct{ st protocol.Stream }
 
 func (r layoutReporter) Progress(stage string, done, total int, partial any) {
 	if round, ok := partial.(layout.Round); ok {
@@ -128,7 +127,7 @@ func layoutResult(l *layout.Layout, units *protocol.Units, modulus float64) *pro
 		id, section := fmt.Sprintf("m%d", e), fmt.Sprintf("a%d", e)
 		spec.Sections = append(spec.Sections, model.SectionSpec{ID: section, Area: model.Num(m.Area)})
 		spec.Members = append(spec.Members, model.MemberSpec{ID: id, Ends: [2]string{nodeID(m.Ends[0]), nodeID(m.Ends[1])}, Material: "material", Section: section})
-		out.Members = append(out.Members, protocol.LayoutMember{ID: id, Ends: [2]string{nodeID(m.Ends[0]), nodeID(m.Ends[1])},
+		out.Members = append(out.Members, protocol.LayoutMember{ID: id, Ends: []string{nodeID(m.Ends[0]), nodeID(m.Ends[1])},
 			Length: m.Length, Area: m.Area, Forces: m.Forces})
 	}
 	for _, s := range l.Supports {

@@ -1,4 +1,4 @@
-package jsonrpc
+package protocol
 
 import (
 	"bufio"
@@ -9,8 +9,6 @@ import (
 	"testing"
 	"time"
 	"unicode/utf8"
-
-	"gusset/protocol"
 )
 
 // fuzzLineLimit is small so that the fuzzer reaches the oversize-line path
@@ -51,7 +49,7 @@ func FuzzServe(f *testing.F) {
 		f.Add([]byte(s))
 	}
 	f.Fuzz(func(t *testing.T, input []byte) {
-		s := fuzzServer(protocol.Limits{Workers: 2, MaxLineBytes: fuzzLineLimit})
+		s := fuzzServer(Limits{Workers: 2, MaxLineBytes: fuzzLineLimit})
 		var out bytes.Buffer
 		if _, err := s.Serve(context.Background(), bytes.NewReader(input), &out); err != nil {
 			t.Fatalf("Serve: %v", err)
@@ -75,7 +73,7 @@ func FuzzServe(f *testing.F) {
 			}
 			if _, isNote := m["method"]; isNote {
 				var p struct {
-					Params protocol.Progress `json:"params"`
+					Params Progress `json:"params"`
 				}
 				if err := json.Unmarshal(line, &p); err != nil {
 					t.Fatalf("bad notification %q: %v", line, err)
@@ -126,13 +124,13 @@ func FuzzServe(f *testing.F) {
 // echo returns its params after a partial result, wait reports progress
 // for up to 2 ms or until cancelled, boom panics and fail returns an
 // application error.
-func fuzzServer(limits protocol.Limits) *Server {
+func fuzzServer(limits Limits) *Server {
 	s := &Server{Name: "fuzz", Version: "0", Limits: limits}
-	s.Handle(protocol.Method{Name: "echo"}, func(ctx context.Context, p json.RawMessage, st Stream) (any, error) {
+	s.Handle(Method{Name: "echo"}, func(ctx context.Context, p json.RawMessage, st Stream) (any, error) {
 		st.Progress("echoing", 0, 1, map[string]int{"bytes": len(p)})
 		return p, nil
 	})
-	s.Handle(protocol.Method{Name: "wait"}, func(ctx context.Context, p json.RawMessage, st Stream) (any, error) {
+	s.Handle(Method{Name: "wait"}, func(ctx context.Context, p json.RawMessage, st Stream) (any, error) {
 		deadline := time.Now().Add(2 * time.Millisecond)
 		for i := 0; time.Now().Before(deadline); i++ {
 			if err := ctx.Err(); err != nil {
@@ -142,11 +140,11 @@ func fuzzServer(limits protocol.Limits) *Server {
 		}
 		return "waited", nil
 	})
-	s.Handle(protocol.Method{Name: "boom"}, func(ctx context.Context, p json.RawMessage, st Stream) (any, error) {
+	s.Handle(Method{Name: "boom"}, func(ctx context.Context, p json.RawMessage, st Stream) (any, error) {
 		panic("boom")
 	})
-	s.Handle(protocol.Method{Name: "fail"}, func(ctx context.Context, p json.RawMessage, st Stream) (any, error) {
-		return nil, protocol.NewError(1000, "invalid model", "fails on purpose")
+	s.Handle(Method{Name: "fail"}, func(ctx context.Context, p json.RawMessage, st Stream) (any, error) {
+		return nil, NewError(1000, "invalid model", "fails on purpose")
 	})
 	return s
 }
