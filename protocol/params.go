@@ -10,6 +10,11 @@ type SolveParams struct {
 	// Cases lists the load cases and combinations to report, by id;
 	// default every case and then every combination.
 	Cases []string `json:"cases,omitempty"`
+	// Picture asks for an SVG drawing of the first reported case in the
+	// result: the deflected shape over the undeformed model, members
+	// styled by the sense of their axial force; a 3D model in an
+	// isometric view, a plan and an elevation.
+	Picture bool `json:"picture,omitempty"`
 }
 
 // ReciprocateParams are the params of reciprocate: the reciprocal force
@@ -146,21 +151,30 @@ type Shard struct {
 // LayoutParams are the params of optimise-layout: the least-volume
 // pin-jointed layout by the ground-structure method.
 type LayoutParams struct {
+	// Dimension is 2 (the default: a plane layout, points [x, y]) or 3 (a
+	// space layout, points [x, y, z]); every point, the divisions and the
+	// force vectors have this many entries.
+	Dimension int `json:"dimension,omitempty" jsonschema:"enum=2,enum=3"`
 	// Units declares the length and force units.
 	Units *Units `json:"units,omitempty"`
-	// Domain is the region the layout may occupy; ignored when nodes are
-	// given.
+	// Domain is the region the layout may occupy: in the plane a polygon
+	// with polygonal holes, in space a convex polyhedron with holes that
+	// are boxes or convex polyhedra. With nodes it only excludes members
+	// that leave it.
 	Domain *Domain `json:"domain,omitempty"`
-	// Divisions is the number of grid divisions along x and y over the
-	// domain's bounding box.
-	Divisions []int `json:"divisions,omitempty" jsonschema:"minItems=2,maxItems=2"`
-	// Nodes are the host's own candidate node positions instead of a grid.
+	// Divisions is the number of grid divisions along x and y (and z in
+	// space) over the domain's bounding box.
+	Divisions []int `json:"divisions,omitempty" jsonschema:"minItems=2,maxItems=3"`
+	// Nodes are the host's own candidate node positions instead of a grid;
+	// every pair that sees each other inside the domain is a candidate.
 	Nodes [][]float64 `json:"nodes,omitempty"`
 	// Connectivity limits candidate members to grid steps of at most this
-	// many divisions in x and y; 0 connects every pair.
+	// many divisions along each axis; 0 connects every pair.
 	Connectivity int `json:"connectivity,omitempty" jsonschema:"minimum=0"`
-	// Supports are points (snapped to the nearest node) with fixed
-	// components x and/or y.
+	// Supports are points with fixed components x, y (and z in space).
+	// Each must lie at a node: within a hundredth of the node spacing of
+	// one, or the request is refused with the nearest node and its
+	// distance (a support is never moved to a node farther away).
 	Supports []LayoutSupport `json:"supports" jsonschema:"minItems=1"`
 	// Cases are load cases of point loads.
 	Cases []LayoutCase `json:"cases" jsonschema:"minItems=1"`
@@ -187,20 +201,42 @@ type LayoutParams struct {
 	Picture bool `json:"picture,omitempty"`
 }
 
-// Domain is a polygon with optional polygonal holes.
+// Domain is a layout's design domain: in the plane a polygon with optional
+// polygonal holes, in space a convex polyhedron with optional holes that
+// are convex polyhedra or boxes. Give outline or box.
 type Domain struct {
-	// Outline lists the corners in order.
-	Outline [][]float64 `json:"outline" jsonschema:"minItems=3"`
-	// Holes lists polygons inside the outline that members may not cross.
+	// Outline lists, in the plane, the polygon's corners in order; in
+	// space, the vertices of a convex polyhedron (the domain is their
+	// convex hull; at most 64 vertices).
+	Outline [][]float64 `json:"outline,omitempty" jsonschema:"minItems=3"`
+	// Box is the domain as a box (a rectangle in the plane), instead of
+	// outline.
+	Box *LayoutBox `json:"box,omitempty"`
+	// Holes lists regions inside the domain that members may not enter or
+	// cross (they may touch their edges and faces): in the plane polygons
+	// given by their corners in order, in space convex polyhedra given by
+	// their vertices (at most 64 each). A load or support inside a hole is
+	// refused.
 	Holes [][][]float64 `json:"holes,omitempty"`
+	// BoxHoles lists holes given as boxes (rectangles in the plane).
+	BoxHoles []LayoutBox `json:"box_holes,omitempty"`
+}
+
+// LayoutBox is an axis-aligned box (a rectangle in the plane) from its
+// lowest corner to its highest.
+type LayoutBox struct {
+	// Min is the corner with the smallest coordinates.
+	Min []float64 `json:"min" jsonschema:"minItems=2,maxItems=3"`
+	// Max is the corner with the largest coordinates.
+	Max []float64 `json:"max" jsonschema:"minItems=2,maxItems=3"`
 }
 
 // LayoutSupport is a support of a layout problem.
 type LayoutSupport struct {
-	// At is the support's position.
-	At []float64 `json:"at" jsonschema:"minItems=2,maxItems=2"`
-	// Fix lists the fixed components, x and/or y.
-	Fix []string `json:"fix" jsonschema:"minItems=1,uniqueItems=true"`
+	// At is the support's position, at a node.
+	At []float64 `json:"at" jsonschema:"minItems=2,maxItems=3"`
+	// Fix lists the fixed components: x, y (and z in space).
+	Fix []string `json:"fix" jsonschema:"minItems=1,maxItems=3,uniqueItems=true,enum=x,enum=y,enum=z"`
 }
 
 // LayoutCase is a load case of a layout problem.
@@ -213,8 +249,10 @@ type LayoutCase struct {
 
 // LayoutLoad is a point load.
 type LayoutLoad struct {
-	// At is the load's position.
-	At []float64 `json:"at" jsonschema:"minItems=2,maxItems=2"`
-	// Force is the force vector.
-	Force []float64 `json:"force" jsonschema:"minItems=2,maxItems=2"`
+	// At is the load's position, at a node (within a hundredth of the node
+	// spacing of one; a point inside a hole or away from every node is
+	// refused).
+	At []float64 `json:"at" jsonschema:"minItems=2,maxItems=3"`
+	// Force is the force vector, with as many components as the dimension.
+	Force []float64 `json:"force" jsonschema:"minItems=2,maxItems=3"`
 }

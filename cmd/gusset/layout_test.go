@@ -106,3 +106,86 @@ func TestLayoutJointCost(t *testing.T) {
 		t.Errorf("%d members, volume %v, objective %v; want 1, 2.5, 4.5", len(lay.Members), lay.Volume, lay.Objective)
 	}
 }
+
+// TestSpaceLayoutGoesOn sends a space layout problem (a 6 × 4 × 2 grid
+// over a 2 × 1 × 1 box, pins at the four lower corners, a load at the
+// middle of the lower face) and checks that the model it returns is a
+// space model that solve and load-path take as it is and agree with:
+// solve's axial forces are the layout's, and the load path equals the
+// volume (σ = 1) with Maxwell's residual at round-off (Maxwell 1870).
+func TestSpaceLayoutGoesOn(t *testing.T) {
+	request := `{"jsonrpc":"2.0","id":1,"method":"optimise-layout","params":{"dimension":3,"domain":{"box":{"min":[0,0,0],"max":[2,1,1]}},"divisions":[6,4,2],` +
+		`"supports":[{"at":[0,0,0],"fix":["x","y","z"]},{"at":[2,0,0],"fix":["x","y","z"]},{"at":[0,1,0],"fix":["x","y","z"]},{"at":[2,1,0],"fix":["x","y","z"]}],` +
+		`"cases":[{"id":"P","loads":[{"at":[1,0.5,0],"force":[0,0,-1]}]}],"tension_limit":1,"compression_limit":1,"picture":true}}`
+	var lay struct {
+		Volume  float64 `json:"volume"`
+		Members []struct {
+			Forces []float64 `json:"forces"`
+		} `json:"members"`
+		Cases []struct {
+			MaxwellResidual float64 `json:"maxwell_residual"`
+		} `json:"cases"`
+		Model   json.RawMessage `json:"model"`
+		Picture string          `json:"picture"`
+	}
+	final(t, request, &lay)
+	if !strings.Contains(lay.Picture, "Axonometric view") || !strings.Contains(lay.Picture, "qualified engineer") {
+		t.Error("no space picture with the caution")
+	}
+	if !strings.Contains(string(lay.Model), `"dimension":3`) {
+		t.Errorf("model is not a space model: %.200s", lay.Model)
+	}
+	if math.Abs(lay.Cases[0].MaxwellResidual) > 1e-12*lay.Volume {
+		t.Errorf("Maxwell residual %v", lay.Cases[0].MaxwellResidual)
+	}
+	var solved struct {
+		Cases []struct {
+			AxialForces []float64 `json:"axial_forces"`
+		} `json:"cases"`
+	}
+	final(t, fmt.Sprintf(`{"jsonrpc":"2.0","id":2,"method":"solve","params":{"model":%s}}`, lay.Model), &solved)
+	for e, m := range lay.Members {
+		if got := solved.Cases[0].AxialForces[e]; math.Abs(got-m.Forces[0]) > 1e-8 {
+			t.Errorf("member %d: solve gives %v, the layout %v", e, got, m.Forces[0])
+		}
+	}
+	var lp struct {
+		Cases []struct {
+			LoadPath         float64 `json:"load_path"`
+			RelativeResidual float64 `json:"relative_residual"`
+		} `json:"cases"`
+	}
+	final(t, fmt.Sprintf(`{"jsonrpc":"2.0","id":3,"method":"load-path","params":{"model":%s}}`, lay.Model), &lp)
+	if c := lp.Cases[0]; math.Abs(c.LoadPath-lay.Volume) > 1e-9 || c.RelativeResidual > 1e-12 {
+		t.Errorf("load path %v (residual %v), want the volume %v", c.LoadPath, c.RelativeResidual, lay.Volume)
+	}
+}
+
+// TestLayoutRefusals checks the layout errors a host meets first, each
+// with its pointer: a point with the wrong number of entries, a load
+// inside a hole (said so), a support away from every node (with the
+// nearest node and its distance), z fixed in a plane layout.
+func TestLayoutRefusals(t *testing.T) {
+	base := `"domain":{"box":{"min":[0,0],"max":[2,1]},"box_holes":[{"min":[0.5,0.25],"max":[1.5,0.75]}]},"divisions":[8,4],` +
+		`"tension_limit":1,"compression_limit":1`
+	for _, tc := range []struct {
+		name, params, path, text string
+	}{
+		{"3 entries in 2D", base + `,"supports":[{"at":[0,0,0],"fix":["x","y"]},{"at":[2,0],"fix":["x","y"]}],"cases":[{"id":"P","loads":[{"at":[1,0],"force":[0,-1]}]}]`,
+			"/params/supports/0/at", "3 entries, want 2"},
+		{"load in a hole", base + `,"supports":[{"at":[0,0],"fix":["x","y"]},{"at":[2,0],"fix":["x","y"]}],"cases":[{"id":"P","loads":[{"at":[1,0.5],"force":[0,-1]}]}]`,
+			"/params/cases/0/loads/0/at", "inside hole 0"},
+		{"support off a node", base + `,"supports":[{"at":[0.1,0],"fix":["x","y"]},{"at":[2,0],"fix":["x","y"]}],"cases":[{"id":"P","loads":[{"at":[1,0],"force":[0,-1]}]}]`,
+			"/params/supports/0/at", "the nearest node, at (0, 0), is 0.1 away"},
+		{"z in 2D", base + `,"supports":[{"at":[0,0],"fix":["x","z"]},{"at":[2,0],"fix":["x","y"]}],"cases":[{"id":"P","loads":[{"at":[1,0],"force":[0,-1]}]}]`,
+			"/params/supports/0/fix/1", "only x and y"},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			_, out, _ := runCapture([]string{"run", "-"}, `{"jsonrpc":"2.0","id":1,"method":"optimise-layout","params":{`+tc.params+"}}\n")
+			text := out
+			if !strings.Contains(text, `"error"`) || !strings.Contains(text, tc.path) || !strings.Contains(text, tc.text) {
+				t.Errorf("answer %s lacks %s and %q", text, tc.path, tc.text)
+			}
+		})
+	}
+}

@@ -72,7 +72,7 @@ var normalOptions = sparse.Options{OwnDiagonal: true, DeficientPivot: 1e64, Regu
 // newNormalEquations analyses the pattern of A·Aᵀ. rowCoord gives a point
 // for each row (nodal coordinates) from which a nested-dissection order is
 // built; nil lets engine/sparse choose its order.
-func newNormalEquations(a *sparseColumns, rowCoord [][2]float64) *normalEquations {
+func newNormalEquations(a *sparseColumns, rowCoord []vec) *normalEquations {
 	m := a.rows
 	matrix := sparse.NewPattern(m, func(visit func(i, j int)) {
 		for j := 0; j < a.cols; j++ {

@@ -18,9 +18,9 @@ func TestNormalEquations(t *testing.T) {
 	for _, size := range []int{5, 60, 300} {
 		t.Run(fmt.Sprintf("rows=%d", size), func(t *testing.T) {
 			m, n := size, 3*size
-			coords := make([][2]float64, m)
+			coords := make([]vec, m)
 			for i := range coords {
-				coords[i] = [2]float64{rnd.Float64(), rnd.Float64()}
+				coords[i] = vec{rnd.Float64(), rnd.Float64()}
 			}
 			dense := mat.NewDense(m, n, nil)
 			for j := 0; j < n; j++ {

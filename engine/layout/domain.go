@@ -119,9 +119,61 @@ func strictlyInside(poly [][2]float64, p [2]float64) bool {
 	return inside
 }
 
-// contains reports whether p is in the closed domain: inside or on the
+// vec is a point or vector; in the plane the third component is 0.
+type vec = [3]float64
+
+func flat(p vec) [2]float64 { return [2]float64{p[0], p[1]} }
+
+// space is a checked design domain in the plane (region) or in space
+// (solid).
+type space interface {
+	// contains reports whether p is in the closed domain.
+	contains(p vec) bool
+	// admits reports whether the segment pq lies in the closed domain.
+	admits(p, q vec) bool
+	// bounds returns the bounding box.
+	bounds() (lo, hi vec)
+	// holeAt returns the index of the hole p lies strictly inside, or −1.
+	holeAt(p vec) int
+	// edges returns the boundary's edges and the holes' edges, for drawing.
+	edges() (outline, holes [][2]vec)
+}
+
+func (r *region) contains(p vec) bool { return r.containsFlat(flat(p)) }
+
+func (r *region) admits(p, q vec) bool { return r.admitsFlat(flat(p), flat(q)) }
+
+func (r *region) bounds() (lo, hi vec) {
+	return vec{r.lo[0], r.lo[1]}, vec{r.hi[0], r.hi[1]}
+}
+
+func (r *region) holeAt(p vec) int {
+	for h, hole := range r.holes {
+		if !onBoundary(hole, flat(p), r.eps) && strictlyInside(hole, flat(p)) {
+			return h
+		}
+	}
+	return -1
+}
+
+func (r *region) edges() (outline, holes [][2]vec) {
+	ring := func(poly [][2]float64, out [][2]vec) [][2]vec {
+		for i := range poly {
+			p, q := poly[i], poly[(i+1)%len(poly)]
+			out = append(out, [2]vec{{p[0], p[1]}, {q[0], q[1]}})
+		}
+		return out
+	}
+	outline = ring(r.outline, nil)
+	for _, h := range r.holes {
+		holes = ring(h, holes)
+	}
+	return outline, holes
+}
+
+// containsFlat reports whether p is in the closed domain: inside or on the
 // outline and not strictly inside a hole.
-func (r *region) contains(p [2]float64) bool {
+func (r *region) containsFlat(p [2]float64) bool {
 	if !onBoundary(r.outline, p, r.eps) && !strictlyInside(r.outline, p) {
 		return false
 	}
@@ -137,7 +189,7 @@ func (r *region) contains(p [2]float64) bool {
 // ends must be in it; the segment is cut where it meets the boundary and
 // the middle of each piece is tested, which also catches a segment that
 // leaves through a vertex or runs along an edge.
-func (r *region) admits(p, q [2]float64) bool {
+func (r *region) admitsFlat(p, q [2]float64) bool {
 	if r.convex {
 		return true
 	}
@@ -159,7 +211,7 @@ func (r *region) admits(p, q [2]float64) bool {
 			continue
 		}
 		t := (cuts[k] + cuts[k+1]) / 2
-		if !r.contains([2]float64{p[0] + t*(q[0]-p[0]), p[1] + t*(q[1]-p[1])}) {
+		if !r.containsFlat([2]float64{p[0] + t*(q[0]-p[0]), p[1] + t*(q[1]-p[1])}) {
 			return false
 		}
 	}

@@ -22,17 +22,17 @@ func TestGridCandidates(t *testing.T) {
 		{"level 2", 2, 28},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
-			p := Problem{Domain: Rectangle(0, 0, 2, 2), Divisions: [2]int{2, 2}, Level: tc.level}
+			p := Problem{Domain: Rectangle(0, 0, 2, 2), Divisions: [3]int{2, 2}, Level: tc.level}
 			reg, err := newRegion(p.Domain)
 			if err != nil {
 				t.Fatal(err)
 			}
-			g, err := buildGround(context.Background(), &p, reg, Options{}.withDefaults())
+			g, err := buildGround(context.Background(), &p, 2, reg, Options{}.withDefaults(2))
 			if err != nil {
 				t.Fatal(err)
 			}
-			if len(g.nodes) != 9 || len(g.candidates) != tc.want {
-				t.Errorf("%d nodes, %d candidates; want 9 and %d", len(g.nodes), len(g.candidates), tc.want)
+			if len(g.nodes) != 9 || g.count != tc.want || len(g.allCandidates()) != tc.want {
+				t.Errorf("%d nodes, %d candidates; want 9 and %d", len(g.nodes), g.count, tc.want)
 			}
 		})
 	}
@@ -47,12 +47,12 @@ func TestHoleAndNotch(t *testing.T) {
 		Outline: [][2]float64{{0, 0}, {4, 0}, {4, 3}, {3, 3}, {3, 4}, {0, 4}},
 		Holes:   [][][2]float64{{{1.5, 1.5}, {2.5, 1.5}, {2.5, 2.5}, {1.5, 2.5}}},
 	}
-	p := Problem{Domain: domain, Divisions: [2]int{4, 4}}
+	p := Problem{Domain: domain, Divisions: [3]int{4, 4}}
 	reg, err := newRegion(domain)
 	if err != nil {
 		t.Fatal(err)
 	}
-	g, err := buildGround(context.Background(), &p, reg, Options{}.withDefaults())
+	g, err := buildGround(context.Background(), &p, 2, reg, Options{}.withDefaults(2))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -63,7 +63,7 @@ func TestHoleAndNotch(t *testing.T) {
 	inHole := func(q [2]float64) bool { return q[0] > 1.5 && q[0] < 2.5 && q[1] > 1.5 && q[1] < 2.5 }
 	inNotch := func(q [2]float64) bool { return q[0] > 3 && q[1] > 3 }
 	present := make(map[[4]float64]bool)
-	for _, c := range g.candidates {
+	for _, c := range g.allCandidates() {
 		a, b := g.nodes[c.a], g.nodes[c.b]
 		present[[4]float64{a[0], a[1], b[0], b[1]}] = true
 		present[[4]float64{b[0], b[1], a[0], a[1]}] = true

@@ -1,23 +1,25 @@
 package layout
 
-import "math"
-
 // equilibrium is the equilibrium matrix B of a layout on its free freedoms
 // with a factorisation of B Bᵀ, used to correct member forces by the
 // least-norm change that balances the loads.
 type equilibrium struct {
 	b     *sparseColumns
-	rowOf [][2]int
+	dim   int
+	rowOf [][3]int
 	ne    *normalEquations
 }
 
-func newEquilibrium(nodes [][2]float64, members []Member, fixed [][2]bool) *equilibrium {
-	eq := &equilibrium{rowOf: make([][2]int, len(nodes))}
-	var coords [][2]float64
+func newEquilibrium(dim int, nodes []vec, members []Member, fixed [][3]bool) *equilibrium {
+	eq := &equilibrium{dim: dim, rowOf: make([][3]int, len(nodes))}
+	var coords []vec
 	rows := 0
 	for i := range nodes {
-		for c := 0; c < 2; c++ {
+		for c := 0; c < 3; c++ {
 			eq.rowOf[i][c] = -1
+			if c >= dim {
+				continue
+			}
 			if !fixed[i][c] {
 				eq.rowOf[i][c] = rows
 				coords = append(coords, nodes[i])
@@ -27,15 +29,14 @@ func newEquilibrium(nodes [][2]float64, members []Member, fixed [][2]bool) *equi
 	}
 	b := &sparseColumns{rows: rows, cols: len(members), colStart: []int{0}}
 	for _, m := range members {
-		p, q := nodes[m.Ends[0]], nodes[m.Ends[1]]
-		length := math.Hypot(q[0]-p[0], q[1]-p[1])
-		e := [2]float64{(q[0] - p[0]) / length, (q[1] - p[1]) / length}
+		d := sub(nodes[m.Ends[1]], nodes[m.Ends[0]])
+		e := scaled(d, 1/norm(d))
 		type entry struct {
 			row   int
 			value float64
 		}
 		var entries []entry
-		for c := 0; c < 2; c++ {
+		for c := 0; c < dim; c++ {
 			if r := eq.rowOf[m.Ends[0]][c]; r >= 0 {
 				entries = append(entries, entry{r, -e[c]})
 			}
@@ -69,10 +70,10 @@ func newEquilibrium(nodes [][2]float64, members []Member, fixed [][2]bool) *equi
 // restore changes the member forces q by the least-norm correction
 // Bᵀ(BBᵀ)⁻¹(f − Bq), a few times over, and returns the scaled residual
 // max|Bq − f| / (max|q| + max|f|) on the free freedoms.
-func (eq *equilibrium) restore(q []float64, f [][2]float64) float64 {
+func (eq *equilibrium) restore(q []float64, f []vec) float64 {
 	rhs := make([]float64, eq.b.rows)
 	for i, rc := range eq.rowOf {
-		for c := 0; c < 2; c++ {
+		for c := 0; c < eq.dim; c++ {
 			if r := rc[c]; r >= 0 {
 				rhs[r] = f[i][c]
 			}

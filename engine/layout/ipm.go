@@ -31,7 +31,7 @@ var errNoConvergence = errors.New("layout: interior-point method did not converg
 // equations by nested dissection. tol is the relative tolerance on the
 // primal and dual residuals and the duality gap. Progress is reported per
 // iteration under the stage "interior point"; ctx is checked per iteration.
-func interiorPoint(ctx context.Context, a *sparseColumns, b, c []float64, rowCoord [][2]float64, tol float64, rep progress.Reporter) (*lpResult, error) {
+func interiorPoint(ctx context.Context, a *sparseColumns, b, c []float64, rowCoord []vec, tol float64, rep progress.Reporter) (*lpResult, error) {
 	m, n := a.rows, a.cols
 	if len(b) != m || len(c) != n {
 		panic("layout: interiorPoint dimension mismatch")

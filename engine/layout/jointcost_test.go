@@ -11,11 +11,11 @@ import (
 // hangingProblem is a load P = 1 hanging at C = (0, 0) below three pins:
 // A = (−1, 1), B = (1, 1) and D = (0, 2.5) straight above C.
 func hangingProblem(jointCost float64) Problem {
-	pinned := [2]bool{true, true}
+	pinned := [3]bool{true, true}
 	return Problem{
-		Nodes:        [][2]float64{{0, 0}, {-1, 1}, {1, 1}, {0, 2.5}},
+		Nodes:        [][3]float64{{0, 0}, {-1, 1}, {1, 1}, {0, 2.5}},
 		Supports:     []Support{{Node: 1, Fix: pinned}, {Node: 2, Fix: pinned}, {Node: 3, Fix: pinned}},
-		Cases:        []Case{{ID: "P", Loads: []Load{{Node: 0, Force: [2]float64{0, -1}}}}},
+		Cases:        []Case{{ID: "P", Loads: []Load{{Node: 0, Force: [3]float64{0, -1}}}}},
 		TensionLimit: 1, CompressionLimit: 1, JointCost: jointCost,
 	}
 }
@@ -64,15 +64,15 @@ func TestJointCostChoosesFewerMembers(t *testing.T) {
 // volume 3P/σ and cost (3 + s)P/σ, where a chain of three would cost
 // (3 + 3s)P/σ (hand result).
 func TestJointCostKeepsLongMembers(t *testing.T) {
-	pinned := [2]bool{true, true}
+	pinned := [3]bool{true, true}
 	for _, tc := range []struct {
 		s          float64
 		candidates int
 	}{{0, 22}, {1, 28}} {
 		p := Problem{
-			Domain: Rectangle(0, 0, 3, 1), Divisions: [2]int{3, 1},
-			Supports:     []Support{{Node: -1, At: [2]float64{0, 0}, Fix: pinned}, {Node: -1, At: [2]float64{0, 1}, Fix: pinned}},
-			Cases:        []Case{{ID: "P", Loads: []Load{{Node: -1, At: [2]float64{3, 0}, Force: [2]float64{1, 0}}}}},
+			Domain: Rectangle(0, 0, 3, 1), Divisions: [3]int{3, 1},
+			Supports:     []Support{{Node: -1, At: [3]float64{0, 0}, Fix: pinned}, {Node: -1, At: [3]float64{0, 1}, Fix: pinned}},
+			Cases:        []Case{{ID: "P", Loads: []Load{{Node: -1, At: [3]float64{3, 0}, Force: [3]float64{1, 0}}}}},
 			TensionLimit: 1, CompressionLimit: 1, JointCost: tc.s,
 		}
 		l, err := Optimise(context.Background(), p, Options{}, nil)

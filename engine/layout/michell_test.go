@@ -31,11 +31,11 @@ func checkResult(t *testing.T, l *Layout) {
 }
 
 func pin(x, y float64) Support {
-	return Support{Node: -1, At: [2]float64{x, y}, Fix: [2]bool{true, true}}
+	return Support{Node: -1, At: [3]float64{x, y}, Fix: [3]bool{true, true}}
 }
 
 func pointLoad(x, y, fx, fy float64) Case {
-	return Case{ID: "P", Loads: []Load{{Node: -1, At: [2]float64{x, y}, Force: [2]float64{fx, fy}}}}
+	return Case{ID: "P", Loads: []Load{{Node: -1, At: [3]float64{x, y}, Force: [3]float64{fx, fy}}}}
 }
 
 // threePoint is a load P = 1 midway between two pinned supports a span
@@ -43,7 +43,7 @@ func pointLoad(x, y, fx, fy float64) Case {
 func threePoint(nx int) Problem {
 	return Problem{
 		Domain:       Rectangle(0, 0, 2, 1),
-		Divisions:    [2]int{nx, nx / 2},
+		Divisions:    [3]int{nx, nx / 2},
 		Supports:     []Support{pin(0, 0), pin(2, 0)},
 		Cases:        []Case{pointLoad(1, 0, 0, -1)},
 		TensionLimit: 1, CompressionLimit: 1,
@@ -119,7 +119,7 @@ func TestCircleCantilever(t *testing.T) {
 	for _, n := range grids {
 		p := Problem{
 			Domain:       Rectangle(0, -1.5, 3, 1.5),
-			Divisions:    [2]int{n, n},
+			Divisions:    [3]int{n, n},
 			Cases:        []Case{pointLoad(a, 0, 0, -1)},
 			TensionLimit: 1, CompressionLimit: 1,
 		}
@@ -164,12 +164,12 @@ func TestTwoBar(t *testing.T) {
 	for _, tc := range []struct {
 		name      string
 		a, force  float64
-		divisions [2]int
+		divisions [3]int
 		level     int
 	}{
-		{"a=1,full", 1, 1, [2]int{2, 4}, 0},
-		{"a=2.5,level 2", 2.5, 3, [2]int{2, 4}, 2},
-		{"a=1,finer", 1, 1, [2]int{4, 8}, 0},
+		{"a=1,full", 1, 1, [3]int{2, 4}, 0},
+		{"a=2.5,level 2", 2.5, 3, [3]int{2, 4}, 2},
+		{"a=1,finer", 1, 1, [3]int{4, 8}, 0},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			a, P := tc.a, tc.force
@@ -218,7 +218,7 @@ func TestMethodsAgree(t *testing.T) {
 	}{
 		{"three-point 6×3", threePoint(6)},
 		{"cantilever 4×4 unequal limits", Problem{
-			Domain: Rectangle(0, 0, 2, 2), Divisions: [2]int{4, 4},
+			Domain: Rectangle(0, 0, 2, 2), Divisions: [3]int{4, 4},
 			Supports: []Support{pin(0, 0), pin(0, 2)}, Cases: []Case{pointLoad(2, 1, 0.3, -1)},
 			TensionLimit: 2, CompressionLimit: 1,
 		}},
@@ -254,7 +254,7 @@ func ExampleOptimise() {
 	// A force of 10 kN at 2 m from a wall: Michell's two bars at 45°.
 	p := Problem{
 		Domain:       Rectangle(0, -2, 2, 2),
-		Divisions:    [2]int{2, 4},
+		Divisions:    [3]int{2, 4},
 		Supports:     []Support{pin(0, -2), pin(0, -1), pin(0, 0), pin(0, 1), pin(0, 2)},
 		Cases:        []Case{pointLoad(2, 0, 0, -10)},
 		TensionLimit: 250e3, CompressionLimit: 250e3, // kN/m²

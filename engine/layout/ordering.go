@@ -10,7 +10,7 @@ import "sort"
 // ordered first and the separator last, so no fill crosses between parts
 // (George, "Nested dissection of a regular finite element mesh", SIAM J.
 // Numer. Anal. 10, 1973). It returns perm with perm[new] = old.
-func nestedDissection(n int, adjStart, adj []int, coord [][2]float64) []int {
+func nestedDissection(n int, adjStart, adj []int, coord []vec) []int {
 	perm := make([]int, 0, n)
 	side := make([]int8, n)
 	all := make([]int32, n)
@@ -29,14 +29,16 @@ func nestedDissection(n int, adjStart, adj []int, coord [][2]float64) []int {
 		lo, hi := coord[set[0]], coord[set[0]]
 		for _, v := range set {
 			c := coord[v]
-			for a := 0; a < 2; a++ {
+			for a := 0; a < 3; a++ {
 				lo[a] = min(lo[a], c[a])
 				hi[a] = max(hi[a], c[a])
 			}
 		}
 		axis := 0
-		if hi[1]-lo[1] > hi[0]-lo[0] {
-			axis = 1
+		for a := 1; a < 3; a++ {
+			if hi[a]-lo[a] > hi[axis]-lo[axis] {
+				axis = a
+			}
 		}
 		sort.Slice(set, func(i, j int) bool {
 			ci, cj := coord[set[i]][axis], coord[set[j]][axis]

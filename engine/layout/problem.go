@@ -14,27 +14,60 @@ func Rectangle(x0, y0, x1, y1 float64) Domain {
 	return Domain{Outline: [][2]float64{{x0, y0}, {x1, y0}, {x1, y1}, {x0, y1}}}
 }
 
-// Problem is a layout problem. Nodes are either a grid over Domain (set
-// Divisions or Spacing) or the caller's own Nodes (then Domain, if it has an
-// outline, only excludes members that leave it).
+// Solid is a design domain in space: the convex hull of Vertices, less
+// the convex hulls of each of Holes, which members may neither enter nor
+// cross (they may touch a hole's faces). Units are the model's length unit.
+type Solid struct {
+	Vertices [][3]float64
+	Holes    [][][3]float64
+}
+
+// Box returns the eight corners of the box [lo, hi], for a Solid's
+// Vertices or one of its Holes.
+func Box(lo, hi [3]float64) [][3]float64 {
+	out := make([][3]float64, 0, 8)
+	for k := 0; k < 8; k++ {
+		var p [3]float64
+		for a := 0; a < 3; a++ {
+			p[a] = lo[a]
+			if k>>a&1 == 1 {
+				p[a] = hi[a]
+			}
+		}
+		out = append(out, p)
+	}
+	return out
+}
+
+// Problem is a layout problem in the plane (Dim 2, the default) or in
+// space (Dim 3). Nodes are either a grid over the domain (Domain in the
+// plane, Solid in space; set Divisions or Spacing) or the caller's own
+// Nodes (then the domain, if given, only excludes members that leave it).
+// Points have three coordinates; in the plane the third is ignored and
+// taken as 0.
 type Problem struct {
+	// Dim is 2 (a plane layout; 0 means 2) or 3 (a space layout).
+	Dim    int
 	Domain Domain
+	Solid  Solid
 	// Divisions is the number of grid steps across the domain's bounding
-	// box in x and y. When zero, Spacing is used.
-	Divisions [2]int
-	// Spacing is the grid step in both directions (length) when Divisions
+	// box in x, y (and z in space). When zero, Spacing is used.
+	Divisions [3]int
+	// Spacing is the grid step in every direction (length) when Divisions
 	// is zero; the step count is rounded to the nearest whole number.
 	Spacing float64
 	// Nodes are the caller's own nodes, used instead of a grid when not
 	// empty.
-	Nodes [][2]float64
+	Nodes [][3]float64
 	// Level limits candidate members of a grid to at most Level grid steps
-	// in x and in y; 0 means full connectivity (every visible pair). It is
-	// ignored for the caller's own nodes, which are always fully connected.
+	// along each axis; 0 means full connectivity (every visible pair). It
+	// is ignored for the caller's own nodes, which are always fully
+	// connected.
 	Level int
 	// Supports and Cases locate loads and supports at nodes: by Node index
 	// (into the caller's Nodes, or into the grid nodes inside the domain,
-	// numbered row by row from the lowest y, x increasing within a row) or,
+	// numbered layer by layer from the lowest z, row by row from the lowest
+	// y within a layer, x increasing within a row) or,
 	// when Node is negative, at the node nearest to At (within
 	// Options.SnapTolerance, else an error).
 	Supports []Support
@@ -66,11 +99,11 @@ const (
 	SingleEquivalent
 )
 
-// Support fixes the x and/or y freedom of a node.
+// Support fixes the x, y and/or z freedom of a node (z only in space).
 type Support struct {
 	Node int // node index, or −1 to use At
-	At   [2]float64
-	Fix  [2]bool
+	At   [3]float64
+	Fix  [3]bool
 }
 
 // Case is a named set of nodal loads.
@@ -79,11 +112,12 @@ type Case struct {
 	Loads []Load
 }
 
-// Load is a force at a node (force units, global axes).
+// Load is a force at a node (force units, global axes; the z component
+// only in space).
 type Load struct {
 	Node  int // node index, or −1 to use At
-	At    [2]float64
-	Force [2]float64
+	At    [3]float64
+	Force [3]float64
 }
 
 // Method chooses how the linear program is solved.
@@ -127,11 +161,17 @@ type Options struct {
 	// the largest area; default 1e-4.
 	AreaThreshold float64
 	// SnapTolerance is the largest distance from a load's or support's At
-	// to its node; default a hundredth of the smallest node spacing.
+	// to its node; default a hundredth of the smallest node spacing. A
+	// point farther from every node is refused, never moved.
 	SnapTolerance float64
+	// StartNeighbours is how many of each node's shortest candidates make
+	// up the first member-adding program; default 8 in the plane and 26 in
+	// space (on a square or cubic grid, the members to the neighbouring
+	// nodes).
+	StartNeighbours int
 }
 
-func (o Options) withDefaults() Options {
+func (o Options) withDefaults(dim int) Options {
 	if o.MaxCandidates <= 0 {
 		o.MaxCandidates = 5_000_000
 	}
@@ -149,6 +189,12 @@ func (o Options) withDefaults() Options {
 	}
 	if o.AreaThreshold <= 0 {
 		o.AreaThreshold = 1e-4
+	}
+	if o.StartNeighbours <= 0 {
+		o.StartNeighbours = 8
+		if dim == 3 {
+			o.StartNeighbours = 26
+		}
 	}
 	return o
 }

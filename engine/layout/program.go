@@ -1,7 +1,5 @@
 package layout
 
-import "math"
-
 // program is the linear program of a layout problem over a set of members
 // (candidate indices), in standard form min cᵀx, A x = b, x ≥ 0.
 //
@@ -17,44 +15,43 @@ import "math"
 // program feasible, so a positive artificial at the optimum means the loads
 // cannot reach the supports through these members.
 type program struct {
-	members  []int // candidate indices
+	members  []candidate
 	cases    int
 	freeRows int
 	a        *sparseColumns
 	b, c     []float64
-	rowCoord [][2]float64
+	rowCoord []vec
 }
 
 // setting is the fixed data every program of one problem shares.
 type setting struct {
 	g              *groundStructure
-	rowOf          [][2]int // equilibrium row of (node, component), or −1 where fixed
+	dim            int
+	rowOf          [][3]int // equilibrium row of (node, component), or −1 where fixed
 	freeRows       int
 	rowNode        []int       // node of each equilibrium row
+	rowComp        []int8      // component of each equilibrium row
 	loads          [][]float64 // per case, per equilibrium row
 	tension, compr float64
 	jointCost      float64
 	penalty        float64
 }
 
-func (st *setting) cost(k int) float64 {
-	return st.g.length(st.g.candidates[k]) + st.jointCost
+func (st *setting) cost(c candidate) float64 {
+	return st.g.length(c) + st.jointCost
 }
 
-// unit returns the unit vector of candidate k from its first to its second
+// unit returns the unit vector of candidate c from its first to its second
 // node.
-func (st *setting) unit(k int) [2]float64 {
-	c := st.g.candidates[k]
-	p, q := st.g.nodes[c.a], st.g.nodes[c.b]
-	length := math.Hypot(q[0]-p[0], q[1]-p[1])
-	return [2]float64{(q[0] - p[0]) / length, (q[1] - p[1]) / length}
+func (st *setting) unit(c candidate) vec {
+	d := sub(st.g.nodes[c.b], st.g.nodes[c.a])
+	return scaled(d, 1/norm(d))
 }
 
-// column returns the rows and values of B's column for candidate k.
-func (st *setting) column(k int) (rows []int32, values []float64) {
-	c := st.g.candidates[k]
-	e := st.unit(k)
-	for comp := 0; comp < 2; comp++ {
+// column returns the rows and values of B's column for candidate c.
+func (st *setting) column(c candidate) (rows []int32, values []float64) {
+	e := st.unit(c)
+	for comp := 0; comp < st.dim; comp++ {
 		if r := st.rowOf[c.a][comp]; r >= 0 {
 			rows = append(rows, int32(r))
 			values = append(values, -e[comp])
@@ -67,7 +64,7 @@ func (st *setting) column(k int) (rows []int32, values []float64) {
 	return rows, values
 }
 
-func (st *setting) build(members []int) *program {
+func (st *setting) build(members []candidate) *program {
 	K := len(st.loads)
 	R := st.freeRows
 	m := len(members)
@@ -93,7 +90,7 @@ func (st *setting) build(members []int) *program {
 		}
 		return out
 	}
-	nodeCoord := func(r int) [2]float64 { return st.g.nodes[st.rowNode[r]] }
+	nodeCoord := func(r int) vec { return st.g.nodes[st.rowNode[r]] }
 	if K == 1 {
 		for _, k := range members {
 			rows, values := st.column(k)
@@ -140,10 +137,9 @@ func (st *setting) build(members []int) *program {
 			for r := 0; r < R; r++ {
 				p.rowCoord = append(p.rowCoord, nodeCoord(r))
 			}
-			for _, k := range members {
-				cd := st.g.candidates[k]
+			for _, cd := range members {
 				pa, pb := st.g.nodes[cd.a], st.g.nodes[cd.b]
-				p.rowCoord = append(p.rowCoord, [2]float64{(pa[0] + pb[0]) / 2, (pa[1] + pb[1]) / 2})
+				p.rowCoord = append(p.rowCoord, scaled(vec{pa[0] + pb[0], pa[1] + pb[1], pa[2] + pb[2]}, 0.5))
 			}
 			p.b = append(p.b, st.loads[c]...)
 			p.b = append(p.b, make([]float64, m)...)
@@ -187,21 +183,16 @@ func (p *program) forces(x []float64) (forces [][]float64, artificial []float64)
 
 // displacements returns the nodal virtual displacements per case from the
 // dual values y (zero at fixed freedoms).
-func (p *program) displacements(st *setting, y []float64) [][][2]float64 {
-	u := make([][][2]float64, p.cases)
+func (p *program) displacements(st *setting, y []float64) [][]vec {
+	u := make([][]vec, p.cases)
 	block := p.freeRows
 	if p.cases > 1 {
 		block += len(p.members)
 	}
 	for c := range u {
-		u[c] = make([][2]float64, len(st.g.nodes))
+		u[c] = make([]vec, len(st.g.nodes))
 		for r := 0; r < p.freeRows; r++ {
-			node := st.rowNode[r]
-			comp := 0
-			if st.rowOf[node][1] == r {
-				comp = 1
-			}
-			u[c][node][comp] = y[c*block+r]
+			u[c][st.rowNode[r]][st.rowComp[r]] = y[c*block+r]
 		}
 	}
 	return u

@@ -2,7 +2,6 @@ package layout
 
 import (
 	"fmt"
-	"math"
 	"sort"
 
 	"gusset/engine/fault"
@@ -12,12 +11,18 @@ import (
 // numbered afresh: only the nodes that members reach are kept, and chains of
 // collinear members through unloaded, unsupported nodes are merged into one
 // member. Lengths are in the problem's length unit, forces in its force
-// unit, areas in length², tension positive.
+// unit, areas in length², tension positive. Points have three
+// coordinates; in the plane (Dim 2) the third is 0.
 type Layout struct {
-	Nodes    [][2]float64
+	Dim      int // 2 or 3
+	Nodes    [][3]float64
 	Members  []Member
 	Supports []Support // Node is set; At repeats the node's position
 	Cases    []CaseResult
+	// DomainEdges and HoleEdges are the edges of the design domain's
+	// boundary and of its holes (segments, for drawing); empty for the
+	// caller's own nodes without a domain.
+	DomainEdges, HoleEdges [][2][3]float64
 	// Volume is Σ L_i a_i over the kept members; Objective adds the joint
 	// cost, Σ (L_i + JointCost) a_i.
 	Volume, Objective float64
@@ -39,7 +44,7 @@ type Member struct {
 // NodalForce is a force at a layout node.
 type NodalForce struct {
 	Node  int
-	Force [2]float64
+	Force [3]float64
 }
 
 // CaseResult holds one load case's loads, reactions and load-path figures.
@@ -83,12 +88,24 @@ type draftMember struct {
 	alive  bool
 }
 
+// outcome is what finish needs of a solved problem besides the setting.
+type outcome struct {
+	members []candidate // the final program's members
+	forces  [][]float64 // per case, per member
+	fixed   [][3]bool   // per ground-structure node
+	loads   [][]vec     // per case, per ground-structure node
+	caseIDs []string
+	stats   Stats
+}
+
 // finish filters the program's solution, merges collinear chains, restores
-// equilibrium on what is kept and fills in the results.
-func (st *setting) finish(members []int, forces [][]float64, fixed [][2]bool, loads [][][2]float64, caseIDs []string, opt Options, stats Stats) (*Layout, error) {
+// equilibrium on what is kept and fills in the results. When equilibrium
+// cannot be restored on the kept members, the area threshold is lowered
+// and the filter tried again.
+func (st *setting) finish(res outcome, opt Options) (*Layout, error) {
 	threshold := opt.AreaThreshold
 	for attempt := 0; attempt < 6; attempt++ {
-		out, ok := st.tryFinish(members, forces, fixed, loads, caseIDs, threshold, stats)
+		out, ok := st.tryFinish(res, threshold)
 		if ok {
 			return out, nil
 		}
@@ -97,119 +114,131 @@ func (st *setting) finish(members []int, forces [][]float64, fixed [][2]bool, lo
 	return nil, fault.New(fault.NotInEquilibrium, "the optimal layout could not be brought into equilibrium after filtering its members")
 }
 
-func (st *setting) tryFinish(members []int, forces [][]float64, fixed [][2]bool, loads [][][2]float64, caseIDs []string, threshold float64, stats Stats) (*Layout, bool) {
-	K := len(forces)
-	areaOf := func(q []float64) float64 {
-		a := 0.0
-		for _, f := range q {
-			a = max(a, f/st.tension, -f/st.compr)
-		}
-		return a
+func (st *setting) areaOf(q []float64) float64 {
+	a := 0.0
+	for _, f := range q {
+		a = max(a, f/st.tension, -f/st.compr)
 	}
+	return a
+}
+
+// keep returns the members whose area is at least threshold times the
+// largest, with chains of collinear members merged.
+func (st *setting) keep(res outcome, threshold float64) []*draftMember {
+	K := len(res.forces)
 	largest := 0.0
-	var drafts []*draftMember
-	for i, k := range members {
+	drafts := make([]*draftMember, 0, len(res.members))
+	for i, c := range res.members {
 		q := make([]float64, K)
-		for c := range q {
-			q[c] = forces[c][i]
+		for k := range q {
+			q[k] = res.forces[k][i]
 		}
-		cand := st.g.candidates[k]
-		drafts = append(drafts, &draftMember{a: int(cand.a), b: int(cand.b), forces: q, alive: true})
-		largest = max(largest, areaOf(q))
+		drafts = append(drafts, &draftMember{a: int(c.a), b: int(c.b), forces: q, alive: true})
+		largest = max(largest, st.areaOf(q))
 	}
 	var kept []*draftMember
 	for _, d := range drafts {
-		if areaOf(d.forces) >= threshold*largest && areaOf(d.forces) > 0 {
+		if a := st.areaOf(d.forces); a >= threshold*largest && a > 0 {
 			kept = append(kept, d)
 		}
 	}
-	kept = st.mergeChains(kept, fixed, loads)
+	return st.mergeChains(kept, res.fixed, res.loads)
+}
 
+// tryFinish builds the layout from the members kept at threshold; it fails
+// when a load is left without a member or equilibrium cannot be restored.
+func (st *setting) tryFinish(res outcome, threshold float64) (*Layout, bool) {
+	kept := st.keep(res, threshold)
 	// Number the nodes the kept members reach.
 	newIndex := make(map[int]int)
-	var nodes [][2]float64
 	var oldOf []int
+	out := &Layout{Dim: st.dim, TensionLimit: st.tension, CompressionLimit: st.compr, Stats: res.stats}
+	out.Stats.AreaThreshold = threshold
 	use := func(old int) int {
 		if i, ok := newIndex[old]; ok {
 			return i
 		}
-		newIndex[old] = len(nodes)
-		nodes = append(nodes, st.g.nodes[old])
+		newIndex[old] = len(out.Nodes)
+		out.Nodes = append(out.Nodes, st.g.nodes[old])
 		oldOf = append(oldOf, old)
-		return len(nodes) - 1
+		return len(out.Nodes) - 1
 	}
-	out := &Layout{TensionLimit: st.tension, CompressionLimit: st.compr, Stats: stats}
-	out.Stats.AreaThreshold = threshold
 	for _, d := range kept {
-		out.Members = append(out.Members, Member{Ends: [2]int{use(d.a), use(d.b)}, Forces: d.forces})
+		m := Member{Ends: [2]int{use(d.a), use(d.b)}, Forces: d.forces, Length: st.g.length(candidate{int32(d.a), int32(d.b)})}
+		out.Members = append(out.Members, m)
 	}
-	for k := range loads {
-		for old, f := range loads[k] {
-			if f != [2]float64{} {
-				if _, ok := newIndex[old]; !ok {
-					return nil, false // a load no kept member carries
-				}
+	for k := range res.loads {
+		for old, f := range res.loads[k] {
+			if _, ok := newIndex[old]; f != (vec{}) && !ok {
+				return nil, false // a load no kept member carries
 			}
 		}
 	}
-	out.Nodes = nodes
-	for i := range out.Members {
-		m := &out.Members[i]
-		p, q := nodes[m.Ends[0]], nodes[m.Ends[1]]
-		m.Length = math.Hypot(q[0]-p[0], q[1]-p[1])
-	}
-	nodeFixed := make([][2]bool, len(nodes))
+	nodeFixed := make([][3]bool, len(out.Nodes))
 	for i, old := range oldOf {
-		nodeFixed[i] = fixed[old]
-		if fixed[old][0] || fixed[old][1] {
-			out.Supports = append(out.Supports, Support{Node: i, At: nodes[i], Fix: fixed[old]})
+		nodeFixed[i] = res.fixed[old]
+		if res.fixed[old] != ([3]bool{}) {
+			out.Supports = append(out.Supports, Support{Node: i, At: out.Nodes[i], Fix: res.fixed[old]})
 		}
 	}
-	eq := newEquilibrium(nodes, out.Members, nodeFixed)
-	for k := range loads {
-		f := make([][2]float64, len(nodes))
-		cr := CaseResult{ID: caseIDs[k]}
+	eq := newEquilibrium(st.dim, out.Nodes, out.Members, nodeFixed)
+	for k := range res.loads {
+		f := make([]vec, len(out.Nodes))
 		for i, old := range oldOf {
-			f[i] = loads[k][old]
-			if f[i] != [2]float64{} {
-				cr.Loads = append(cr.Loads, NodalForce{Node: i, Force: f[i]})
-			}
+			f[i] = res.loads[k][old]
 		}
-		q := make([]float64, len(out.Members))
-		for i := range q {
-			q[i] = out.Members[i].Forces[k]
-		}
-		residual := eq.restore(q, f)
-		if !(residual <= 1e-10) {
+		cr, ok := st.balanceCase(eq, out, k, f, nodeFixed)
+		if !ok {
 			return nil, false
 		}
-		for i := range q {
-			out.Members[i].Forces[k] = q[i]
-		}
-		cr.EquilibriumResidual = residual
-		st.loadPath(&cr, nodes, out.Members, k, f, nodeFixed)
+		cr.ID = res.caseIDs[k]
 		out.Cases = append(out.Cases, cr)
 	}
 	for i := range out.Members {
 		m := &out.Members[i]
-		m.Area = areaOf(m.Forces)
+		m.Area = st.areaOf(m.Forces)
 		out.Volume += m.Length * m.Area
 		out.Objective += (m.Length + st.jointCost) * m.Area
 	}
-	for _, c := range out.Cases {
-		for _, v := range []float64{c.LoadPath, c.LoadPathConstant, c.MaxwellResidual, c.EquilibriumResidual} {
-			if !finite(v) {
-				return nil, false
-			}
+	return out, true
+}
+
+// balanceCase restores equilibrium of case k on the layout's members
+// (overwriting their forces of that case) and returns the case's loads,
+// reactions and load-path figures; it fails when the residual stays above
+// 1e-10 or a figure is not finite.
+func (st *setting) balanceCase(eq *equilibrium, out *Layout, k int, f []vec, fixed [][3]bool) (CaseResult, bool) {
+	var cr CaseResult
+	for i := range f {
+		if f[i] != (vec{}) {
+			cr.Loads = append(cr.Loads, NodalForce{Node: i, Force: f[i]})
 		}
 	}
-	return out, true
+	q := make([]float64, len(out.Members))
+	for i := range q {
+		q[i] = out.Members[i].Forces[k]
+	}
+	residual := eq.restore(q, f)
+	if !(residual <= 1e-10) {
+		return cr, false
+	}
+	for i := range q {
+		out.Members[i].Forces[k] = q[i]
+	}
+	cr.EquilibriumResidual = residual
+	loadPath(&cr, out.Nodes, out.Members, k, f, fixed)
+	for _, v := range []float64{cr.LoadPath, cr.LoadPathConstant, cr.MaxwellResidual, cr.EquilibriumResidual} {
+		if !finite(v) {
+			return cr, false
+		}
+	}
+	return cr, true
 }
 
 // mergeChains joins two collinear members that meet at an unloaded,
 // unsupported node reached by no other member; equilibrium there makes
 // their forces equal, so the joined member carries their mean.
-func (st *setting) mergeChains(kept []*draftMember, fixed [][2]bool, loads [][][2]float64) []*draftMember {
+func (st *setting) mergeChains(kept []*draftMember, fixed [][3]bool, loads [][]vec) []*draftMember {
 	incident := make(map[int][]*draftMember)
 	for _, d := range kept {
 		incident[d.a] = append(incident[d.a], d)
@@ -217,11 +246,11 @@ func (st *setting) mergeChains(kept []*draftMember, fixed [][2]bool, loads [][][
 	}
 	loaded := func(v int) bool {
 		for k := range loads {
-			if loads[k][v] != [2]float64{} {
+			if loads[k][v] != (vec{}) {
 				return true
 			}
 		}
-		return fixed[v][0] || fixed[v][1]
+		return fixed[v] != [3]bool{}
 	}
 	alive := func(v int) []*draftMember {
 		var list []*draftMember
@@ -252,11 +281,9 @@ func (st *setting) mergeChains(kept []*draftMember, fixed [][2]bool, loads [][][
 			continue
 		}
 		x, y := other(list[0], v), other(list[1], v)
-		px, pv, py := st.g.nodes[x], st.g.nodes[v], st.g.nodes[y]
-		d1 := [2]float64{pv[0] - px[0], pv[1] - px[1]}
-		d2 := [2]float64{py[0] - pv[0], py[1] - pv[1]}
-		l1, l2 := math.Hypot(d1[0], d1[1]), math.Hypot(d2[0], d2[1])
-		if math.Abs(d1[0]*d2[1]-d1[1]*d2[0]) > 1e-9*l1*l2 || d1[0]*d2[0]+d1[1]*d2[1] <= 0 {
+		d1 := sub(st.g.nodes[v], st.g.nodes[x])
+		d2 := sub(st.g.nodes[y], st.g.nodes[v])
+		if norm(cross(d1, d2)) > 1e-9*norm(d1)*norm(d2) || dot(d1, d2) <= 0 {
 			continue
 		}
 		q := make([]float64, len(list[0].forces))
@@ -281,15 +308,14 @@ func (st *setting) mergeChains(kept []*draftMember, fixed [][2]bool, loads [][][
 
 // loadPath fills in the load path, reactions and Maxwell's residual of
 // case k.
-func (st *setting) loadPath(cr *CaseResult, nodes [][2]float64, members []Member, k int, f [][2]float64, fixed [][2]bool) {
+func loadPath(cr *CaseResult, nodes []vec, members []Member, k int, f []vec, fixed [][3]bool) {
 	// Internal force sums per node: (B N)_j, the force the members need
 	// from outside at node j.
-	need := make([][2]float64, len(nodes))
+	need := make([]vec, len(nodes))
 	for _, m := range members {
-		p, q := nodes[m.Ends[0]], nodes[m.Ends[1]]
-		e := [2]float64{(q[0] - p[0]) / m.Length, (q[1] - p[1]) / m.Length}
+		e := scaled(sub(nodes[m.Ends[1]], nodes[m.Ends[0]]), 1/m.Length)
 		n := m.Forces[k]
-		for c := 0; c < 2; c++ {
+		for c := 0; c < 3; c++ {
 			need[m.Ends[0]][c] -= e[c] * n
 			need[m.Ends[1]][c] += e[c] * n
 		}
@@ -301,16 +327,16 @@ func (st *setting) loadPath(cr *CaseResult, nodes [][2]float64, members []Member
 	}
 	cr.LoadPath = cr.TensionPath + cr.CompressionPath
 	for j := range nodes {
-		var r [2]float64
-		for c := 0; c < 2; c++ {
+		var r vec
+		for c := 0; c < 3; c++ {
 			if fixed[j][c] {
 				r[c] = need[j][c] - f[j][c]
 			}
 		}
-		if fixed[j][0] || fixed[j][1] {
+		if fixed[j] != [3]bool{} {
 			cr.Reactions = append(cr.Reactions, NodalForce{Node: j, Force: r})
 		}
-		for c := 0; c < 2; c++ {
+		for c := 0; c < 3; c++ {
 			cr.LoadPathConstant += (f[j][c] + r[c]) * nodes[j][c]
 		}
 	}

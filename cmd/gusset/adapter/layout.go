@@ -7,6 +7,8 @@ import (
 
 	"gusset/engine/layout"
 	"gusset/engine/model"
+	"gusset/engine/progress"
+	"gusset/engine/render"
 	"gusset/protocol"
 )
 
@@ -17,49 +19,9 @@ const defaultModulus = 2.1e8
 // optimiseLayout finds the least-volume layout the request describes.
 func (a *Adapter) optimiseLayout(ctx context.Context, r *request[protocol.LayoutParams]) (*protocol.LayoutResult, error) {
 	p, st := r.Params, r.Stream
-	prob := layout.Problem{Level: p.Connectivity, TensionLimit: p.TensionLimit, CompressionLimit: p.CompressionLimit, JointCost: p.JointCost}
-	switch p.Mode {
-	case "together":
-		prob.Mode = layout.Together
-	case "single-equivalent":
-		prob.Mode = layout.SingleEquivalent
-	}
-	if p.Domain != nil {
-		prob.Domain.Outline = points(p.Domain.Outline)
-		for _, h := range p.Domain.Holes {
-			prob.Domain.Holes = append(prob.Domain.Holes, points(h))
-		}
-	}
-	if len(p.Divisions) == 2 {
-		prob.Divisions = [2]int{p.Divisions[0], p.Divisions[1]}
-	}
-	prob.Nodes = points(p.Nodes)
-	if p.Domain == nil && len(p.Nodes) == 0 {
-		return nil, protocol.NewError(protocol.CodeInvalidParams, "invalid params",
-			"Give a design domain (with divisions) or your own candidate nodes.", protocol.Problem{Path: "/params/domain", Message: "domain or nodes required"})
-	}
-	if p.Domain != nil && len(p.Nodes) == 0 && len(p.Divisions) != 2 {
-		return nil, protocol.NewError(protocol.CodeInvalidParams, "invalid params",
-			"A design domain needs divisions: the number of grid divisions along x and y.", protocol.Problem{Path: "/params/divisions", Message: "required with a domain"})
-	}
-	for _, s := range p.Supports {
-		sup := layout.Support{Node: -1, At: [2]float64{s.At[0], s.At[1]}}
-		for _, c := range s.Fix {
-			switch c {
-			case "x":
-				sup.Fix[0] = true
-			case "y":
-				sup.Fix[1] = true
-			}
-		}
-		prob.Supports = append(prob.Supports, sup)
-	}
-	for _, c := range p.Cases {
-		lc := layout.Case{ID: c.ID}
-		for _, l := range c.Loads {
-			lc.Loads = append(lc.Loads, layout.Load{Node: -1, At: [2]float64{l.At[0], l.At[1]}, Force: [2]float64{l.Force[0], l.Force[1]}})
-		}
-		prob.Cases = append(prob.Cases, lc)
+	prob, err := layoutProblem(p)
+	if err != nil {
+		return nil, err
 	}
 	l, err := layout.Optimise(ctx, prob, layout.Options{MaxCandidates: a.Limits.MaxCandidates}, layoutReporter{st})
 	if err != nil {
@@ -72,11 +34,11 @@ func (a *Adapter) optimiseLayout(ctx context.Context, r *request[protocol.Layout
 	out := layoutResult(l, p.Units, modulus)
 	if p.Picture {
 		var svg bytes.Buffer
-		unit := "m"
-		if p.Units != nil && p.Units.Length != "" {
-			unit = p.Units.Length
+		opt := render.LayoutOptions{Title: "Least-volume layout"}
+		if p.Units != nil {
+			opt.LengthUnit, opt.ForceUnit = p.Units.Length, p.Units.Force
 		}
-		if err := l.WriteSVG(&svg, layout.SVGOptions{Title: "Least-volume layout", LengthUnit: unit}); err != nil {
+		if err := render.Layout(&svg, l, opt); err != nil {
 			return nil, err
 		}
 		out.Picture = svg.String()
@@ -84,35 +46,175 @@ func (a *Adapter) optimiseLayout(ctx context.Context, r *request[protocol.Layout
 	return out, nil
 }
 
+// invalidLayout is an invalid-params error at a pointer into the params.
+func invalidLayout(path, message, problem string) error {
+	return protocol.NewError(protocol.CodeInvalidParams, "invalid params", message, protocol.Problem{Path: "/params" + path, Message: problem})
+}
+
+// layoutProblem converts the params, checking that every point has the
+// dimension's number of entries.
+func layoutProblem(p *protocol.LayoutParams) (layout.Problem, error) {
+	dim := p.Dimension
+	if dim == 0 {
+		dim = 2
+	}
+	prob := layout.Problem{Dim: dim, Level: p.Connectivity, TensionLimit: p.TensionLimit, CompressionLimit: p.CompressionLimit, JointCost: p.JointCost}
+	switch p.Mode {
+	case "together":
+		prob.Mode = layout.Together
+	case "single-equivalent":
+		prob.Mode = layout.SingleEquivalent
+	}
+	if p.Domain == nil && len(p.Nodes) == 0 {
+		return prob, invalidLayout("/domain", "Give a design domain (with divisions) or your own candidate nodes.", "domain or nodes required")
+	}
+	if p.Domain != nil && len(p.Nodes) == 0 && len(p.Divisions) != dim {
+		return prob, invalidLayout("/divisions", fmt.Sprintf("A design domain needs divisions: the number of grid divisions along each of the %d axes.", dim), fmt.Sprintf("%d entries required with a domain", dim))
+	}
+	copy(prob.Divisions[:], p.Divisions)
+	pc := pointChecker{dim: dim}
+	prob.Nodes = pc.points(p.Nodes, "/nodes")
+	if p.Domain != nil {
+		if err := layoutDomain(&prob, p.Domain, &pc); err != nil {
+			return prob, err
+		}
+	}
+	for i, s := range p.Supports {
+		sup := layout.Support{Node: -1, At: pc.point(s.At, fmt.Sprintf("/supports/%d/at", i))}
+		for j, c := range s.Fix {
+			switch c {
+			case "x":
+				sup.Fix[0] = true
+			case "y":
+				sup.Fix[1] = true
+			case "z":
+				if dim == 2 {
+					pc.fail(fmt.Sprintf("/supports/%d/fix/%d", i, j), "a plane layout has only x and y")
+				}
+				sup.Fix[2] = true
+			}
+		}
+		prob.Supports = append(prob.Supports, sup)
+	}
+	for k, c := range p.Cases {
+		lc := layout.Case{ID: c.ID}
+		for i, l := range c.Loads {
+			path := fmt.Sprintf("/cases/%d/loads/%d", k, i)
+			lc.Loads = append(lc.Loads, layout.Load{Node: -1, At: pc.point(l.At, path+"/at"), Force: pc.point(l.Force, path+"/force")})
+		}
+		prob.Cases = append(prob.Cases, lc)
+	}
+	return prob, pc.err
+}
+
+// layoutDomain converts the domain: a plane polygon or a space polyhedron,
+// each given by its points or as a box, with holes of either kind.
+func layoutDomain(prob *layout.Problem, d *protocol.Domain, pc *pointChecker) error {
+	if (d.Box == nil) == (len(d.Outline) == 0) {
+		return invalidLayout("/domain", "Give the design domain as an outline or as a box, not both.", "one of outline and box")
+	}
+	outline := pc.points(d.Outline, "/domain/outline")
+	if d.Box != nil {
+		outline = pc.box(d.Box, "/domain/box")
+	}
+	var holes [][][3]float64
+	for h, hole := range d.Holes {
+		holes = append(holes, pc.points(hole, fmt.Sprintf("/domain/holes/%d", h)))
+	}
+	for h, b := range d.BoxHoles {
+		holes = append(holes, pc.box(&b, fmt.Sprintf("/domain/box_holes/%d", h)))
+	}
+	if pc.dim == 3 {
+		prob.Solid = layout.Solid{Vertices: outline, Holes: holes}
+		return nil
+	}
+	flat := func(ps [][3]float64) [][2]float64 {
+		out := make([][2]float64, len(ps))
+		for i, q := range ps {
+			out[i] = [2]float64{q[0], q[1]}
+		}
+		return out
+	}
+	prob.Domain.Outline = flat(outline)
+	for _, h := range holes {
+		prob.Domain.Holes = append(prob.Domain.Holes, flat(h))
+	}
+	return nil
+}
+
+// pointChecker converts wire points, remembering the first one whose
+// length is not the dimension.
+type pointChecker struct {
+	dim int
+	err error
+}
+
+func (pc *pointChecker) fail(path, problem string) {
+	if pc.err == nil {
+		pc.err = invalidLayout(path, fmt.Sprintf("Every point and vector of a %dD layout has %d entries; %s.", pc.dim, pc.dim, path[1:]+": "+problem), problem)
+	}
+}
+
+func (pc *pointChecker) point(p []float64, path string) [3]float64 {
+	var out [3]float64
+	if len(p) != pc.dim {
+		pc.fail(path, fmt.Sprintf("%d entries, want %d", len(p), pc.dim))
+		return out
+	}
+	copy(out[:], p)
+	return out
+}
+
+func (pc *pointChecker) points(ps [][]float64, path string) [][3]float64 {
+	if ps == nil {
+		return nil
+	}
+	out := make([][3]float64, len(ps))
+	for i, p := range ps {
+		out[i] = pc.point(p, fmt.Sprintf("%s/%d", path, i))
+	}
+	return out
+}
+
+// box returns a box's corners: four in the plane, in order round the
+// rectangle, eight in space.
+func (pc *pointChecker) box(b *protocol.LayoutBox, path string) [][3]float64 {
+	lo, hi := pc.point(b.Min, path+"/min"), pc.point(b.Max, path+"/max")
+	for a := 0; a < pc.dim; a++ {
+		if !(lo[a] < hi[a]) {
+			pc.fail(path+"/max", "each coordinate of max must exceed min's")
+			return nil
+		}
+	}
+	if pc.dim == 2 {
+		return [][3]float64{{lo[0], lo[1]}, {hi[0], lo[1]}, {hi[0], hi[1]}, {lo[0], hi[1]}}
+	}
+	return layout.Box(lo, hi)
+}
+
 // layoutReporter passes the member-adding rounds on as partial results.
-type layoutReporter struct{ st protocol.Stream }
+type layoutReporter struct{ st progress.Reporter }
 
 func (r layoutReporter) Progress(stage string, done, total int, partial any) {
 	if round, ok := partial.(layout.Round); ok {
 		partial = map[string]any{"iteration": round.Iteration, "members": round.Members, "added": round.Added,
-			"volume": round.Volume, "max_violation": round.MaxViolation}
+			"volume": round.Volume, "max_violation": round.MaxViolation, "violators": round.Violators}
 	}
 	r.st.Progress(stage, done, total, partial)
-}
-
-func points(ps [][]float64) [][2]float64 {
-	if ps == nil {
-		return nil
-	}
-	out := make([][2]float64, len(ps))
-	for i, p := range ps {
-		if len(p) >= 2 {
-			out[i] = [2]float64{p[0], p[1]}
-		}
-	}
-	return out
 }
 
 // layoutResult converts a layout, building the model a host sends on to
 // solve, reciprocate and load-path: the kept nodes and members, one section
 // per member with its optimal area, the supports and the load cases.
 func layoutResult(l *layout.Layout, units *protocol.Units, modulus float64) *protocol.LayoutResult {
-	spec := &model.Spec{Dimension: 2}
+	spec := &model.Spec{Dimension: l.Dim}
+	numbers := func(p [3]float64) []model.Value {
+		out := make([]model.Value, l.Dim)
+		for a := range out {
+			out[a] = model.Num(p[a])
+		}
+		return out
+	}
 	if units != nil {
 		spec.Units = model.UnitsSpec{Length: units.Length, Force: units.Force}
 	}
@@ -120,7 +222,7 @@ func layoutResult(l *layout.Layout, units *protocol.Units, modulus float64) *pro
 	spec.Materials = []model.MaterialSpec{{ID: "material", ElasticModulus: model.Num(modulus), TensionLimit: &tension, CompressionLimit: &compression}}
 	nodeID := func(i int) string { return fmt.Sprintf("n%d", i) }
 	for i, n := range l.Nodes {
-		spec.Nodes = append(spec.Nodes, model.NodeSpec{ID: nodeID(i), At: []model.Value{model.Num(n[0]), model.Num(n[1])}})
+		spec.Nodes = append(spec.Nodes, model.NodeSpec{ID: nodeID(i), At: numbers(n)})
 	}
 	out := &protocol.LayoutResult{Volume: l.Volume, Objective: l.Objective, Caution: Caution}
 	for e, m := range l.Members {
@@ -132,18 +234,17 @@ func layoutResult(l *layout.Layout, units *protocol.Units, modulus float64) *pro
 	}
 	for _, s := range l.Supports {
 		sup := model.SupportSpec{Node: nodeID(s.Node)}
-		if s.Fix[0] {
-			sup.Fix = append(sup.Fix, "x")
-		}
-		if s.Fix[1] {
-			sup.Fix = append(sup.Fix, "y")
+		for a := 0; a < l.Dim; a++ {
+			if s.Fix[a] {
+				sup.Fix = append(sup.Fix, model.ComponentNames[a])
+			}
 		}
 		spec.Supports = append(spec.Supports, sup)
 	}
 	for _, c := range l.Cases {
 		lc := model.LoadCaseSpec{ID: c.ID}
 		for _, f := range c.Loads {
-			lc.Loads = append(lc.Loads, model.NodalLoadSpec{Node: nodeID(f.Node), Force: []model.Value{model.Num(f.Force[0]), model.Num(f.Force[1])}})
+			lc.Loads = append(lc.Loads, model.NodalLoadSpec{Node: nodeID(f.Node), Force: numbers(f.Force)})
 		}
 		spec.LoadCases = append(spec.LoadCases, lc)
 		out.Cases = append(out.Cases, protocol.LayoutCaseResult{ID: c.ID, LoadPath: c.LoadPath, TensionLoadPath: c.TensionPath,

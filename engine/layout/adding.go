@@ -1,0 +1,242 @@
+package layout
+
+import (
+	"container/heap"
+	"context"
+	"runtime"
+	"sort"
+	"sync"
+
+	"gusset/engine/progress"
+)
+
+// addMembers is the member-adding scheme of Gilbert & Tyas (2003): solve
+// over the start members, price every candidate outside the program by
+// its virtual strain under the dual displacements, add the most violating
+// ones, and repeat until none violates.
+func (st *setting) addMembers(ctx context.Context, opt Options, stats *Stats, rep progress.Reporter) ([]candidate, [][]float64, error) {
+	members := st.useful(append([]candidate(nil), st.g.start...))
+	inProgram := make(map[uint64]struct{}, 2*len(members))
+	for _, c := range members {
+		inProgram[c.key()] = struct{}{}
+	}
+	// Intermediate programs only choose members to add, so they are solved
+	// to a looser tolerance; once no candidate violates, the last program is
+	// solved again at full accuracy and checked once more.
+	loose := opt
+	loose.Tolerance = max(opt.Tolerance, 1e-6)
+	accurate := loose.Tolerance == opt.Tolerance
+	for iteration := 1; ; iteration++ {
+		if err := ctx.Err(); err != nil {
+			return nil, nil, err
+		}
+		prog := st.build(members)
+		solveWith := loose
+		if accurate {
+			solveWith = opt
+		}
+		res, err := st.run(ctx, prog, solveWith, stats, rep)
+		if err != nil {
+			return nil, nil, err
+		}
+		stats.Iterations = iteration
+		stats.MembersInProgram = len(members)
+		limit := opt.AddPerIteration
+		if limit <= 0 {
+			limit = max(200, len(members)/5)
+		}
+		pr, err := st.price(ctx, prog.displacements(st, res.y), inProgram, limit, 1+opt.AddTolerance)
+		if err != nil {
+			return nil, nil, err
+		}
+		stats.OptimalityGap = max(0, pr.worst-1)
+		rep.Progress("member adding", iteration, 0, Round{Iteration: iteration, Members: len(members), Added: len(pr.top),
+			Volume: res.objective, MaxViolation: pr.worst, Violators: pr.violators})
+		if pr.violators == 0 || iteration >= opt.MaxIterations {
+			if !accurate {
+				accurate = true
+				continue
+			}
+			return st.accept(prog, res.x)
+		}
+		for _, v := range pr.top {
+			inProgram[v.c.key()] = struct{}{}
+			members = append(members, v.c)
+		}
+		stats.Added += len(pr.top)
+	}
+}
+
+// violator is a candidate with its ratio of virtual strain to the limit.
+type violator struct {
+	c     candidate
+	ratio float64
+}
+
+// less orders violators from the least to the most violating, ties by
+// candidate (the higher key counts as less), a total order so that the
+// members added do not depend on the order of the search.
+func (v violator) less(w violator) bool {
+	if v.ratio != w.ratio {
+		return v.ratio < w.ratio
+	}
+	return v.c.key() > w.c.key()
+}
+
+// worstFirst is a bounded min-heap of the most violating candidates.
+type worstFirst []violator
+
+func (h worstFirst) Len() int           { return len(h) }
+func (h worstFirst) Less(i, j int) bool { return h[i].less(h[j]) }
+func (h worstFirst) Swap(i, j int)      { h[i], h[j] = h[j], h[i] }
+func (h *worstFirst) Push(x any)        { *h = append(*h, x.(violator)) }
+func (h *worstFirst) Pop() any {
+	old := *h
+	v := old[len(old)-1]
+	*h = old[:len(old)-1]
+	return v
+}
+
+// offer keeps v if it is among the limit most violating seen.
+func (h *worstFirst) offer(v violator, limit int) {
+	if len(*h) < limit {
+		heap.Push(h, v)
+	} else if (*h)[0].less(v) {
+		(*h)[0] = v
+		heap.Fix(h, 0)
+	}
+}
+
+// pricing is the outcome of one search for violating candidates.
+type pricing struct {
+	worst     float64    // largest ratio among candidates outside the program
+	violators int        // candidates with ratio above the threshold
+	top       []violator // the most violating, most violating first
+}
+
+// price generates every candidate outside the program, node by node,
+// and measures its virtual strain under the dual displacements u against
+// the dual limits: ratio = Σ over cases of max(σ_t ε, −σ_c ε) · L / cost,
+// with ε the elongation per unit length. It returns the limit most
+// violating among those with ratio above threshold. The nodes are shared
+// among GOMAXPROCS workers; the result does not depend on their number.
+func (st *setting) price(ctx context.Context, u [][]vec, inProgram map[uint64]struct{}, limit int, threshold float64) (pricing, error) {
+	workers := min(runtime.GOMAXPROCS(0), 8)
+	parts := make([]pricing, workers)
+	heaps := make([]worstFirst, workers)
+	var next int64
+	var mu sync.Mutex
+	const chunk = 32
+	n := len(st.g.nodes)
+	var wg sync.WaitGroup
+	for w := 0; w < workers; w++ {
+		wg.Add(1)
+		go func(w int) {
+			defer wg.Done()
+			var buf []int32
+			for ctx.Err() == nil {
+				mu.Lock()
+				from := int(next)
+				next += chunk
+				mu.Unlock()
+				if from >= n {
+					return
+				}
+				for a := from; a < min(from+chunk, n); a++ {
+					buf = st.g.neighbours(a, true, buf)
+					st.priceNode(a, buf, u, inProgram, limit, threshold, &parts[w], &heaps[w])
+				}
+			}
+		}(w)
+	}
+	wg.Wait()
+	if err := ctx.Err(); err != nil {
+		return pricing{}, err
+	}
+	var out pricing
+	var all []violator
+	for w := range parts {
+		out.worst = max(out.worst, parts[w].worst)
+		out.violators += parts[w].violators
+		all = append(all, heaps[w]...)
+	}
+	sort.Slice(all, func(i, j int) bool { return all[j].less(all[i]) })
+	out.top = all[:min(limit, len(all))]
+	return out, nil
+}
+
+// priceNode prices node a's candidates to the partners in buf. It is the
+// innermost loop of member adding (millions of candidates per round in
+// space) and stays whole: the membership test runs only for candidates
+// that could matter.
+func (st *setting) priceNode(a int, buf []int32, u [][]vec, inProgram map[uint64]struct{}, limit int, threshold float64, part *pricing, h *worstFirst) {
+	pa := st.g.nodes[a]
+	for _, b := range buf {
+		d := sub(st.g.nodes[b], pa)
+		length := norm(d)
+		ratio := 0.0
+		for _, uc := range u {
+			du := sub(uc[b], uc[a])
+			elongation := dot(d, du) / length
+			ratio += max(st.tension*elongation, -st.compr*elongation, 0)
+		}
+		ratio /= length + st.jointCost
+		if ratio <= part.worst && ratio <= threshold {
+			continue
+		}
+		c := candidate{int32(a), b}
+		if _, ok := inProgram[c.key()]; ok {
+			continue
+		}
+		part.worst = max(part.worst, ratio)
+		if ratio > threshold {
+			part.violators++
+			h.offer(violator{c, ratio}, limit)
+		}
+	}
+}
+
+// solveEquivalent solves two alternative cases as the single cases
+// (f¹+f²)/2 and (f¹−f²)/2 and superposes them (Hemp 1973; from memory).
+func (st *setting) solveEquivalent(ctx context.Context, opt Options, stats *Stats, rep progress.Reporter, f1, f2 []float64) ([]candidate, [][]float64, error) {
+	plus, minus := make([]float64, len(f1)), make([]float64, len(f1))
+	for i := range f1 {
+		plus[i] = (f1[i] + f2[i]) / 2
+		minus[i] = (f1[i] - f2[i]) / 2
+	}
+	union := make(map[candidate][2]float64)
+	for part, f := range [][]float64{plus, minus} {
+		if maxAbs(f) == 0 {
+			continue
+		}
+		st.loads = [][]float64{f}
+		var partStats Stats
+		members, forces, err := st.solve(ctx, opt, &partStats, rep)
+		if err != nil {
+			return nil, nil, err
+		}
+		stats.Iterations += partStats.Iterations
+		stats.InteriorPointIterations += partStats.InteriorPointIterations
+		stats.MembersInProgram += partStats.MembersInProgram
+		stats.Added += partStats.Added
+		stats.OptimalityGap = max(stats.OptimalityGap, partStats.OptimalityGap)
+		for i, c := range members {
+			q := union[c]
+			q[part] = forces[0][i]
+			union[c] = q
+		}
+	}
+	st.loads = [][]float64{f1, f2}
+	members := make([]candidate, 0, len(union))
+	for c := range union {
+		members = append(members, c)
+	}
+	sort.Slice(members, func(i, j int) bool { return members[i].key() < members[j].key() })
+	forces := [][]float64{make([]float64, len(members)), make([]float64, len(members))}
+	for i, c := range members {
+		q := union[c]
+		forces[0][i] = q[0] + q[1]
+		forces[1][i] = q[0] - q[1]
+	}
+	return members, forces, nil
+}
