@@ -89,7 +89,12 @@ func measure(cfg config, name string, spec *model.Spec) (measurement, error) {
 	if err := os.WriteFile(requestPath, line, 0o644); err != nil {
 		return out, err
 	}
-	s, g, err := stiffness.ScaledSystem(ctx, m, caseID)
+	mx, err := stiffness.Assemble(ctx, m, stiffness.Options{})
+	if err != nil {
+		return out, err
+	}
+	s := mx.K
+	g, err := mx.Loads(m, caseID)
 	if err != nil {
 		return out, err
 	}

@@ -8,13 +8,13 @@ import (
 	"gusset/engine/sparse"
 )
 
-// TestScaledSystemTwoBar solves the exported system of a symmetric two-bar
+// TestLoadsTwoBar solves the exported system of a symmetric two-bar
 // truss with engine/sparse and checks the joint's deflection by hand: bars
 // from (0,0) and (8,0) to (4,3), length 5, sin θ = 3/5, a load P down at the
 // joint gives N = P/(2 sin θ) in each bar (statics of a two-force joint), a
 // shortening N·L/(EA) and a vertical deflection N·L/(EA·sin θ) (the
 // Williot construction of a symmetric joint; common practice).
-func TestScaledSystemTwoBar(t *testing.T) {
+func TestLoadsTwoBar(t *testing.T) {
 	const e, a, p = 2.1e8, 0.002, 10.0
 	b := newBuilder(2, e, 0, a, 0, 0, 0)
 	left := b.node(0, 0)
@@ -25,7 +25,12 @@ func TestScaledSystemTwoBar(t *testing.T) {
 	b.fix(left, pinned2...)
 	b.fix(right, pinned2...)
 	b.force(joint, [3]float64{0, -p}, [3]float64{})
-	s, g, err := ScaledSystem(context.Background(), b.m, b.m.Cases[0].ID)
+	mx, err := Assemble(context.Background(), b.m, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := mx.K
+	g, err := mx.Loads(b.m, b.m.Cases[0].ID)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -53,12 +58,16 @@ func TestScaledSystemTwoBar(t *testing.T) {
 	near(t, "horizontal deflection", y[0], 0, 1e-15)
 }
 
-func TestScaledSystemUnknownCase(t *testing.T) {
+func TestLoadsUnknownCase(t *testing.T) {
 	b := newBuilder(2, 2.1e8, 0, 0.002, 0, 0, 0)
 	n0, n1 := b.node(0, 0), b.node(1, 0)
 	b.bar(n0, n1)
 	b.fix(n0, pinned2...)
-	if _, _, err := ScaledSystem(context.Background(), b.m, "no-such-case"); err == nil {
+	mx, err := Assemble(context.Background(), b.m, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, err := mx.Loads(b.m, "no-such-case"); err == nil {
 		t.Fatal("an unknown case was accepted")
 	}
 }
