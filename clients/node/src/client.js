@@ -727,27 +727,22 @@ export class Client {
   }
 
   /**
-   * findForm finds the equilibrium form of a network by the force density
-   * method: give force_density (one q = N/L for every member, tension
-   * positive) or force_densities (one per member); through ({node, at})
-   * scales them so that the node passes through the point; targets lists
-   * {member, length} or {member, force}. The result's model is the found
-   * form, ready for solve and load-path (its load case model_case).
-   * `onIteration` is called with each iteration's {iteration, change,
-   * misfit} as it streams.
+   * modes finds linear buckling load factors (kind "buckling": the factors
+   * λ of load case `case` at which (K + λ·K_G)·φ = 0, negative ones
+   * meaning the loads reversed) or natural frequencies (kind "vibration":
+   * Hz, with participation factors and effective masses; mass from the
+   * materials' mass_density and the nodes' mass), with mode shapes: the
+   * `count` modes nearest `shift`. Linear results of the perfect
+   * structure: imperfections, nonlinearity and the design codes govern
+   * real design.
    * @param {object} model
-   * @param {{onIteration?: (it: any) => void} & RequestOptions & Record<string, any>} [options]
+   * @param {'buckling'|'vibration'} kind
+   * @param {{case?: string, count?: number, shift?: number, picture?: boolean}
+   *   & RequestOptions & Record<string, any>} [options]
    * @returns {Promise<any>}
    */
-  findForm(model, options = {}) {
-    const { onIteration, ...rest } = options;
-    const [params, request] = Client._split(rest);
-    const onProgress = request.onProgress;
-    /** @param {Progress} p */
-    request.onProgress = (p) => {
-      onProgress?.(p);
-      if (onIteration && p.stage === 'iterating' && p.partial !== undefined) onIteration(p.partial);
-    };
-    return this.call('find-form', { model, ...params }, request);
+  modes(model, kind, options = {}) {
+    const [params, request] = Client._split(options);
+    return this.call('modes', { model, kind, ...params }, request);
   }
 }

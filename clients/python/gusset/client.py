@@ -842,42 +842,31 @@ class Client:
                          connectivity=connectivity, joint_cost=joint_cost, units=units, picture=picture, **options)
         return self.call("optimise-layout", params, timeout)  # type: ignore[no-any-return]
 
-    def find_form(
+    def modes(
         self,
         model: Model,
+        kind: str,
         *,
-        force_density: Optional[Union[float, str]] = None,
-        force_densities: Optional[Sequence[Union[float, str]]] = None,
         case: Optional[str] = None,
-        through: Optional[Mapping[str, Any]] = None,
-        targets: Optional[Sequence[Mapping[str, Any]]] = None,
+        count: Optional[int] = None,
+        shift: Optional[float] = None,
         picture: Optional[bool] = None,
         timeout: Optional[float] = None,
-        on_iteration: Optional[Callable[[Any], None]] = None,
         **options: Any,
     ) -> Dict[str, Any]:
-        """find_form finds the equilibrium form of a network by the force density method.
+        """modes finds linear buckling load factors or natural frequencies with their mode shapes.
 
-        Give ``force_density`` (one q = N/L for every member, tension
-        positive) or ``force_densities`` (one per member, numbers or
-        expressions). ``through`` ({"node": id, "at": [x, y(, z)]}) scales
-        them so that the node passes through the point; ``targets`` lists
-        {"member": id, "length": L} or {"member": id, "force": N}. The
-        result's "model" is the found form, ready for solve and load-path
-        (its load case "model_case"). ``on_iteration`` is called with each
-        iteration's {"iteration", "change", "misfit"} as it streams.
+        ``kind`` is "buckling" (the factors λ of load case ``case`` at which
+        (K + λ·K_G)·φ = 0; negative ones mean the loads reversed) or
+        "vibration" (frequencies in Hz of (K − ω²·M)·φ = 0, with mass from
+        the materials' mass_density and the nodes' mass; participation
+        factors and effective masses per direction). ``count`` modes
+        nearest ``shift`` (a load factor, or a frequency in Hz) are found.
+        These are linear results of the perfect structure: imperfections,
+        nonlinearity and the design codes govern real design.
         """
-        on_progress = None
-        if on_iteration is not None:
-            iteration_callback = on_iteration
-
-            def on_progress(item: Progress) -> None:
-                if item.stage == "iterating" and item.partial is not None:
-                    iteration_callback(item.partial)
-
-        params = _params(model=model, force_density=force_density, force_densities=force_densities, case=case,
-                         through=through, targets=targets, picture=picture, **options)
-        return self.call("find-form", params, timeout, on_progress)  # type: ignore[no-any-return]
+        params = _params(model=model, kind=kind, case=case, count=count, shift=shift, picture=picture, **options)
+        return self.call("modes", params, timeout)  # type: ignore[no-any-return]
 
 
 def _params(**fields: Any) -> Dict[str, Any]:
