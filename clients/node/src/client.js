@@ -745,4 +745,29 @@ export class Client {
     const [params, request] = Client._split(options);
     return this.call('modes', { model, kind, ...params }, request);
   }
+
+  /**
+   * findForm finds the equilibrium form of a network by the force density
+   * method: give force_density (one q = N/L for every member, tension
+   * positive) or force_densities (one per member); through ({node, at})
+   * scales them so that the node passes through the point; targets lists
+   * {member, length} or {member, force}. The result's model is the found
+   * form, ready for solve and load-path (its load case model_case).
+   * `onIteration` is called with each iteration's {iteration, change,
+   * misfit} as it streams.
+   * @param {object} model
+   * @param {{onIteration?: (it: any) => void} & RequestOptions & Record<string, any>} [options]
+   * @returns {Promise<any>}
+   */
+  findForm(model, options = {}) {
+    const { onIteration, ...rest } = options;
+    const [params, request] = Client._split(rest);
+    const onProgress = request.onProgress;
+    /** @param {Progress} p */
+    request.onProgress = (p) => {
+      onProgress?.(p);
+      if (onIteration && p.stage === 'iterating' && p.partial !== undefined) onIteration(p.partial);
+    };
+    return this.call('find-form', { model, ...params }, request);
+  }
 }

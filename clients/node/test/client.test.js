@@ -385,6 +385,39 @@ describe('optimiseLayout', { skip }, () => {
   });
 });
 
+describe('findForm', { skip }, () => {
+  test('a hanging chain in closed form', async (t) => {
+    // A chain of 4 unit panels under P = 10 at its inner nodes with q = 5
+    // hangs at y_i = (P/2q)·i·(i − n) = i(i − 4): −3, −4, −3 (closed form of
+    // the funicular polygon, derived in the Go tests). Maxwell's theorem
+    // (Maxwell 1870) gives its load path: all in tension, Z = M =
+    // P·(3 + 4 + 3) + H·4 with H = q·1 = 5, so 120.
+    if (!names.includes('find-form')) return t.skip('find-form not offered');
+    const ids = ['A', 'B', 'C', 'D', 'E'];
+    const model = {
+      dimension: 2,
+      materials: [{ id: 'rope', elastic_modulus: 1e8 }],
+      sections: [{ id: 's', area: 1e-4 }],
+      nodes: ids.map((id, i) => ({ id, at: [i, 0] })),
+      members: ids.slice(1).map((b, i) => ({ id: ids[i] + b, ends: [ids[i], b], material: 'rope', section: 's' })),
+      supports: [{ node: 'A', fix: ['x', 'y'] }, { node: 'E', fix: ['x', 'y'] }],
+      load_cases: [{ id: 'hang', loads: ['B', 'C', 'D'].map((node) => ({ node, force: [0, -10] })) }],
+    };
+    const client = new Client({ binary: bin });
+    try {
+      const found = await client.findForm(model, { force_density: 5 });
+      const again = await client.loadPath(found.model, { cases: [found.model_case], forces: found.forces });
+      const heights = found.coordinates.map((p) => p[1]);
+      [0, -3, -4, -3, 0].forEach((want, i) => assert.ok(closeWithin(heights[i], want, 1e-12), String(heights)));
+      assert.equal(found.network, 'tension');
+      assert.ok(closeWithin(found.load_path.load_path, 120, 1e-12), String(found.load_path.load_path));
+      assert.ok(closeWithin(again.cases[0].load_path, 120, 1e-12), String(again.cases[0].load_path));
+    } finally {
+      await client.close();
+    }
+  });
+});
+
 describe('modes', { skip }, () => {
   test('a spring-held strut buckles at kL/P and sways at √(k/M)', async (t) => {
     // A rigid strut L = 4 pinned at its foot, its head held sideways by a

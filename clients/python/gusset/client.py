@@ -868,6 +868,43 @@ class Client:
         params = _params(model=model, kind=kind, case=case, count=count, shift=shift, picture=picture, **options)
         return self.call("modes", params, timeout)  # type: ignore[no-any-return]
 
+    def find_form(
+        self,
+        model: Model,
+        *,
+        force_density: Optional[Union[float, str]] = None,
+        force_densities: Optional[Sequence[Union[float, str]]] = None,
+        case: Optional[str] = None,
+        through: Optional[Mapping[str, Any]] = None,
+        targets: Optional[Sequence[Mapping[str, Any]]] = None,
+        picture: Optional[bool] = None,
+        timeout: Optional[float] = None,
+        on_iteration: Optional[Callable[[Any], None]] = None,
+        **options: Any,
+    ) -> Dict[str, Any]:
+        """find_form finds the equilibrium form of a network by the force density method.
+
+        Give ``force_density`` (one q = N/L for every member, tension
+        positive) or ``force_densities`` (one per member, numbers or
+        expressions). ``through`` ({"node": id, "at": [x, y(, z)]}) scales
+        them so that the node passes through the point; ``targets`` lists
+        {"member": id, "length": L} or {"member": id, "force": N}. The
+        result's "model" is the found form, ready for solve and load-path
+        (its load case "model_case"). ``on_iteration`` is called with each
+        iteration's {"iteration", "change", "misfit"} as it streams.
+        """
+        on_progress = None
+        if on_iteration is not None:
+            iteration_callback = on_iteration
+
+            def on_progress(item: Progress) -> None:
+                if item.stage == "iterating" and item.partial is not None:
+                    iteration_callback(item.partial)
+
+        params = _params(model=model, force_density=force_density, force_densities=force_densities, case=case,
+                         through=through, targets=targets, picture=picture, **options)
+        return self.call("find-form", params, timeout, on_progress)  # type: ignore[no-any-return]
+
 
 def _params(**fields: Any) -> Dict[str, Any]:
     """_params drops the fields left as None, so the server applies its defaults."""

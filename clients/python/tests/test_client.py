@@ -329,6 +329,36 @@ class LayoutTest(unittest.TestCase):
         self.assertTrue(close_within(costly["objective"], 4.5, 1e-7))
 
 
+class FindFormTest(unittest.TestCase):
+    def test_hanging_chain(self) -> None:
+        # A chain of 4 unit panels under P = 10 at its inner nodes with
+        # q = 5 hangs at y_i = (P/2q)·i·(i − n) = i(i − 4): −3, −4, −3
+        # (closed form of the funicular polygon, derived in the Go tests).
+        # Maxwell's theorem (Maxwell 1870) gives its load path: all in
+        # tension, Z = M = P·(3 + 4 + 3) + H·4 with H = q·1 = 5, so 120.
+        if "find-form" not in support.methods():
+            self.skipTest("find-form not offered")
+        ids = "ABCDE"
+        model = {
+            "dimension": 2,
+            "materials": [{"id": "rope", "elastic_modulus": 1e8}],
+            "sections": [{"id": "s", "area": 1e-4}],
+            "nodes": [{"id": n, "at": [i, 0]} for i, n in enumerate(ids)],
+            "members": [{"id": a + b, "ends": [a, b], "material": "rope", "section": "s"} for a, b in zip(ids, ids[1:])],
+            "supports": [{"node": "A", "fix": ["x", "y"]}, {"node": "E", "fix": ["x", "y"]}],
+            "load_cases": [{"id": "hang", "loads": [{"node": n, "force": [0, -10]} for n in "BCD"]}],
+        }
+        with gusset.Client(support.binary()) as client:
+            found = client.find_form(model, force_density=5)
+            again = client.load_path(found["model"], cases=[found["model_case"]], forces=found["forces"])
+        heights = [p[1] for p in found["coordinates"]]
+        for got, want in zip(heights, [0, -3, -4, -3, 0]):
+            self.assertTrue(close_within(got, want, 1e-12), heights)
+        self.assertEqual(found["network"], "tension")
+        self.assertTrue(close_within(found["load_path"]["load_path"], 120, 1e-12))
+        self.assertTrue(close_within(again["cases"][0]["load_path"], 120, 1e-12))
+
+
 class ModesTest(unittest.TestCase):
     def test_spring_held_strut(self) -> None:
         # A rigid strut of length L = 4 pinned at its foot, its head held
