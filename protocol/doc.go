@@ -1,12 +1,10 @@
 // Package protocol holds Gusset's wire protocol: the JSON-RPC 2.0 envelope,
 // the request and result types of every method (the single source of the
-// published JSON Schema), error codes, and the server loop that frames
-// newline-delimited messages, dispatches them to a bounded pool of workers,
-// streams progress notifications and writes every message whole through a
-// single writer.
+// published JSON Schema), the limits, the method names and the error codes.
+// The transport that serves them (framing, dispatch, workers, streaming,
+// cancellation) is package protocol/jsonrpc.
 //
-// The package knows nothing of mechanics: methods are registered as Handler
-// functions by the adapter in cmd/gusset.
+// The package knows nothing of mechanics, and holds types only.
 package protocol
 
 //go:generate go run gusset/schema/generate -protocol . -out ../schema/gusset.schema.json

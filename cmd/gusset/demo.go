@@ -15,6 +15,7 @@ import (
 
 	"gusset/cmd/gusset/adapter"
 	"gusset/protocol"
+	"gusset/protocol/jsonrpc"
 )
 
 // footbridge is the demo scenario, of our own invention: the Brannock Cut
@@ -34,7 +35,7 @@ const deckArea = 72.0
 type demo struct {
 	out    io.Writer
 	dir    string
-	server *protocol.Server
+	server *jsonrpc.Server
 	model  json.RawMessage
 	next   int
 }

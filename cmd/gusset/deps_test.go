@@ -28,6 +28,8 @@ func TestDependencyDirection(t *testing.T) {
 				ok = std(imp) || strings.HasPrefix(imp, "gonum.org/v1/") || strings.HasPrefix(imp, "gusset/engine")
 			case pkg == "gusset/protocol":
 				ok = std(imp)
+			case pkg == "gusset/protocol/jsonrpc":
+				ok = std(imp) || imp == "gusset/protocol"
 			case pkg == "gusset/schema/generate":
 				// The generator reflects the adapter's method table.
 				ok = std(imp) || imp == "gusset/protocol" || imp == "gusset/schema" || imp == "gusset/cmd/gusset/adapter" ||

@@ -14,6 +14,7 @@ import (
 
 	"gusset/cmd/gusset/adapter"
 	"gusset/protocol"
+	"gusset/protocol/jsonrpc"
 	"gusset/schema"
 )
 
@@ -88,8 +89,8 @@ func newFlags(out io.Writer) *flags {
 }
 
 // newServer builds a server with every method registered.
-func newServer(limits protocol.Limits, log io.Writer) (*protocol.Server, error) {
-	s := &protocol.Server{Name: "gusset", Version: version, Limits: limits, Log: log}
+func newServer(limits protocol.Limits, log io.Writer) (*jsonrpc.Server, error) {
+	s := &jsonrpc.Server{Name: "gusset", Version: version, Limits: limits, Log: log}
 	if err := adapter.Register(s); err != nil {
 		return nil, err
 	}

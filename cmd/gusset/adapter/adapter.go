@@ -11,6 +11,7 @@ import (
 	"gusset/engine/fault"
 	"gusset/engine/model"
 	"gusset/protocol"
+	"gusset/protocol/jsonrpc"
 	"gusset/schema"
 )
 
@@ -25,7 +26,7 @@ type Adapter struct {
 
 // Register adds every engine method to the server, with schema validation
 // of params and the mapping of engine errors to wire codes.
-func Register(s *protocol.Server) error {
+func Register(s *jsonrpc.Server) error {
 	s.Limits = s.Limits.WithDefaults()
 	v, err := schema.NewValidator(paramsDefinitions())
 	if err != nil {

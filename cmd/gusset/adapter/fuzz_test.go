@@ -9,6 +9,7 @@ import (
 	"testing"
 
 	"gusset/protocol"
+	"gusset/protocol/jsonrpc"
 	"gusset/schema"
 )
 
@@ -29,7 +30,7 @@ func FuzzMethodParams(f *testing.F) {
 		f.Fatal(err)
 	}
 	a := &Adapter{Limits: protocol.Limits{}.WithDefaults(), validator: v}
-	handlers := map[string]protocol.Handler{}
+	handlers := map[string]jsonrpc.Handler{}
 	for _, e := range methods {
 		handlers[e.name] = e.bind(a)
 	}

@@ -11,6 +11,7 @@ import (
 	"gusset/engine/render"
 	"gusset/engine/statics"
 	"gusset/protocol"
+	"gusset/protocol/jsonrpc"
 )
 
 // reciprocate draws the reciprocal force diagram of the request's model.
@@ -58,7 +59,7 @@ func (a *Adapter) reciprocate(ctx context.Context, r *request[protocol.Reciproca
 
 // diagramInput finds the forces to draw: given, a state of self-stress, or
 // the solve of the named case.
-func (a *Adapter) diagramInput(ctx context.Context, m *model.Model, p *protocol.ReciprocateParams, st protocol.Stream) (reciprocal.Input, string, error) {
+func (a *Adapter) diagramInput(ctx context.Context, m *model.Model, p *protocol.ReciprocateParams, st jsonrpc.Stream) (reciprocal.Input, string, error) {
 	switch {
 	case p.Forces != nil:
 		var ids []string

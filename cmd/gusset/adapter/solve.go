@@ -10,6 +10,7 @@ import (
 	"gusset/engine/model"
 	"gusset/engine/stiffness"
 	"gusset/protocol"
+	"gusset/protocol/jsonrpc"
 )
 
 // solve runs the stiffness analysis of the request's model.
@@ -22,7 +23,7 @@ func (a *Adapter) solve(ctx context.Context, r *request[protocol.SolveParams]) (
 }
 
 // analyse runs the stiffness solve and locates its errors in the request.
-func (a *Adapter) analyse(ctx context.Context, m *model.Model, cases []string, st protocol.Stream) (*stiffness.Result, error) {
+func (a *Adapter) analyse(ctx context.Context, m *model.Model, cases []string, st jsonrpc.Stream) (*stiffness.Result, error) {
 	// Workers 0 lets one large solve use every core; results are
 	// bit-identical for any number of workers, and with several requests in
 	// flight the Go scheduler shares the cores among their goroutines.

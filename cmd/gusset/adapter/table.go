@@ -31,6 +31,7 @@ import (
 
 	"gusset/engine/model"
 	"gusset/protocol"
+	"gusset/protocol/jsonrpc"
 )
 
 // methods lists the engine methods in the order a newcomer meets them,
@@ -51,12 +52,12 @@ var methods = []entry{
 	method(protocol.MethodOptimiseLayout,
 		"The least-volume pin-jointed layout over a design domain by the ground-structure method with member adding, returned as a model ready for analysis.",
 		(*Adapter).optimiseLayout),
-	method(protocol.MethodFindForm,
-		"Equilibrium forms of pin-jointed networks from force densities (Schek's force density method) in 2D and 3D, through a point, to target lengths or forces, with loads that follow the form; the answer is a model.",
-		(*Adapter).findForm),
 	method(protocol.MethodModes,
 		"Linear buckling load factors of a load case, or natural frequencies with participation factors, and their mode shapes, by shift-invert Lanczos.",
 		(*Adapter).modes),
+	method(protocol.MethodFindForm,
+		"Equilibrium forms of pin-jointed networks from force densities (Schek's force density method) in 2D and 3D, through a point, to target lengths or forces, with loads that follow the form; the answer is a model.",
+		(*Adapter).findForm),
 }
 
 // detailTypes are published in the schema because errors carry them as
@@ -70,14 +71,14 @@ type request[P any] struct {
 	// Model is the compiled model of Params.Model, nil when P has no model.
 	Model *model.Model
 	// Stream sends the request's progress notifications.
-	Stream protocol.Stream
+	Stream jsonrpc.Stream
 }
 
 // entry is one method of the table.
 type entry struct {
 	name, summary  string
 	params, result reflect.Type
-	bind           func(a *Adapter) protocol.Handler
+	bind           func(a *Adapter) jsonrpc.Handler
 }
 
 var (
@@ -93,8 +94,8 @@ var (
 func method[P, R any](name, summary string, h func(a *Adapter, ctx context.Context, r *request[P]) (*R, error)) entry {
 	pt := reflect.TypeFor[P]()
 	modelField, casesField := field(pt, "Model", wireModelType), field(pt, "Cases", idsType)
-	bind := func(a *Adapter) protocol.Handler {
-		return func(ctx context.Context, raw json.RawMessage, st protocol.Stream) (any, error) {
+	bind := func(a *Adapter) jsonrpc.Handler {
+		return func(ctx context.Context, raw json.RawMessage, st jsonrpc.Stream) (any, error) {
 			r := &request[P]{Params: new(P), Stream: st}
 			fields := reflect.ValueOf(r.Params).Elem()
 			if modelField < 0 {

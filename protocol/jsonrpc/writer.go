@@ -1,4 +1,4 @@
-package protocol
+package jsonrpc
 
 import (
 	"bufio"

@@ -1,4 +1,4 @@
-package protocol
+package jsonrpc
 
 import (
 	"bufio"
@@ -9,6 +9,8 @@ import (
 	"testing"
 	"time"
 	"unicode/utf8"
+
+	"gusset/protocol"
 )
 
 // fuzzLineLimit is small so that the fuzzer reaches the oversize-line path
@@ -49,7 +51,7 @@ func FuzzServe(f *testing.F) {
 		f.Add([]byte(s))
 	}
 	f.Fuzz(func(t *testing.T, input []byte) {
-		s := fuzzServer(Limits{Workers: 2, MaxLineBytes: fuzzLineLimit})
+		s := fuzzServer(protocol.Limits{Workers: 2, MaxLineBytes: fuzzLineLimit})
 		var out bytes.Buffer
 		if _, err := s.Serve(context.Background(), bytes.NewReader(input), &out); err != nil {
 			t.Fatalf("Serve: %v", err)
@@ -73,7 +75,7 @@ func FuzzServe(f *testing.F) {
 			}
 			if _, isNote := m["method"]; isNote {
 				var p struct {
-					Params Progress `json:"params"`
+					Params protocol.Progress `json:"params"`
 				}
 				if err := json.Unmarshal(line, &p); err != nil {
 					t.Fatalf("bad notification %q: %v", line, err)
@@ -124,13 +126,13 @@ func FuzzServe(f *testing.F) {
 // echo returns its params after a partial result, wait reports progress
 // for up to 2 ms or until cancelled, boom panics and fail returns an
 // application error.
-func fuzzServer(limits Limits) *Server {
+func fuzzServer(limits protocol.Limits) *Server {
 	s := &Server{Name: "fuzz", Version: "0", Limits: limits}
-	s.Handle(Method{Name: "echo"}, func(ctx context.Context, p json.RawMessage, st Stream) (any, error) {
+	s.Handle(protocol.Method{Name: "echo"}, func(ctx context.Context, p json.RawMessage, st Stream) (any, error) {
 		st.Progress("echoing", 0, 1, map[string]int{"bytes": len(p)})
 		return p, nil
 	})
-	s.Handle(Method{Name: "wait"}, func(ctx context.Context, p json.RawMessage, st Stream) (any, error) {
+	s.Handle(protocol.Method{Name: "wait"}, func(ctx context.Context, p json.RawMessage, st Stream) (any, error) {
 		deadline := time.Now().Add(2 * time.Millisecond)
 		for i := 0; time.Now().Before(deadline); i++ {
 			if err := ctx.Err(); err != nil {
@@ -140,11 +142,11 @@ func fuzzServer(limits Limits) *Server {
 		}
 		return "waited", nil
 	})
-	s.Handle(Method{Name: "boom"}, func(ctx context.Context, p json.RawMessage, st Stream) (any, error) {
+	s.Handle(protocol.Method{Name: "boom"}, func(ctx context.Context, p json.RawMessage, st Stream) (any, error) {
 		panic("boom")
 	})
-	s.Handle(Method{Name: "fail"}, func(ctx context.Context, p json.RawMessage, st Stream) (any, error) {
-		return nil, NewError(1000, "invalid model", "fails on purpose")
+	s.Handle(protocol.Method{Name: "fail"}, func(ctx context.Context, p json.RawMessage, st Stream) (any, error) {
+		return nil, protocol.NewError(1000, "invalid model", "fails on purpose")
 	})
 	return s
 }

@@ -1,4 +1,4 @@
-package protocol
+package jsonrpc
 
 import (
 	"bufio"
@@ -12,17 +12,19 @@ import (
 	"sync"
 	"testing"
 	"time"
+
+	"gusset/protocol"
 )
 
 // testServer has three methods: echo returns its params, slow waits for
 // cancellation while reporting progress, and boom panics.
-func testServer(limits Limits) *Server {
+func testServer(limits protocol.Limits) *Server {
 	s := &Server{Name: "test", Version: "0", Limits: limits}
-	s.Handle(Method{Name: "echo"}, func(ctx context.Context, p json.RawMessage, st Stream) (any, error) {
+	s.Handle(protocol.Method{Name: "echo"}, func(ctx context.Context, p json.RawMessage, st Stream) (any, error) {
 		st.Progress("echoing", 1, 1, nil)
 		return p, nil
 	})
-	s.Handle(Method{Name: "slow"}, func(ctx context.Context, p json.RawMessage, st Stream) (any, error) {
+	s.Handle(protocol.Method{Name: "slow"}, func(ctx context.Context, p json.RawMessage, st Stream) (any, error) {
 		for i := 0; ; i++ {
 			st.Progress("waiting", i, 0, map[string]int{"i": i})
 			select {
@@ -32,24 +34,24 @@ func testServer(limits Limits) *Server {
 			}
 		}
 	})
-	s.Handle(Method{Name: "boom"}, func(ctx context.Context, p json.RawMessage, st Stream) (any, error) {
+	s.Handle(protocol.Method{Name: "boom"}, func(ctx context.Context, p json.RawMessage, st Stream) (any, error) {
 		var m map[string]int
 		m["x"] = 1 // panics: assignment to a nil map
 		return nil, nil
 	})
-	s.Handle(Method{Name: "fail"}, func(ctx context.Context, p json.RawMessage, st Stream) (any, error) {
-		return nil, fmt.Errorf("wrapped: %w", NewError(1002, "unstable structure", "mechanism"))
+	s.Handle(protocol.Method{Name: "fail"}, func(ctx context.Context, p json.RawMessage, st Stream) (any, error) {
+		return nil, fmt.Errorf("wrapped: %w", protocol.NewError(1002, "unstable structure", "mechanism"))
 	})
 	return s
 }
 
 type message struct {
-	JSONRPC string          `json:"jsonrpc"`
-	ID      json.RawMessage `json:"id"`
-	Method  string          `json:"method"`
-	Params  *Progress       `json:"params"`
-	Result  json.RawMessage `json:"result"`
-	Error   *Error          `json:"error"`
+	JSONRPC string             `json:"jsonrpc"`
+	ID      json.RawMessage    `json:"id"`
+	Method  string             `json:"method"`
+	Params  *protocol.Progress `json:"params"`
+	Result  json.RawMessage    `json:"result"`
+	Error   *protocol.Error    `json:"error"`
 }
 
 // serveLines runs the server over the input and returns every output line,
@@ -95,20 +97,20 @@ func TestBadInputKeepsGoing(t *testing.T) {
 		code int
 		path string
 	}{
-		{"not JSON", `{"jsonrpc": "2.0", "id": 1, "method": "echo"`, CodeParseError, ""},
-		{"not an object", `[1, 2, 3]`, CodeInvalidRequest, ""},
-		{"missing jsonrpc", `{"id": 7, "method": "echo"}`, CodeInvalidRequest, "/jsonrpc"},
-		{"wrong jsonrpc", `{"jsonrpc": "1.0", "id": 7, "method": "echo"}`, CodeInvalidRequest, "/jsonrpc"},
-		{"missing method", `{"jsonrpc": "2.0", "id": 7}`, CodeInvalidRequest, "/method"},
-		{"unknown method", `{"jsonrpc": "2.0", "id": 7, "method": "frobnicate"}`, CodeMethodNotFound, "/method"},
-		{"params not an object", `{"jsonrpc": "2.0", "id": 7, "method": "echo", "params": [1]}`, CodeInvalidParams, "/params"},
-		{"id an object", `{"jsonrpc": "2.0", "id": {"a": 1}, "method": "echo"}`, CodeInvalidRequest, "/id"},
-		{"deeply nested", deep, CodeParseError, ""},
-		{"two values", `{} {}`, CodeParseError, ""},
+		{"not JSON", `{"jsonrpc": "2.0", "id": 1, "method": "echo"`, protocol.CodeParseError, ""},
+		{"not an object", `[1, 2, 3]`, protocol.CodeInvalidRequest, ""},
+		{"missing jsonrpc", `{"id": 7, "method": "echo"}`, protocol.CodeInvalidRequest, "/jsonrpc"},
+		{"wrong jsonrpc", `{"jsonrpc": "1.0", "id": 7, "method": "echo"}`, protocol.CodeInvalidRequest, "/jsonrpc"},
+		{"missing method", `{"jsonrpc": "2.0", "id": 7}`, protocol.CodeInvalidRequest, "/method"},
+		{"unknown method", `{"jsonrpc": "2.0", "id": 7, "method": "frobnicate"}`, protocol.CodeMethodNotFound, "/method"},
+		{"params not an object", `{"jsonrpc": "2.0", "id": 7, "method": "echo", "params": [1]}`, protocol.CodeInvalidParams, "/params"},
+		{"id an object", `{"jsonrpc": "2.0", "id": {"a": 1}, "method": "echo"}`, protocol.CodeInvalidRequest, "/id"},
+		{"deeply nested", deep, protocol.CodeParseError, ""},
+		{"two values", `{} {}`, protocol.CodeParseError, ""},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
-			msgs := serveLines(t, testServer(Limits{Workers: 2}), c.line+"\n"+`{"jsonrpc":"2.0","id":"next","method":"echo","params":{"a":1}}`+"\n")
+			msgs := serveLines(t, testServer(protocol.Limits{Workers: 2}), c.line+"\n"+`{"jsonrpc":"2.0","id":"next","method":"echo","params":{"a":1}}`+"\n")
 			var errs []message
 			for _, m := range msgs {
 				if m.Error != nil {
@@ -137,9 +139,9 @@ func TestBadInputKeepsGoing(t *testing.T) {
 
 func TestOversizeLineIsSkipped(t *testing.T) {
 	big := `{"jsonrpc":"2.0","id":1,"method":"echo","params":{"s":"` + strings.Repeat("x", 5000) + `"}}`
-	msgs := serveLines(t, testServer(Limits{MaxLineBytes: 1000}), big+"\n"+`{"jsonrpc":"2.0","id":2,"method":"echo"}`+"\n")
+	msgs := serveLines(t, testServer(protocol.Limits{MaxLineBytes: 1000}), big+"\n"+`{"jsonrpc":"2.0","id":2,"method":"echo"}`+"\n")
 	f := finals(msgs)
-	if e := f["null"].Error; e == nil || e.Code != CodeParseError || !strings.Contains(e.Message, "1000 bytes") {
+	if e := f["null"].Error; e == nil || e.Code != protocol.CodeParseError || !strings.Contains(e.Message, "1000 bytes") {
 		t.Errorf("oversize line: got %+v", f["null"])
 	}
 	if f["2"].Error != nil || f["2"].Result == nil {
@@ -153,7 +155,7 @@ func TestIDsEchoedByteForByte(t *testing.T) {
 	for _, id := range ids {
 		fmt.Fprintf(&in, `{"jsonrpc":"2.0","id":%s,"method":"echo"}`+"\n", id)
 	}
-	f := finals(serveLines(t, testServer(Limits{Workers: 3}), in.String()))
+	f := finals(serveLines(t, testServer(protocol.Limits{Workers: 3}), in.String()))
 	for _, id := range ids {
 		if _, ok := f[id]; !ok {
 			t.Errorf("no response with id %s; got %v", id, f)
@@ -162,8 +164,8 @@ func TestIDsEchoedByteForByte(t *testing.T) {
 }
 
 func TestPanicBecomesInternalError(t *testing.T) {
-	f := finals(serveLines(t, testServer(Limits{}), `{"jsonrpc":"2.0","id":1,"method":"boom"}`+"\n"+`{"jsonrpc":"2.0","id":2,"method":"echo"}`+"\n"))
-	if e := f["1"].Error; e == nil || e.Code != CodeInternal {
+	f := finals(serveLines(t, testServer(protocol.Limits{}), `{"jsonrpc":"2.0","id":1,"method":"boom"}`+"\n"+`{"jsonrpc":"2.0","id":2,"method":"echo"}`+"\n"))
+	if e := f["1"].Error; e == nil || e.Code != protocol.CodeInternal {
 		t.Errorf("panic: got %+v", f["1"])
 	}
 	if f["2"].Error != nil {
@@ -172,7 +174,7 @@ func TestPanicBecomesInternalError(t *testing.T) {
 }
 
 func TestWrappedErrorKeepsCode(t *testing.T) {
-	f := finals(serveLines(t, testServer(Limits{}), `{"jsonrpc":"2.0","id":1,"method":"fail"}`+"\n"))
+	f := finals(serveLines(t, testServer(protocol.Limits{}), `{"jsonrpc":"2.0","id":1,"method":"fail"}`+"\n"))
 	if e := f["1"].Error; e == nil || e.Code != 1002 {
 		t.Errorf("got %+v, want code 1002", f["1"])
 	}
@@ -182,7 +184,7 @@ func TestWrappedErrorKeepsCode(t *testing.T) {
 // that a request without an id is a notification and is not answered, for
 // engine methods and the server's own.
 func TestNotificationGetsNoResponse(t *testing.T) {
-	msgs := serveLines(t, testServer(Limits{}), `{"jsonrpc":"2.0","method":"echo"}`+"\n"+
+	msgs := serveLines(t, testServer(protocol.Limits{}), `{"jsonrpc":"2.0","method":"echo"}`+"\n"+
 		`{"jsonrpc":"2.0","method":"describe"}`+"\n"+`{"jsonrpc":"2.0","method":"cancel","params":{"request":5}}`+"\n"+
 		`{"jsonrpc":"2.0","id":2,"method":"echo"}`+"\n")
 	if f := finals(msgs); len(f) != 1 || f["2"].Result == nil {
@@ -191,12 +193,12 @@ func TestNotificationGetsNoResponse(t *testing.T) {
 }
 
 func TestDescribe(t *testing.T) {
-	f := finals(serveLines(t, testServer(Limits{Workers: 3}), `{"jsonrpc":"2.0","id":1,"method":"describe"}`+"\n"))
-	var d DescribeResult
+	f := finals(serveLines(t, testServer(protocol.Limits{Workers: 3}), `{"jsonrpc":"2.0","id":1,"method":"describe"}`+"\n"))
+	var d protocol.DescribeResult
 	if err := json.Unmarshal(f["1"].Result, &d); err != nil {
 		t.Fatal(err)
 	}
-	if d.Name != "test" || d.ProtocolVersion != Version || d.Limits.Workers != 3 || len(d.Methods) != 6 {
+	if d.Name != "test" || d.ProtocolVersion != protocol.Version || d.Limits.Workers != 3 || len(d.Methods) != 6 {
 		t.Errorf("describe: %+v", d)
 	}
 }
@@ -223,7 +225,7 @@ func startPipe(s *Server) *pipeServer {
 
 func (p *pipeServer) send(line string) { io.WriteString(p.in, line+"\n") }
 
-func (p *pipeServer) next(t *testing.T) message {
+func (p *pipeServer) next(t testing.TB) message {
 	t.Helper()
 	line, err := p.out.ReadBytes('\n')
 	if err != nil {
@@ -237,7 +239,7 @@ func (p *pipeServer) next(t *testing.T) message {
 }
 
 func TestCancelStopsRequestAndItIsStillAnswered(t *testing.T) {
-	p := startPipe(testServer(Limits{Workers: 2}))
+	p := startPipe(testServer(protocol.Limits{Workers: 2}))
 	p.send(`{"jsonrpc":"2.0","id":"long","method":"slow"}`)
 	for m := p.next(t); m.Method != "progress"; m = p.next(t) {
 	}
@@ -257,7 +259,7 @@ func TestCancelStopsRequestAndItIsStillAnswered(t *testing.T) {
 			}
 		case string(m.ID) == `"long"`:
 			gotFinal = true
-			if m.Error == nil || m.Error.Code != CodeCancelled {
+			if m.Error == nil || m.Error.Code != protocol.CodeCancelled {
 				t.Errorf("cancelled request: %+v", m)
 			}
 		}
@@ -269,9 +271,9 @@ func TestCancelStopsRequestAndItIsStillAnswered(t *testing.T) {
 }
 
 func TestTimeLimit(t *testing.T) {
-	f := finals(serveLines(t, testServer(Limits{TimeLimitSeconds: 0.05, Workers: 2}),
+	f := finals(serveLines(t, testServer(protocol.Limits{TimeLimitSeconds: 0.05, Workers: 2}),
 		`{"jsonrpc":"2.0","id":1,"method":"slow"}`+"\n"+`{"jsonrpc":"2.0","id":2,"method":"echo"}`+"\n"))
-	if e := f["1"].Error; e == nil || e.Code != CodeTimeLimit {
+	if e := f["1"].Error; e == nil || e.Code != protocol.CodeTimeLimit {
 		t.Errorf("time limit: %+v", f["1"])
 	}
 	if f["2"].Error != nil {
@@ -280,7 +282,7 @@ func TestTimeLimit(t *testing.T) {
 }
 
 func TestDuplicateIDInFlight(t *testing.T) {
-	p := startPipe(testServer(Limits{Workers: 2}))
+	p := startPipe(testServer(protocol.Limits{Workers: 2}))
 	p.send(`{"jsonrpc":"2.0","id":5,"method":"slow"}`)
 	for m := p.next(t); m.Method != "progress"; m = p.next(t) {
 	}
@@ -288,7 +290,7 @@ func TestDuplicateIDInFlight(t *testing.T) {
 	for {
 		m := p.next(t)
 		if m.Method == "" {
-			if m.Error == nil || m.Error.Code != CodeInvalidRequest {
+			if m.Error == nil || m.Error.Code != protocol.CodeInvalidRequest {
 				t.Fatalf("duplicate id: %+v", m)
 			}
 			break
@@ -323,7 +325,7 @@ func TestManyRequestsOneAnswerEach(t *testing.T) {
 				fmt.Fprintf(&in, `{"jsonrpc":"2.0","id":%d,"method":"echo","params":7}`+"\n", i)
 			}
 		}
-		msgs := serveLines(t, testServer(Limits{Workers: workers}), in.String())
+		msgs := serveLines(t, testServer(protocol.Limits{Workers: workers}), in.String())
 		seen := map[string]int{}
 		for _, m := range msgs {
 			if m.Method == "progress" {
@@ -350,7 +352,7 @@ type failingWriter struct{ mu sync.Mutex }
 func (w *failingWriter) Write(p []byte) (int, error) { return 0, errors.New("pipe closed") }
 
 func TestClosedOutputEndsServe(t *testing.T) {
-	s := testServer(Limits{Workers: 2})
+	s := testServer(protocol.Limits{Workers: 2})
 	pr, pw := io.Pipe()
 	done := make(chan error, 1)
 	go func() {

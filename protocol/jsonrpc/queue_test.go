@@ -1,9 +1,11 @@
-package protocol
+package jsonrpc
 
 import (
 	"fmt"
 	"testing"
 	"time"
+
+	"gusset/protocol"
 )
 
 func TestWaitQueueOrderAndBackPressure(t *testing.T) {
@@ -46,7 +48,7 @@ func TestWaitQueueOrderAndBackPressure(t *testing.T) {
 // requests than max_queued behind it, and checks that a cancel sent after
 // them is still read and answered, and stops the busy request.
 func TestCancelNotHeldUpBehindQueue(t *testing.T) {
-	p := startPipe(testServer(Limits{Workers: 1, MaxQueued: 2}))
+	p := startPipe(testServer(protocol.Limits{Workers: 1, MaxQueued: 2}))
 	p.send(`{"jsonrpc":"2.0","id":"long","method":"slow"}`)
 	for m := p.next(t); m.Method != "progress"; m = p.next(t) {
 	}
@@ -66,7 +68,7 @@ func TestCancelNotHeldUpBehindQueue(t *testing.T) {
 			t.Fatalf("two answers for %s", id)
 		}
 		seen[id] = true
-		if id == `"long"` && (m.Error == nil || m.Error.Code != CodeCancelled) {
+		if id == `"long"` && (m.Error == nil || m.Error.Code != protocol.CodeCancelled) {
 			t.Errorf("long request: %+v", m)
 		}
 		if id == `"c"` && string(m.Result) != `{"cancelled":true}` {

@@ -1,0 +1,177 @@
+package jsonrpc
+
+import (
+	"context"
+	"encoding/json"
+	"fmt"
+	"io"
+	"sync"
+	"time"
+
+	"gusset/protocol"
+)
+
+// call is one request read from the input.
+type call struct {
+	id     json.RawMessage // nil for a notification
+	key    string          // the compacted id, the in-flight table's key
+	method string
+	params json.RawMessage
+	ctx    context.Context
+	cancel context.CancelCauseFunc
+
+	// sendMu orders the call's messages: a progress notification is
+	// written whole before the final response is queued.
+	sendMu sync.Mutex
+
+	// Guarded by conn.mu.
+	done bool
+	// stopped is set by a cancel that found the call still running; the
+	// call is then answered with the cancelled error whatever its handler
+	// returned, so the cancel's answer and the call's agree.
+	stopped bool
+	start   time.Time
+	last    map[string]time.Time
+}
+
+// conn is one session: one input, one output, the workers and the state of
+// the requests in flight.
+type conn struct {
+	s       *Server
+	limits  protocol.Limits
+	ctx     context.Context
+	stopAll context.CancelCauseFunc
+	w       *writer
+	queue   *waitQueue
+	workers sync.WaitGroup
+	// async counts the goroutines that parse large lines and admit lines
+	// off the reader (see offreader.go).
+	async sync.WaitGroup
+	// tail is the last line admitted off the reader, nil when none; only
+	// the reader goroutine touches it.
+	tail *link
+
+	// mu is the state lock; room is signalled when off-reader lines finish.
+	mu       sync.Mutex
+	room     sync.Cond
+	inFlight map[string]*call
+	failures int
+	pending  pendingLines
+}
+
+func newConn(ctx context.Context, s *Server, out io.Writer) *conn {
+	c := &conn{s: s, limits: s.Limits.WithDefaults(), inFlight: map[string]*call{}}
+	c.ctx, c.stopAll = context.WithCancelCause(ctx)
+	c.room.L = &c.mu
+	c.w = newWriter(out, func(err error) { c.stopAll(fmt.Errorf("output failed: %w", err)) })
+	go c.w.loop()
+	c.queue = newWaitQueue(c.limits.MaxQueued, c.limits.ReadAheadBytes)
+	return c
+}
+
+// startWorkers starts the pool that runs queued calls.
+func (c *conn) startWorkers() {
+	for i := 0; i < c.limits.Workers; i++ {
+		c.workers.Add(1)
+		go func() {
+			defer c.workers.Done()
+			for cl := c.queue.take(); cl != nil; cl = c.queue.take() {
+				c.finish(cl, c.run(cl))
+			}
+		}()
+	}
+}
+
+// close waits for every line read to be answered and the output flushed.
+func (c *conn) close() (failures int, err error) {
+	c.async.Wait()
+	c.queue.close()
+	c.workers.Wait()
+	err = c.w.close()
+	c.mu.Lock()
+	defer c.mu.Unlock()
+	return c.failures, err
+}
+
+// admit records a call for work in the in-flight table and reports whether
+// it is to be queued; a refused call (the server stopping, or its id
+// already in flight) is answered here.
+func (c *conn) admit(cl *call) bool {
+	if c.ctx.Err() != nil {
+		c.respond(errorResponse(cl.id, protocol.NewError(protocol.CodeShuttingDown, "shutting down", "The server is stopping and takes no new work.")))
+		return false
+	}
+	cl.ctx, cl.cancel = context.WithCancelCause(c.ctx)
+	if cl.id == nil {
+		return true
+	}
+	c.mu.Lock()
+	_, busy := c.inFlight[cl.key]
+	if !busy {
+		c.inFlight[cl.key] = cl
+	}
+	c.mu.Unlock()
+	if busy {
+		cl.cancel(nil)
+		c.respond(errorResponse(cl.id, protocol.NewError(protocol.CodeInvalidRequest, "invalid request",
+			"Another request with this id is still in flight; ids must be unique among requests in flight.",
+			protocol.Problem{Path: "/id", Message: "id already in use"})))
+	}
+	return !busy
+}
+
+// finish marks a call done, removes it from the table and sends its final
+// response (a notification's is dropped). A call stopped by a cancel is
+// answered with the cancelled error.
+func (c *conn) finish(cl *call, resp *protocol.Response) {
+	cl.sendMu.Lock()
+	c.mu.Lock()
+	if cl.stopped {
+		resp = errorResponse(cl.id, protocol.NewError(protocol.CodeCancelled, "cancelled", "The request was cancelled by a cancel request."))
+	}
+	cl.done = true
+	if c.inFlight[cl.key] == cl {
+		delete(c.inFlight, cl.key)
+	}
+	c.mu.Unlock()
+	cl.sendMu.Unlock()
+	cl.cancel(nil)
+	if cl.id != nil {
+		c.respond(resp)
+	}
+}
+
+// respond counts a failure and sends a final response.
+func (c *conn) respond(resp *protocol.Response) {
+	if resp.Error != nil {
+		c.mu.Lock()
+		c.failures++
+		c.mu.Unlock()
+	}
+	if c.s.OnResponse != nil {
+		c.s.OnResponse(resp)
+	}
+	c.w.send(marshalResponse(resp))
+}
+
+// cancel answers a cancel request: it stops the target if it is in flight.
+// found is false when the target is not in the table, so that a caller
+// whose earlier lines are still being admitted can look again later.
+func (c *conn) cancel(cl *call) (resp *protocol.Response, found bool) {
+	var p protocol.CancelParams
+	if err := json.Unmarshal(cl.params, &p); err != nil || len(p.Request) == 0 {
+		return errorResponse(cl.id, protocol.NewError(protocol.CodeInvalidParams, "invalid params",
+			`cancel needs {"request": <id of the request to cancel>}.`,
+			protocol.Problem{Path: "/params/request", Message: "expected the id of a request in flight"})), true
+	}
+	key := compactID(p.Request)
+	stopped := false
+	c.mu.Lock()
+	target := c.inFlight[key]
+	if target != nil && !target.done {
+		target.stopped, stopped = true, true
+		target.cancel(errCancelledByHost)
+	}
+	c.mu.Unlock()
+	return &protocol.Response{JSONRPC: "2.0", ID: cl.id, Result: protocol.CancelResult{Cancelled: stopped}}, target != nil
+}

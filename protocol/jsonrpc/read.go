@@ -1,0 +1,171 @@
+package jsonrpc
+
+import (
+	"bufio"
+	"bytes"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"io"
+	"unicode/utf8"
+
+	"gusset/protocol"
+)
+
+// bigLine is the line length from which the envelope is parsed off the
+// reader: parsing costs about 18 ns a byte (a 1 MiB line about 20 ms), so
+// a line below it holds the reader up for no longer than that.
+const bigLine = 1 << 20
+
+// read reads lines until end of input and hands each to handle.
+func (c *conn) read(in io.Reader) {
+	reader := bufio.NewReaderSize(in, 64<<10)
+	for {
+		line, tooLong, err := readLine(reader, c.limits.MaxLineBytes)
+		if tooLong {
+			c.respond(errorResponse(nil, protocol.NewError(protocol.CodeParseError, "parse error",
+				fmt.Sprintf("The line is longer than the line size limit of %d bytes; it was skipped. Send smaller requests or start the server with a larger --max-line-bytes.", c.limits.MaxLineBytes))))
+		} else if len(bytes.TrimSpace(line)) > 0 {
+			c.handle(line)
+		}
+		if err != nil {
+			if !errors.Is(err, io.EOF) {
+				c.s.logf("reading input: %v", err)
+			}
+			return
+		}
+	}
+}
+
+// handle parses one line and acts on it: parse errors are answered,
+// describe is answered at once, cancel stops its target, and other
+// requests are admitted and queued for the workers, in the order read. A
+// large line is parsed off the reader (see offreader.go), so that the
+// lines behind it are read meanwhile.
+func (c *conn) handle(line []byte) {
+	if len(line) >= bigLine {
+		c.later(len(line), func() (*call, *protocol.Response) { return c.s.parse(line) })
+		return
+	}
+	cl, resp := c.s.parse(line)
+	switch {
+	case resp != nil:
+		c.respond(resp)
+	case cl.method == protocol.MethodDescribe:
+		if cl.id != nil { // a notification gets no response
+			c.respond(&protocol.Response{JSONRPC: "2.0", ID: cl.id, Result: c.s.describeResult(c.limits)})
+		}
+	case cl.method == protocol.MethodCancel:
+		resp, found := c.cancel(cl)
+		if !found && !c.idle() {
+			// The target may be a line still being parsed or admitted
+			// off the reader: look again once those before it are in.
+			c.later(len(line), func() (*call, *protocol.Response) { return cl, nil })
+		} else if cl.id != nil {
+			c.respond(resp)
+		}
+	case c.idle():
+		if c.admit(cl) {
+			c.queue.put(cl, len(line))
+		}
+	default:
+		c.later(len(line), func() (*call, *protocol.Response) { return cl, nil })
+	}
+}
+
+// readLine reads one line without its newline. A line longer than limit is
+// consumed and reported as tooLong with no data.
+func readLine(r *bufio.Reader, limit int) (line []byte, tooLong bool, err error) {
+	var buf []byte
+	for {
+		chunk, err := r.ReadSlice('\n')
+		if len(buf)+len(chunk) > limit+2 { // allow for \r\n
+			tooLong = true
+		}
+		if !tooLong {
+			buf = append(buf, chunk...)
+		}
+		if err == bufio.ErrBufferFull {
+			continue
+		}
+		if tooLong {
+			return nil, true, err
+		}
+		buf = bytes.TrimRight(buf, "\r\n")
+		if len(buf) > limit {
+			return nil, true, err
+		}
+		return buf, false, err
+	}
+}
+
+// parse decodes the envelope. It returns either a call or an error
+// response. The one decode of the line checks its syntax too: a syntax
+// error is a parse error, any other JSON value an invalid request.
+func (s *Server) parse(line []byte) (*call, *protocol.Response) {
+	if !utf8.Valid(line) {
+		return nil, errorResponse(nil, protocol.NewError(protocol.CodeParseError, "parse error",
+			"The line is not valid UTF-8. Send requests as UTF-8 JSON, one per line."))
+	}
+	// Members are taken by their exact names (RFC 8259 §4): decoding into a
+	// struct would also accept "ID" or "Method". The params stay raw.
+	var members map[string]json.RawMessage
+	if err := json.Unmarshal(line, &members); err != nil {
+		var syntax *json.SyntaxError
+		if errors.As(err, &syntax) {
+			return nil, errorResponse(nil, protocol.NewError(protocol.CodeParseError, "parse error",
+				"The line is not valid JSON: "+err.Error()+". Send one JSON-RPC request object per line."))
+		}
+		return nil, errorResponse(nil, protocol.NewError(protocol.CodeInvalidRequest, "invalid request",
+			"The message is not a JSON object. Send one JSON-RPC 2.0 request object per line.", protocol.Problem{Path: "", Message: "expected an object"}))
+	}
+	return s.request(members)
+}
+
+// request checks the envelope's members and builds the call.
+func (s *Server) request(members map[string]json.RawMessage) (*call, *protocol.Response) {
+	var id json.RawMessage
+	if raw, has := members["id"]; has {
+		id = json.RawMessage(compactID(raw))
+		if c := id[0]; c != '"' && c != '-' && (c < '0' || c > '9') {
+			return nil, errorResponse(nil, protocol.NewError(protocol.CodeInvalidRequest, "invalid request",
+				"The id must be a string or a number.", protocol.Problem{Path: "/id", Message: "expected a string or a number"}))
+		}
+	}
+	var version, method string
+	if json.Unmarshal(members["jsonrpc"], &version) != nil || version != "2.0" {
+		return nil, errorResponse(id, protocol.NewError(protocol.CodeInvalidRequest, "invalid request",
+			`The request lacks "jsonrpc": "2.0".`, protocol.Problem{Path: "/jsonrpc", Message: `must be "2.0"`}))
+	}
+	if json.Unmarshal(members["method"], &method) != nil || method == "" {
+		return nil, errorResponse(id, protocol.NewError(protocol.CodeInvalidRequest, "invalid request",
+			"The request lacks a method name (a string).", protocol.Problem{Path: "/method", Message: "expected a method name"}))
+	}
+	if method != protocol.MethodCancel && method != protocol.MethodDescribe && s.methods[method] == nil {
+		return nil, errorResponse(id, protocol.NewError(protocol.CodeMethodNotFound, "method not found",
+			fmt.Sprintf("There is no method %q; the methods are %s.", method, s.methodList()), protocol.Problem{Path: "/method", Message: "unknown method"}))
+	}
+	params := bytes.TrimSpace(members["params"])
+	if len(params) == 0 || string(params) == "null" {
+		params = json.RawMessage("{}")
+	} else if params[0] != '{' {
+		return nil, errorResponse(id, protocol.NewError(protocol.CodeInvalidParams, "invalid params",
+			"The params must be an object with named members.", protocol.Problem{Path: "/params", Message: "expected an object"}))
+	}
+	if s.Validate != nil {
+		if e := s.Validate(method, params); e != nil {
+			return nil, errorResponse(id, e)
+		}
+	}
+	return &call{id: id, key: string(id), method: method, params: params}, nil
+}
+
+// compactID returns an id's JSON text without insignificant space, the
+// form it is echoed and looked up in.
+func compactID(raw json.RawMessage) string {
+	var compact bytes.Buffer
+	if json.Compact(&compact, raw) != nil || compact.Len() == 0 {
+		return string(bytes.TrimSpace(raw))
+	}
+	return compact.String()
+}
