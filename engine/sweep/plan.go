@@ -109,6 +109,11 @@ type Plan struct {
 	// Bounds, one per axis, limit the refinement; nil means the range of
 	// each axis's values.
 	Bounds []Bound
+	// Constraints bound metrics during refinement: it starts from the best
+	// step that meets them all and minimises (or maximises) the objective
+	// over the points that do (see Refinement.Active). The evaluator must
+	// report each constraint's metric.
+	Constraints []Constraint
 }
 
 // StepCount returns the number of steps in the whole sweep (all shards).
@@ -164,6 +169,9 @@ func (p *Plan) Validate() error {
 	}
 	if p.Objective != "" && p.Shard.Count > 1 {
 		return &PlanError{Path: "/objective", Message: "refinement needs the whole sweep: merge the shards, then refine"}
+	}
+	if err := validateConstraints(p.Constraints); err != nil {
+		return err
 	}
 	if p.Bounds != nil {
 		if len(p.Bounds) != len(p.Axes) {

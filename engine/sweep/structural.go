@@ -20,7 +20,8 @@ const (
 	MetricMaxUtilisation  = "max_utilisation"  // Solution.MaxUtilisation (dimensionless)
 )
 
-var knownMetrics = []string{MetricLoadPath, MetricVolume, MetricMass, MetricCarbon, MetricMaxDisplacement, MetricMaxUtilisation}
+var knownMetrics = []string{MetricLoadPath, MetricVolume, MetricMass, MetricCarbon, MetricMaxDisplacement, MetricMaxUtilisation,
+	MetricCriticalLoadFactor, MetricFirstFrequency}
 
 // Solution is what a structural solver reports to ModelEvaluator for one
 // set of parameter values.
@@ -54,6 +55,13 @@ type Solver func(ctx context.Context, m *model.Model) (*Solution, error)
 // of kind MissingData for each material without a carbon factor. It panics
 // if m or solve is nil.
 func ModelEvaluator(m *model.Model, names, metrics []string, solve Solver, opt loadpath.Options) (Evaluator, error) {
+	return ModelEvaluatorModal(m, names, metrics, solve, opt, Modal{})
+}
+
+// ModelEvaluatorModal is ModelEvaluator with the modal metrics
+// (critical_load_factor, first_frequency: package modes) configured by
+// modal.
+func ModelEvaluatorModal(m *model.Model, names, metrics []string, solve Solver, opt loadpath.Options, modal Modal) (Evaluator, error) {
 	if m == nil || solve == nil {
 		panic("sweep: nil model or solver")
 	}
@@ -128,6 +136,9 @@ func ModelEvaluator(m *model.Model, names, metrics []string, solve Solver, opt l
 		}
 		set(out, want, MetricMaxDisplacement, sol.MaxDisplacement)
 		set(out, want, MetricMaxUtilisation, sol.MaxUtilisation)
+		if err := modalMetrics(ctx, mm, want, modal, out); err != nil {
+			return nil, err
+		}
 		return out, nil
 	}, nil
 }
