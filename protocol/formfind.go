@@ -105,6 +105,12 @@ type FindFormResult struct {
 	// ModelCase is the id of the load case of model that carries exactly
 	// the loads the form balances.
 	ModelCase string `json:"model_case"`
+	// RiseParameter, when through was given and the loads do not follow
+	// the form, names the parameter added to model: the through node's
+	// height (along gravity), set to the height found, in which the free
+	// nodes' coordinates are written, so that sweep-parameter over it
+	// studies the family of funicular forms through other heights.
+	RiseParameter string `json:"rise_parameter,omitempty"`
 	// Sized counts the members of model given a section sized from their
 	// force (stress only; buckling not checked).
 	Sized int `json:"sized"`

@@ -23,6 +23,15 @@ type Ready struct {
 	Case string
 	// Sized counts the members given a section sized from their force.
 	Sized int
+	// Parameter names the parameter added to Spec when the form was found
+	// through a point with loads that do not follow it: the height (along
+	// gravity) of the through node, whose value is the height found. The
+	// free nodes' coordinates are then expressions in it that give, for
+	// every value, the form the force densities scaled to pass through that
+	// height would take (linear in it: Schek's solution for force densities
+	// q/t is h + t·l), so that a sweep over it studies the rise. "" when
+	// none was added.
+	Parameter string
 	// Warnings say which members were not sized and what sizing left
 	// unchecked.
 	Warnings []fault.Problem
@@ -50,9 +59,53 @@ func (r *Result) Ready(spec *model.Spec) *Ready {
 		}
 		s.Nodes[i].At = at
 	}
+	r.riseParameter(out, spec)
 	r.size(out, spec)
 	r.foundCase(out, spec)
 	return out
+}
+
+// riseParameter writes the free nodes' coordinates as expressions in a
+// parameter for the through node's height (see Ready.Parameter).
+func (r *Result) riseParameter(out *Ready, spec *model.Spec) {
+	fam := r.family
+	if fam == nil {
+		return
+	}
+	d := r.Dim
+	g := d - 1 // the gravity axis
+	lc := fam.l[g][fam.free[fam.node]]
+	if lc == 0 {
+		return
+	}
+	hc := fam.h[g][fam.free[fam.node]]
+	name := "rise"
+	taken := func(n string) bool {
+		return slices.ContainsFunc(spec.Parameters, func(p model.ParameterSpec) bool { return p.Name == n })
+	}
+	for k := 2; taken(name); k++ {
+		name = "rise" + strconv.Itoa(k)
+	}
+	out.Parameter = name
+	out.Spec.Parameters = append(slices.Clone(spec.Parameters), model.ParameterSpec{Name: name, Value: r.Coords[fam.node*d+g]})
+	for i := range out.Spec.Nodes {
+		fi := fam.free[i]
+		if fi < 0 {
+			continue
+		}
+		for k := 0; k < d; k++ {
+			// x = h + t·l with t = (rise − h_c)/l_c.
+			c := fam.l[k][fi] / lc
+			if c == 0 {
+				continue
+			}
+			src := strconv.FormatFloat(c, 'g', -1, 64) + "*" + name
+			if base := fam.h[k][fi] - hc*c; base != 0 {
+				src = strconv.FormatFloat(base, 'g', -1, 64) + " + " + src
+			}
+			out.Spec.Nodes[i].At[k] = model.Expr(src)
+		}
+	}
 }
 
 // size gives each member that can be sized a section of its own.

@@ -179,3 +179,35 @@ func TestReadySizing(t *testing.T) {
 		t.Errorf("arch without a compression limit: sized %d, warnings %v", arch.Sized, arch.Warnings)
 	}
 }
+
+// TestRiseParameter checks the parameter the ready model of a thrust line
+// carries: set to another height, it must give the form that Find puts
+// through that height (Schek's solution for force densities q/t is
+// h + t·l, linear in t), here against the closed form of TestThroughCrown,
+// yᵢ = 4f·i(n − i)/n².
+func TestRiseParameter(t *testing.T) {
+	const n, d, P = 6, 1.0, 2.0
+	b := chain(n, d, P)
+	m := b.compile(t)
+	r := find(t, m, Problem{ForceDensity: one(-1), Through: &Through{Node: "c3", At: []float64{3, 1.5}}})
+	ready := r.Ready(b.s)
+	if ready.Parameter != "rise" {
+		t.Fatalf("parameter %q", ready.Parameter)
+	}
+	rm, err := model.Compile(ready.Spec)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, f := range []float64{1.5, 0.7, 4} {
+		moved, err := rm.WithParameters(map[string]float64{"rise": f})
+		if err != nil {
+			t.Fatal(err)
+		}
+		for i := 0; i <= n; i++ {
+			want := 4 * f * float64(i*(n-i)) / (n * n)
+			if got := moved.Coords[2*i+1]; !scalar.EqualWithinAbsOrRel(got, want, 1e-13, 1e-13) || !scalar.EqualWithinAbsOrRel(moved.Coords[2*i], float64(i)*d, 1e-13, 1e-13) {
+				t.Errorf("rise %g: node %d at (%g, %g), want (%g, %g)", f, i, moved.Coords[2*i], got, float64(i)*d, want)
+			}
+		}
+	}
+}

@@ -65,7 +65,18 @@ type Result struct {
 	// FreeNodes and Nonzeros size the factorised matrix D.
 	FreeNodes, Nonzeros int
 
-	m *model.Model
+	m      *model.Model
+	family *family
+}
+
+// family is the one-parameter family of forms a through constraint
+// chooses from when the loads do not follow the form: free node i's
+// coordinate along axis k is h[k][f] + t·l[k][f] (f its free index) for
+// force densities q/t.
+type family struct {
+	node int
+	free []int
+	h, l [][]float64
 }
 
 // TargetResult is one target with the value reached.
@@ -101,6 +112,9 @@ func (f *finder) result(iterations int, change float64) *Result {
 			s += dx * dx
 		}
 		r.ThroughMisfit = math.Sqrt(s)
+		if !f.load.follows {
+			r.family = &family{node: f.through.node, free: f.nw.free, h: f.fixedRHS, l: f.rhs}
+		}
 	}
 	for e := range r.Force {
 		r.Force[e] = r.ForceDensity[e] * r.Length[e]

@@ -59,7 +59,7 @@ func formResult(res *formfind.Result, ready *formfind.Ready) *protocol.FindFormR
 		ForceDensities: res.ForceDensity, Forces: res.Force, Lengths: res.Length, Reactions: []protocol.FormReaction{},
 		Network: "tension", Residual: res.Residual, Scale: res.Scale, ThroughMisfit: res.ThroughMisfit,
 		Targets: []protocol.FormTargetResult{}, Iterations: res.Iterations, Change: res.Change, Converged: res.Converged,
-		Model: *WireModel(ready.Spec), ModelCase: ready.Case, Sized: ready.Sized, Warnings: []protocol.Problem{},
+		Model: *WireModel(ready.Spec), ModelCase: ready.Case, RiseParameter: ready.Parameter, Sized: ready.Sized, Warnings: []protocol.Problem{},
 		Stats: protocol.FormStats{FreeNodes: res.FreeNodes, Nonzeros: res.Nonzeros}, Caution: Caution}
 	if res.Sign < 0 {
 		out.Network = "compression"
