@@ -1,9 +1,13 @@
 package main
 
 import (
+	"fmt"
 	"strings"
 	"testing"
 	"time"
+
+	"gusset/engine/model"
+	"gusset/engine/model/modelgen"
 )
 
 // triangleWith returns a solve request for a two-bar triangle (spans 8,
@@ -54,6 +58,43 @@ func TestLongExpressionsThroughProcess(t *testing.T) {
 			if limit := int64(32<<20) + 8*int64(len(line)); peak > limit {
 				t.Errorf("peak resident memory %d MB for a %d-byte line, want at most %d MB", peak>>20, len(line), limit>>20)
 			}
+		})
+	}
+}
+
+// TestStiffnessRatioThroughProcess sends modelgen's determinate 20-panel
+// Pratt truss with member areas alternating by 1e12 and by 1e13: the first
+// once answered with forces 3 % off and no word of it, now with warnings
+// naming the ratio and the residual; the second was refused as a mechanism
+// (1002) though its geometry has none, and is now an invalid model (1000,
+// README's error table) pointing at the stiffest member's section.
+func TestStiffnessRatioThroughProcess(t *testing.T) {
+	bin := buildGusset(t)
+	for _, tc := range []struct {
+		ratio float64
+		code  int
+		path  string
+	}{
+		{1e12, 0, ""},
+		{1e13, 1000, "/params/model/sections/0/area"},
+	} {
+		t.Run(fmt.Sprint(tc.ratio), func(t *testing.T) {
+			s := modelgen.Pratt(20, 40, 4, 10)
+			soft := modelgen.Tube()
+			soft.ID = "soft"
+			soft.Area = model.Num(soft.Area.Num / tc.ratio)
+			s.Sections = append(s.Sections, soft)
+			for i := range s.Members {
+				if i%2 == 1 {
+					s.Members[i].Section = "soft"
+				}
+			}
+			line := request("ratio", "solve", map[string]any{"model": wireModel(s)})
+			want := badInputWant{Code: tc.code}
+			if tc.path != "" {
+				want.Path = &tc.path
+			}
+			checkBadInput(t, bin, want, line)
 		})
 	}
 }

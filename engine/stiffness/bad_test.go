@@ -255,7 +255,7 @@ func TestStiffnessRatio(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if len(res.Warnings) != 2 || !strings.Contains(res.Warnings[0], "ratio") || !strings.Contains(res.Warnings[1], "ill-conditioned") {
+	if len(res.Warnings) < 2 || !strings.Contains(res.Warnings[0], "ratio") || !strings.Contains(res.Warnings[1], "ill-conditioned") {
 		t.Errorf("warnings %q, want a stiffness ratio and a condition warning", res.Warnings)
 	}
 	near(t, "N_AC", res.Cases[0].AxialForce[0], -4.0, 1e-3)

@@ -138,6 +138,13 @@ func solve(ctx context.Context, m *model.Model, opt Options, an *Analysis) (*Res
 		if err := analyse(); err != nil {
 			return nil, err
 		}
+		if opt.PivotTolerance != acceptAnyPivot {
+			if stable, err := geometryStable(ctx, m, nb, opt); err != nil {
+				return nil, err
+			} else if stable {
+				return solveIllConditioned(ctx, m, opt, an)
+			}
+		}
 		if held, ok := solveHeld(ctx, m, nb, deficient.equations, opt, stability, res.Warnings); ok {
 			return held, nil
 		}
@@ -240,6 +247,7 @@ func solve(ctx context.Context, m *model.Model, opt Options, an *Analysis) (*Res
 	if an != nil {
 		an.release(sys)
 	}
+	res.Warnings = append(res.Warnings, residualWarnings(res)...)
 	return res, nil
 }
 
@@ -373,7 +381,7 @@ func stiffnessRatio(m *model.Model) []string {
 	if lo < 0 || !(kLo > 0) || kHi/kLo < 1e12 {
 		return nil
 	}
-	return []string{fmt.Sprintf("member stiffnesses EA/L span a ratio of %.2g (member %q %.3g, member %q %.3g): results for the softer members may be inaccurate",
+	return []string{fmt.Sprintf("member stiffnesses EA/L span a ratio of %.2g (member %q %.3g, member %q %.3g): member forces may be inaccurate, the stiffer members' most (see the equilibrium residual)",
 		kHi/kLo, m.Members[hi].ID, kHi, m.Members[lo].ID, kLo)}
 }
 
