@@ -56,9 +56,10 @@ func memberBetween(t *testing.T, m *model.Model, x1, y1, x2, y2 float64) int {
 // TestStiffnessRatioIsNotAMechanism checks that a statically determinate
 // truss whose member stiffnesses alternate by a large ratio is never
 // refused as a mechanism: mechanisms are a property of the geometry and
-// supports (the rank of the equilibrium matrix, Pellegrino & Calladine,
-// "Matrix analysis of statically and kinematically indeterminate
-// frameworks", Int. J. Solids Struct. 22(4), 1986), not of the stiffnesses.
+// supports (the rank of the equilibrium matrix, which holds no stiffness:
+// J. C. Maxwell, "On the calculation of the equilibrium and stiffness of
+// frames", Phil. Mag. 27, 1864, and the rule's extended form with states of
+// self-stress and mechanisms), not of the stiffnesses.
 // A determinate truss's forces follow from equilibrium alone, so they are
 // the hand values of the method of sections: reactions 19·10/2 = 95 kN;
 // the top chord beside mid-span carries −M(20)/4 = −(95·20 −
