@@ -13,6 +13,10 @@ type LoadPathResult struct {
 	Totals QuantityTotals `json:"totals"`
 	// Sized is true when sizing was asked for.
 	Sized bool `json:"sized"`
+	// Warnings say what the load path leaves out: for members in bending,
+	// the share of the strain energy held in bending and torsion, and the
+	// largest bending utilisation.
+	Warnings []string `json:"warnings,omitempty"`
 	// Caution: results are for preliminary design.
 	Caution string `json:"caution"`
 }

@@ -69,8 +69,9 @@ type Material struct {
 type Section struct {
 	// ID names the section; unique among sections.
 	ID string `json:"id" jsonschema:"minLength=1"`
-	// Area is the cross-section area (length²), positive.
-	Area Number `json:"area"`
+	// Area is the cross-section area (length²), positive; required unless
+	// a shape gives it.
+	Area *Number `json:"area,omitempty"`
 	// SecondMoment is the second moment of area about the local z axis
 	// (length⁴): in-plane bending in 2D. Needed by beams and for Euler
 	// buckling.
@@ -79,8 +80,48 @@ type Section struct {
 	// beams); default second_moment.
 	SecondMomentY *Number `json:"second_moment_y,omitempty"`
 	// TorsionConstant is St Venant's torsion constant J (3D beams);
-	// default 2 × second_moment (a round section).
+	// default the shape's, else 2 × second_moment (a round section).
 	TorsionConstant *Number `json:"torsion_constant,omitempty"`
+	// SectionModulus is the elastic section modulus about local z
+	// (length³) for the bending check; default the shape's.
+	SectionModulus *Number `json:"section_modulus,omitempty"`
+	// SectionModulusY is the elastic section modulus about local y (3D
+	// beams); default the shape's.
+	SectionModulusY *Number `json:"section_modulus_y,omitempty"`
+	// Shape gives the section by its shape and dimensions; every property
+	// above that is not given follows from it (given values win; one more
+	// than 10 % from the shape's is an error).
+	Shape *SectionShape `json:"shape,omitempty"`
+}
+
+// SectionShape is a cross-section by shape, its dimensions in the model's
+// length unit. Depth runs along the member's local y axis and width along
+// local z, so second_moment is the major-axis value of an I section. The
+// properties follow EN 10365 (I and H sections, root fillets included in
+// area and second moments, ignored in the torsion constant) and EN
+// 10210-2 (hollow sections, hot-finished corner radii 1.5t outside and t
+// inside).
+type SectionShape struct {
+	// Kind is "i" (I or H section: depth, width, web_thickness,
+	// flange_thickness, root_radius), "rhs" (rectangular or square hollow:
+	// depth, width, thickness), "chs" (circular hollow: diameter,
+	// thickness), "rectangle" (solid: depth, width) or "round" (solid:
+	// diameter).
+	Kind string `json:"kind" jsonschema:"enum=i,enum=rhs,enum=chs,enum=rectangle,enum=round"`
+	// Depth is the overall depth along local y.
+	Depth float64 `json:"depth,omitempty" jsonschema:"minimum=0"`
+	// Width is the overall width along local z.
+	Width float64 `json:"width,omitempty" jsonschema:"minimum=0"`
+	// WebThickness is an I section's web thickness.
+	WebThickness float64 `json:"web_thickness,omitempty" jsonschema:"minimum=0"`
+	// FlangeThickness is an I section's flange thickness.
+	FlangeThickness float64 `json:"flange_thickness,omitempty" jsonschema:"minimum=0"`
+	// RootRadius is an I section's root fillet radius; default 0.
+	RootRadius float64 `json:"root_radius,omitempty" jsonschema:"minimum=0"`
+	// Thickness is a hollow section's wall thickness.
+	Thickness float64 `json:"thickness,omitempty" jsonschema:"minimum=0"`
+	// Diameter is a round or circular hollow section's outer diameter.
+	Diameter float64 `json:"diameter,omitempty" jsonschema:"minimum=0"`
 }
 
 // Node is a joint.
@@ -116,6 +157,10 @@ type Member struct {
 	// BucklingFactor is the effective-length factor k for Euler buckling,
 	// π²EI/(kL)²; default 1.
 	BucklingFactor *float64 `json:"buckling_factor,omitempty"`
+	// BucklingCurve is the EN 1993-1-1 flexural buckling curve of the
+	// compression check: "a0", "a", "b", "c" or "d" (Table 6.1); default
+	// "d", the lowest, with a note in the result's unchecked list.
+	BucklingCurve string `json:"buckling_curve,omitempty" jsonschema:"enum=a0,enum=a,enum=b,enum=c,enum=d"`
 }
 
 // Support fixes freedoms of a node, with optional springs and prescribed

@@ -10,8 +10,14 @@ type SolveResult struct {
 	// form, b − d·j + k = s − m for pin-jointed models.
 	Stability Stability `json:"stability"`
 	// Warnings are sentences about ill-conditioning, extreme stiffness
-	// ratios or disconnected parts.
+	// ratios or disconnected parts, and what the member checks leave out.
 	Warnings []string `json:"warnings"`
+	// Unchecked lists the member checks that could not be made (a missing
+	// limit, section modulus or second moment; a bar loaded across its
+	// length) or were made on an assumption (buckling curve d), each with
+	// the pointer of the data that would allow it. A member with a check
+	// missing has a null utilisation, never 0.
+	Unchecked []Problem `json:"unchecked"`
 	// Stats describes the system solved.
 	Stats SolveStats `json:"stats"`
 	// Caution: results are for preliminary design.
@@ -42,15 +48,30 @@ type CaseResult struct {
 	Reactions []Reaction `json:"reactions"`
 	// Stresses holds per member the axial stress N/A.
 	Stresses []float64 `json:"stresses"`
-	// Utilisation holds per member N/(A·tension_limit) in tension, or
-	// |N|/min(A·compression_limit, π²EI/(kL)²) in compression; null when
-	// the material gives no limit.
+	// Utilisation holds per member the largest of its checks along its
+	// length (see members): N/(A·tension_limit) in tension,
+	// |N|/(χ·A·compression_limit) in compression with χ from the EN
+	// 1993-1-1 buckling curve, and for beams |M|/(W·f) and the linear
+	// interaction; null when a check the member needs could not be made
+	// (see unchecked).
 	Utilisation []*float64 `json:"utilisation"`
-	// MaxDisplacement is the largest translation magnitude and its node.
+	// MaxDisplacement is the largest translation magnitude anywhere: at a
+	// node, or inside a member (at is then the member's id and distance
+	// is set).
 	MaxDisplacement Extreme `json:"max_displacement"`
-	// MaxUtilisation is the largest utilisation and its member (value 0
-	// and no member when no limit applies).
+	// MaxMoment is the bending moment of largest magnitude in any beam
+	// (signed; force·length), its member and distance; value 0 and no
+	// member when the model has no beams.
+	MaxMoment Extreme `json:"max_moment"`
+	// Members holds per member (aligned with model.members) its results
+	// along its length.
+	Members []MemberResult `json:"members"`
+	// MaxUtilisation is the largest utilisation and its member, over the
+	// members whose checks were all made (value 0 and no member when
+	// none); unchecked_members counts the others.
 	MaxUtilisation Extreme `json:"max_utilisation"`
+	// UncheckedMembers counts the members with a null utilisation.
+	UncheckedMembers int `json:"unchecked_members"`
 	// Residual is the scaled equilibrium residual ‖K·u − f‖/‖f‖.
 	Residual float64 `json:"residual"`
 	// BalanceError is ‖Σloads + Σreactions‖ relative to the larger of the
@@ -74,6 +95,9 @@ type Extreme struct {
 	Value float64 `json:"value"`
 	// At is the node or member id, empty when there is none.
 	At string `json:"at"`
+	// Distance is, for a value inside a member, its distance from the
+	// member's first end (length units).
+	Distance *float64 `json:"distance,omitempty"`
 }
 
 // Stability is the counting report of the equilibrium matrix.

@@ -48,7 +48,8 @@ const (
 //
 // Axial: N/(A·ft) in tension; |N|/(χ·A·fc) in compression with χ from the
 // member's buckling curve at λ̄ = √(A·fc/Ncr), Ncr = π²EI/(kL)² with the
-// lesser second moment and the buckling length factor k. Bending:
+// lesser second moment (about local y too in 2D when the section gives
+// it) and the buckling length factor k. Bending:
 // |M|/(W·f) about each axis with f the lesser of the limits given.
 // Combined: the linear interaction N/N_Rd + |My|/My,Rd + |Mz|/Mz,Rd with
 // each term at its own largest value along the member, which is never
@@ -130,8 +131,11 @@ func axialCapacities(m *model.Model, e int, r *MemberResult) (tension, compressi
 		return tension, 0
 	}
 	squash := sec.Area * mat.CompressionLimit
+	// The lesser second moment: in 2D too when the section gives one about
+	// local y (a shape does), since a plane model's column still buckles
+	// out of its plane.
 	i := sec.SecondMoment
-	if m.Dim == 3 && sec.SecondMomentY > 0 && (i == 0 || sec.SecondMomentY < i) {
+	if sec.SecondMomentY > 0 && (i == 0 || sec.SecondMomentY < i) {
 		i = sec.SecondMomentY
 	}
 	if !(i > 0) {

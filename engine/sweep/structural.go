@@ -30,8 +30,8 @@ type Solution struct {
 	// member loads lumped to the nodes, plus reactions) of each case or
 	// combination of interest, as loadpath.Compute takes them.
 	Cases []loadpath.Case
-	// MaxDisplacement is the largest nodal translation magnitude over the
-	// cases, in the model's length unit.
+	// MaxDisplacement is the largest translation magnitude over the cases,
+	// at the nodes and inside the members, in the model's length unit.
 	MaxDisplacement float64
 	// MaxUtilisation is the largest member utilisation over the cases.
 	MaxUtilisation float64

@@ -33,7 +33,7 @@ func specOf(w *protocol.Model) *model.Spec {
 	}
 	s.Sections = make([]model.SectionSpec, len(w.Sections))
 	for i, c := range w.Sections {
-		s.Sections[i] = model.SectionSpec{ID: c.ID, Area: value(c.Area), SecondMoment: optional(c.SecondMoment),
+		s.Sections[i] = model.SectionSpec{ID: c.ID, Area: areaOf(c.Area), Shape: shapeOf(c.Shape), SectionModulus: optional(c.SectionModulus), SectionModulusY: optional(c.SectionModulusY), SecondMoment: optional(c.SecondMoment),
 			SecondMomentY: optional(c.SecondMomentY), TorsionConstant: optional(c.TorsionConstant)}
 	}
 	s.Nodes = make([]model.NodeSpec, len(w.Nodes))
@@ -42,7 +42,7 @@ func specOf(w *protocol.Model) *model.Spec {
 	}
 	s.Members = make([]model.MemberSpec, len(w.Members))
 	for i, m := range w.Members {
-		s.Members[i] = model.MemberSpec{ID: m.ID, Ends: memberEnds(m.Ends), Material: m.Material, Section: m.Section,
+		s.Members[i] = model.MemberSpec{ID: m.ID, BucklingCurve: m.BucklingCurve, Ends: memberEnds(m.Ends), Material: m.Material, Section: m.Section,
 			Type: m.Type, Orientation: m.Orientation, BucklingFactor: m.BucklingFactor}
 	}
 	s.Supports = make([]model.SupportSpec, len(w.Supports))

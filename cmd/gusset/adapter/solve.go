@@ -4,7 +4,6 @@ import (
 	"context"
 	"errors"
 	"fmt"
-	"math"
 
 	"gusset/engine/fault"
 	"gusset/engine/model"
@@ -15,7 +14,7 @@ import (
 
 // solve runs the stiffness analysis of the request's model.
 func (a *Adapter) solve(ctx context.Context, r *request[protocol.SolveParams]) (*protocol.SolveResult, error) {
-	res, err := a.analyse(ctx, r.Model, r.Params.Cases, r.Stream)
+	res, err := a.analyseWith(ctx, r.Model, stiffness.Options{Cases: r.Params.Cases, Reporter: r.Stream, Stations: stationOption(r.Params.Stations)})
 	if err != nil {
 		return nil, err
 	}
@@ -24,10 +23,15 @@ func (a *Adapter) solve(ctx context.Context, r *request[protocol.SolveParams]) (
 
 // analyse runs the stiffness solve and locates its errors in the request.
 func (a *Adapter) analyse(ctx context.Context, m *model.Model, cases []string, st jsonrpc.Stream) (*stiffness.Result, error) {
+	return a.analyseWith(ctx, m, stiffness.Options{Cases: cases, Reporter: st})
+}
+
+// analyseWith is analyse with the solver's options.
+func (a *Adapter) analyseWith(ctx context.Context, m *model.Model, opt stiffness.Options) (*stiffness.Result, error) {
 	// Workers 0 lets one large solve use every core; results are
 	// bit-identical for any number of workers, and with several requests in
 	// flight the Go scheduler shares the cores among their goroutines.
-	r, err := stiffness.Solve(ctx, m, stiffness.Options{Cases: cases, Reporter: st})
+	r, err := stiffness.Solve(ctx, m, opt)
 	if err == nil {
 		return r, nil
 	}
@@ -90,6 +94,7 @@ func solveResult(m *model.Model, r *stiffness.Result) *protocol.SolveResult {
 	if out.Warnings == nil {
 		out.Warnings = []string{}
 	}
+	out.Unchecked = uncheckedWire(r.Unchecked)
 	if s := r.Stability; s != nil {
 		out.Stability = protocol.Stability{Joints: s.Joints, Bars: s.Bars, Beams: s.Beams, Constraints: s.Constraints,
 			MaxwellNumber: s.MaxwellNumber, Computed: s.Computed, Rank: s.Rank, SelfStress: s.SelfStress, Mechanisms: s.Mechanisms}
@@ -106,25 +111,7 @@ func solveResult(m *model.Model, r *stiffness.Result) *protocol.SolveResult {
 		for j, re := range c.Reactions {
 			cr.Reactions[j] = protocol.Reaction{Node: m.NodeIDs[m.Supports[j].Node], Force: re.Force, Moment: re.Moment}
 		}
-		cr.Utilisation = make([]*float64, len(c.Utilisation))
-		for j, u := range c.Utilisation {
-			if u >= 0 {
-				v := u
-				cr.Utilisation[j] = &v
-				if u > cr.MaxUtilisation.Value || cr.MaxUtilisation.At == "" {
-					cr.MaxUtilisation = protocol.Extreme{Value: u, At: m.Members[j].ID}
-				}
-			}
-		}
-		for j, d := range c.Displacements {
-			var sum float64
-			for _, x := range d {
-				sum += x * x
-			}
-			if n := math.Sqrt(sum); n > cr.MaxDisplacement.Value || j == 0 {
-				cr.MaxDisplacement = protocol.Extreme{Value: n, At: m.NodeIDs[j]}
-			}
-		}
+		caseSummaries(m, &r.Cases[i], &cr)
 		out.Cases[i] = cr
 	}
 	return out

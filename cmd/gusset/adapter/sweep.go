@@ -60,7 +60,7 @@ func (a *Adapter) sweep(ctx context.Context, r *request[protocol.SweepParams]) (
 	}
 	// The steps change numbers only, never the topology, so the numbering,
 	// the stiffness pattern and its ordering are worked out once.
-	analysis := stiffness.NewAnalysis(m, stiffness.Options{Cases: p.Cases, Workers: 1, StabilityLimit: -1, SkipCondition: true})
+	analysis := stiffness.NewAnalysis(m, stiffness.Options{Cases: p.Cases, Workers: 1, StabilityLimit: -1, SkipCondition: true, Stations: -1})
 	solver := func(ctx context.Context, mm *model.Model) (*sweep.Solution, error) {
 		r, err := analysis.Solve(ctx, mm)
 		if err != nil {
@@ -68,13 +68,8 @@ func (a *Adapter) sweep(ctx context.Context, r *request[protocol.SweepParams]) (
 		}
 		sol := &sweep.Solution{Cases: loadPathCases(r)}
 		for _, c := range r.Cases {
-			for _, d := range c.Displacements {
-				var sum float64
-				for _, x := range d {
-					sum += x * x
-				}
-				sol.MaxDisplacement = math.Max(sol.MaxDisplacement, math.Sqrt(sum))
-			}
+			// The largest displacement anywhere, member interiors included.
+			sol.MaxDisplacement = math.Max(sol.MaxDisplacement, c.MaxDisplacement.Value)
 			for _, u := range c.Utilisation {
 				sol.MaxUtilisation = math.Max(sol.MaxUtilisation, u)
 			}

@@ -45,7 +45,7 @@ func WireModel(s *model.Spec) *protocol.Model {
 			MassDensity: opt(m.MassDensity)})
 	}
 	for _, c := range s.Sections {
-		w.Sections = append(w.Sections, protocol.Section{ID: c.ID, Area: num(c.Area), SecondMoment: opt(c.SecondMoment),
+		w.Sections = append(w.Sections, protocol.Section{ID: c.ID, Area: wireArea(c.Area, c.Shape), Shape: wireShape(c.Shape), SectionModulus: opt(c.SectionModulus), SectionModulusY: opt(c.SectionModulusY), SecondMoment: opt(c.SecondMoment),
 			SecondMomentY: opt(c.SecondMomentY), TorsionConstant: opt(c.TorsionConstant)})
 	}
 	for _, n := range s.Nodes {
@@ -53,7 +53,7 @@ func WireModel(s *model.Spec) *protocol.Model {
 	}
 	for _, m := range s.Members {
 		w.Members = append(w.Members, protocol.Member{ID: m.ID, Ends: []string{m.Ends[0], m.Ends[1]}, Material: m.Material, Section: m.Section,
-			Type: m.Type, Orientation: m.Orientation, BucklingFactor: m.BucklingFactor})
+			Type: m.Type, Orientation: m.Orientation, BucklingFactor: m.BucklingFactor, BucklingCurve: m.BucklingCurve})
 	}
 	for _, p := range s.Supports {
 		w.Supports = append(w.Supports, protocol.Support{Node: p.Node, Fix: p.Fix, Springs: p.Springs, Displacement: p.Displacement})
