@@ -10,11 +10,6 @@ type SolveParams struct {
 	// Cases lists the load cases and combinations to report, by id;
 	// default every case and then every combination.
 	Cases []string `json:"cases,omitempty"`
-	// Stations is the number of evenly spaced stations (both ends
-	// included) along each beam at which the internal forces and
-	// displacements are reported; default 11, 0 for none (the exact
-	// extremes along each member are reported whatever the stations).
-	Stations *int `json:"stations,omitempty" jsonschema:"minimum=0,maximum=1001"`
 	// Picture asks for an SVG drawing of the first reported case in the
 	// result: the deflected shape over the undeformed model, members
 	// styled by the sense of their axial force; a 3D model in an
@@ -195,7 +190,9 @@ type LayoutParams struct {
 	// nodes stay among the candidates.
 	JointCost float64 `json:"joint_cost,omitempty" jsonschema:"minimum=0"`
 	// ElasticModulus is the Young's modulus put in the returned model, so
-	// that solve can analyse it; default 2.1e8 (steel in kN and m).
+	// that solve can analyse it, in the request's units (force/length²);
+	// default steel's 210 GPa (EN 1993-1-1) in those units: 2.1e8 in kN
+	// and m, 210 000 in N and mm, about 30 458 in kip and in.
 	ElasticModulus float64 `json:"elastic_modulus,omitempty" jsonschema:"exclusiveMinimum=0"`
 	// Mode is "alternatives" (the default: the layout carries each case on
 	// its own, by the multiple-load-case formulation), "together" (the

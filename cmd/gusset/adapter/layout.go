@@ -12,10 +12,6 @@ import (
 	"gusset/protocol"
 )
 
-// defaultModulus is steel's Young's modulus in kN/m², the default for the
-// returned model.
-const defaultModulus = 2.1e8
-
 // optimiseLayout finds the least-volume layout the request describes.
 func (a *Adapter) optimiseLayout(ctx context.Context, r *request[protocol.LayoutParams]) (*protocol.LayoutResult, error) {
 	p, st := r.Params, r.Stream
@@ -29,7 +25,13 @@ func (a *Adapter) optimiseLayout(ctx context.Context, r *request[protocol.Layout
 	}
 	modulus := p.ElasticModulus
 	if modulus == 0 {
-		modulus = defaultModulus
+		// Steel's, in the request's units (the schema allows only units
+		// StressFromPascals knows).
+		var units model.UnitsSpec
+		if p.Units != nil {
+			units = model.UnitsSpec{Length: p.Units.Length, Force: p.Units.Force}
+		}
+		modulus, _ = model.StressFromPascals(units, model.SteelElasticModulus)
 	}
 	out := layoutResult(l, p.Units, modulus)
 	if p.Picture {

@@ -5,9 +5,9 @@ import (
 	"errors"
 	"fmt"
 
+	"gusset/engine/fault"
 	"gusset/engine/loadpath"
 	"gusset/engine/model"
-	"gusset/engine/stiffness"
 	"gusset/protocol"
 )
 
@@ -15,9 +15,8 @@ import (
 func (a *Adapter) loadPath(ctx context.Context, r *request[protocol.LoadPathParams]) (*protocol.LoadPathResult, error) {
 	p, m, st := r.Params, r.Model, r.Stream
 	var cases []loadpath.Case
-	var caveats []string
 	if p.Forces != nil {
-		c, err := givenForcesCase(m, p.Forces, p.Cases)
+		c, err := givenForces(m, p.Forces, p.Cases)
 		if err != nil {
 			return nil, err
 		}
@@ -27,8 +26,7 @@ func (a *Adapter) loadPath(ctx context.Context, r *request[protocol.LoadPathPara
 		if err != nil {
 			return nil, err
 		}
-		cases = loadPathCases(r)
-		caveats = loadPathCaveats(m, r)
+		cases = loadpath.Solved(r)
 	}
 	opt, err := sizingOptions(p.Sizing, "/params/sizing")
 	if err != nil {
@@ -39,101 +37,25 @@ func (a *Adapter) loadPath(ctx context.Context, r *request[protocol.LoadPathPara
 	if err != nil {
 		return nil, loadPathError(err)
 	}
-	out := loadPathResult(m, res)
-	out.Warnings = caveats
-	return out, nil
+	return loadPathResult(m, res), nil
 }
 
-// loadPathCases turns a stiffness result into load-path cases: the mean
-// axial force of each member and, as external forces, the applied loads
-// (member loads and self-weight carried to the nodes) plus the reactions,
-// both computed by the solver independently of the member forces, so that
-// Maxwell's residual measures equilibrium.
-//
-// The mean (N₁ + N₂)/2 of the end values is the force that balances the
-// loads as carried to the nodes: a bar's own weight has a component along
-// an inclined bar, so its axial force varies along it and the end values
-// differ by that component; the elastic force EA·δ/L between the nodes is
-// their mean. For members without loads along them N₁ = N₂.
-func loadPathCases(r *stiffness.Result) []loadpath.Case {
-	cases := make([]loadpath.Case, len(r.Cases))
-	for i, c := range r.Cases {
-		axial := make([]float64, len(c.AxialForce))
-		for e, n := range c.AxialForce {
-			p := c.EndForces[e]
-			axial[e] = n
-			if half := len(p) / 2; half > 0 {
-				axial[e] = (-p[0] + p[half]) / 2
-			}
-		}
-		cases[i] = loadpath.Case{ID: c.ID, AxialForce: axial, External: c.External}
-	}
-	return cases
-}
-
-// givenForcesCase builds the one case of given member forces: at unsupported
-// nodes the external force is the applied nodal load of the named case (or
-// the first case; none when the model has no cases), and at supported nodes
-// it is whatever balances the members there (load and reaction together).
-// Maxwell's residual then measures the equilibrium of the free nodes.
-func givenForcesCase(m *model.Model, forces []float64, ids []string) (loadpath.Case, error) {
-	if len(forces) != len(m.Members) {
-		return loadpath.Case{}, protocol.NewError(protocol.CodeInvalidParams, "invalid params",
-			fmt.Sprintf("forces has %d entries but the model has %d members; give one axial force per member.", len(forces), len(m.Members)),
-			protocol.Problem{Path: "/params/forces", Message: fmt.Sprintf("want %d entries", len(m.Members))})
-	}
-	c := loadpath.Case{ID: "given", AxialForce: forces, External: make([][]float64, m.NodeCount())}
-	for i := range c.External {
-		c.External[i] = make([]float64, m.Dim)
-	}
-	caseIndex := -1
+// givenForces builds the case of given member forces
+// (loadpath.GivenForces) with the nodal loads of the load case ids[0]
+// names, or of the model's first case.
+func givenForces(m *model.Model, forces []float64, ids []string) (loadpath.Case, error) {
+	k := -1
 	if len(ids) > 0 {
-		caseIndex = m.CaseIndex(ids[0])
-		if caseIndex < 0 {
-			return c, protocol.NewError(1009, "unknown case", fmt.Sprintf("There is no load case %q.", ids[0]),
+		if k = m.CaseIndex(ids[0]); k < 0 {
+			return loadpath.Case{}, protocol.NewError(fault.UnknownCase.Code(), fault.UnknownCase.String(), fmt.Sprintf("There is no load case %q.", ids[0]),
 				protocol.Problem{Path: "/params/cases/0", Message: "no such load case"})
 		}
-		c.ID = ids[0]
 	} else if len(m.Cases) > 0 {
-		caseIndex = 0
-		c.ID = m.Cases[0].ID
+		k = 0
 	}
-	if caseIndex >= 0 {
-		for _, l := range m.Cases[caseIndex].Nodal {
-			for k := 0; k < m.Dim; k++ {
-				c.External[l.Node][k] += l.Force[k]
-			}
-		}
-	}
-	supported := make([]bool, m.NodeCount())
-	for _, s := range m.Supports {
-		supported[s.Node] = true
-	}
-	for e, mem := range m.Members {
-		a, b := m.Node(mem.Ends[0]), m.Node(mem.Ends[1])
-		length := m.Length(e)
-		for k := 0; k < m.Dim; k++ {
-			u := (b[k] - a[k]) / length
-			// A member in tension pulls each end towards the other; the
-			// external force at a supported node balances it.
-			if supported[mem.Ends[0]] {
-				c.External[mem.Ends[0]][k] -= forces[e] * u
-			}
-			if supported[mem.Ends[1]] {
-				c.External[mem.Ends[1]][k] += forces[e] * u
-			}
-		}
-	}
-	// At supported nodes the external force is the total that balances the
-	// members: replace the partial load added above.
-	if caseIndex >= 0 {
-		for _, l := range m.Cases[caseIndex].Nodal {
-			if supported[l.Node] {
-				for k := 0; k < m.Dim; k++ {
-					c.External[l.Node][k] -= l.Force[k]
-				}
-			}
-		}
+	c, err := loadpath.GivenForces(m, forces, k)
+	if err != nil {
+		return c, loadPathError(err)
 	}
 	return c, nil
 }

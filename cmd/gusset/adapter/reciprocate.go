@@ -6,6 +6,7 @@ import (
 	"fmt"
 
 	"gusset/engine/fault"
+	"gusset/engine/loadpath"
 	"gusset/engine/model"
 	"gusset/engine/reciprocal"
 	"gusset/engine/render"
@@ -66,7 +67,7 @@ func (a *Adapter) diagramInput(ctx context.Context, m *model.Model, p *protocol.
 		if p.Case != "" {
 			ids = []string{p.Case}
 		}
-		c, err := givenForcesCase(m, p.Forces, ids)
+		c, err := givenForces(m, p.Forces, ids)
 		if err != nil {
 			return reciprocal.Input{}, "", err
 		}
@@ -102,7 +103,7 @@ func (a *Adapter) diagramInput(ctx context.Context, m *model.Model, p *protocol.
 	if err != nil {
 		return reciprocal.Input{}, "", err
 	}
-	c := loadPathCases(r)[0]
+	c := loadpath.Solved(r)[0]
 	return reciprocal.Input{Model: m, AxialForce: c.AxialForce, External: planar(c.External)}, c.ID, nil
 }
 

@@ -4,11 +4,8 @@ import (
 	"context"
 	"errors"
 	"fmt"
-	"math"
 
-	"gusset/engine/model"
 	"gusset/engine/progress"
-	"gusset/engine/stiffness"
 	"gusset/engine/sweep"
 	"gusset/protocol"
 )
@@ -48,34 +45,12 @@ func (a *Adapter) sweep(ctx context.Context, r *request[protocol.SweepParams]) (
 	if err != nil {
 		return nil, err
 	}
-	metrics := p.Metrics
-	if len(metrics) == 0 {
-		metrics = []string{sweep.MetricLoadPath}
-		if p.Sizing != nil || hasLimits(m) {
-			metrics = append(metrics, sweep.MetricVolume)
-		}
+	objective := ""
+	if p.Objective != nil {
+		objective = p.Objective.Metric
 	}
-	if p.Objective != nil && !contains(metrics, p.Objective.Metric) {
-		metrics = append(metrics, p.Objective.Metric)
-	}
-	// The steps change numbers only, never the topology, so the numbering,
-	// the stiffness pattern and its ordering are worked out once.
-	analysis := stiffness.NewAnalysis(m, stiffness.Options{Cases: p.Cases, Workers: 1, StabilityLimit: -1, SkipCondition: true, Stations: -1})
-	solver := func(ctx context.Context, mm *model.Model) (*sweep.Solution, error) {
-		r, err := analysis.Solve(ctx, mm)
-		if err != nil {
-			return nil, err
-		}
-		sol := &sweep.Solution{Cases: loadPathCases(r)}
-		for _, c := range r.Cases {
-			// The largest displacement anywhere, member interiors included.
-			sol.MaxDisplacement = math.Max(sol.MaxDisplacement, c.MaxDisplacement.Value)
-			for _, u := range c.Utilisation {
-				sol.MaxUtilisation = math.Max(sol.MaxUtilisation, u)
-			}
-		}
-		return sol, nil
-	}
+	metrics := sweep.Metrics(m, p.Metrics, p.Sizing != nil, objective)
+	solver := sweep.StiffnessSolver(m, p.Cases)
 	eval, err := sweep.ModelEvaluator(m, names, metrics, solver, opt)
 	if err != nil {
 		return nil, sweepError(err)
@@ -163,22 +138,4 @@ func sweepError(err error) error {
 		return protocol.NewError(code, kind, pe.Message+".", protocol.Problem{Path: path, Message: pe.Message})
 	}
 	return at("/params/model", err)
-}
-
-func hasLimits(m *model.Model) bool {
-	for _, mat := range m.Materials {
-		if mat.TensionLimit <= 0 || mat.CompressionLimit <= 0 {
-			return false
-		}
-	}
-	return len(m.Materials) > 0
-}
-
-func contains(list []string, s string) bool {
-	for _, x := range list {
-		if x == s {
-			return true
-		}
-	}
-	return false
 }

@@ -1,0 +1,65 @@
+package sweep
+
+import (
+	"context"
+	"math"
+	"slices"
+
+	"gusset/engine/loadpath"
+	"gusset/engine/model"
+	"gusset/engine/stiffness"
+)
+
+// StiffnessSolver returns the Solver of a structural sweep over m: the
+// stiffness analysis of the given cases (nil for all), built once from m so
+// that the numbering, the stiffness pattern and its ordering are worked
+// out once (the steps change numbers only, never the topology). Each
+// solution holds the load-path cases (mean axial forces and external
+// forces, loadpath.Solved), the largest nodal translation and the largest
+// utilisation over the cases (0 when no member was checked).
+func StiffnessSolver(m *model.Model, cases []string) Solver {
+	analysis := stiffness.NewAnalysis(m, stiffness.Options{Cases: cases, Workers: 1, StabilityLimit: -1, SkipCondition: true})
+	return func(ctx context.Context, mm *model.Model) (*Solution, error) {
+		r, err := analysis.Solve(ctx, mm)
+		if err != nil {
+			return nil, err
+		}
+		sol := &Solution{Cases: loadpath.Solved(r)}
+		for i := range r.Cases {
+			d, _ := r.Cases[i].MaxNodeDisplacement()
+			u, _ := r.Cases[i].MaxUtilisation()
+			sol.MaxDisplacement = math.Max(sol.MaxDisplacement, d)
+			sol.MaxUtilisation = math.Max(sol.MaxUtilisation, u)
+		}
+		return sol, nil
+	}
+}
+
+// Metrics returns the metrics a sweep of m computes: those requested or,
+// when none are, the load path, with the volume too when the members are
+// sized (sized) or every material has both strength limits; the
+// objective's metric is added when missing.
+func Metrics(m *model.Model, requested []string, sized bool, objective string) []string {
+	metrics := requested
+	if len(metrics) == 0 {
+		metrics = []string{MetricLoadPath}
+		if sized || hasLimits(m) {
+			metrics = append(metrics, MetricVolume)
+		}
+	}
+	if objective != "" && !slices.Contains(metrics, objective) {
+		metrics = append(metrics, objective)
+	}
+	return metrics
+}
+
+// hasLimits reports whether m has materials and every one has a tension
+// and a compression limit.
+func hasLimits(m *model.Model) bool {
+	for _, mat := range m.Materials {
+		if mat.TensionLimit <= 0 || mat.CompressionLimit <= 0 {
+			return false
+		}
+	}
+	return len(m.Materials) > 0
+}
