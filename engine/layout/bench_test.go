@@ -31,6 +31,7 @@ func BenchmarkThreePoint(b *testing.B) {
 			b.ReportMetric(float64(l.Stats.Candidates), "candidates")
 			b.ReportMetric(float64(l.Stats.MembersInProgram), "members_in_LP")
 			b.ReportMetric(float64(l.Stats.Iterations), "rounds")
+			b.ReportMetric(float64(l.Stats.InteriorPointIterations), "IPM_iterations")
 		})
 	}
 }

@@ -17,6 +17,7 @@ type lpResult struct {
 	// primalResidual, dualResidual and gap are the relative measures at exit:
 	// ‖Ax−b‖/(1+‖b‖), ‖Aᵀy+s−c‖/(1+‖c‖), |cᵀx−bᵀy|/(1+|cᵀx|).
 	primalResidual, dualResidual, gap float64
+	state                             *ipm // the solve's state, for refine
 }
 
 // errNoConvergence reports that the interior-point iterations stopped
@@ -31,50 +32,90 @@ var errNoConvergence = errors.New("layout: interior-point method did not converg
 // equations by nested dissection. tol is the relative tolerance on the
 // primal and dual residuals and the duality gap. Progress is reported per
 // iteration under the stage "interior point"; ctx is checked per iteration.
+// The result's refine continues the same program to a tighter tolerance
+// from where it stopped.
 func interiorPoint(ctx context.Context, a *sparseColumns, b, c []float64, rowCoord []vec, tol float64, rep progress.Reporter) (*lpResult, error) {
-	m, n := a.rows, a.cols
-	if len(b) != m || len(c) != n {
+	if len(b) != a.rows || len(c) != a.cols {
 		panic("layout: interiorPoint dimension mismatch")
 	}
-	rep = progress.Or(rep)
-	// Scale b and c to unit size so the tolerances are relative and the
-	// starting point is well placed; undone at the end.
-	bScale, cScale := maxAbs(b), maxAbs(c)
-	if bScale == 0 {
-		bScale = 1
+	it := newIPM(a, b, c, rowCoord, rep)
+	it.startPoint()
+	return it.solve(ctx, tol)
+}
+
+// ipm is the state of one interior-point solve, in the scaled program.
+type ipm struct {
+	a              *sparseColumns
+	b, c           []float64 // the caller's data
+	bs, cs         []float64 // scaled to unit size
+	bScale, cScale float64
+	normB, normC   float64
+	ne             *normalEquations
+	rep            progress.Reporter
+	x, y, s        []float64
+	// work vectors of the iteration
+	d, colWork, rc, dxAff, dsAff, rxs []float64 // one per column
+	rb, work, dy, rhs, refine         []float64 // one per row
+	mu                                float64
+	res                               lpResult
+	// best keeps the iterate with the smallest worst measure, returned
+	// when round-off stops progress before the tolerance is met.
+	best struct {
+		x, y, s []float64
+		worst   float64
+		res     lpResult
 	}
-	if cScale == 0 {
-		cScale = 1
+}
+
+// newIPM scales b and c to unit size, so the tolerances are relative and
+// the starting point is well placed (undone in the result), and analyses
+// the normal equations.
+func newIPM(a *sparseColumns, b, c []float64, rowCoord []vec, rep progress.Reporter) *ipm {
+	m, n := a.rows, a.cols
+	it := &ipm{a: a, b: b, c: c, rep: progress.Or(rep), bScale: maxAbs(b), cScale: maxAbs(c)}
+	if it.bScale == 0 {
+		it.bScale = 1
 	}
-	bs, cs := make([]float64, m), make([]float64, n)
+	if it.cScale == 0 {
+		it.cScale = 1
+	}
+	it.bs, it.cs = make([]float64, m), make([]float64, n)
 	for i := range b {
-		bs[i] = b[i] / bScale
+		it.bs[i] = b[i] / it.bScale
 	}
 	for j := range c {
-		cs[j] = c[j] / cScale
+		it.cs[j] = c[j] / it.cScale
 	}
-	ne := newNormalEquations(a, rowCoord)
-
-	x, s, y := make([]float64, n), make([]float64, n), make([]float64, m)
-	d := make([]float64, n)
-	work := make([]float64, m)
-	colWork := make([]float64, n)
-
-	// Mehrotra's starting point: least-norm x and least-squares y, shifted
-	// into the positive orthant (Wright 1997, sec. 10.2).
-	for j := range d {
-		d[j] = 1
+	it.normB, it.normC = norm2(it.bs), norm2(it.cs)
+	it.ne = newNormalEquations(a, rowCoord)
+	for _, v := range []*[]float64{&it.x, &it.s, &it.d, &it.colWork, &it.rc, &it.dxAff, &it.dsAff, &it.rxs} {
+		*v = make([]float64, n)
 	}
-	ne.factorize(d)
-	copy(work, bs)
-	ne.solve(work)
-	a.mulTransVec(x, work)
-	a.mulVec(work, cs)
-	ne.solve(work)
-	copy(y, work)
-	a.mulTransVec(colWork, y)
+	for _, v := range []*[]float64{&it.y, &it.rb, &it.work, &it.dy, &it.rhs, &it.refine} {
+		*v = make([]float64, m)
+	}
+	it.best.worst = math.Inf(1)
+	return it
+}
+
+// startPoint sets Mehrotra's starting point: least-norm x and
+// least-squares y, shifted into the positive orthant (Wright 1997, sec.
+// 10.2).
+func (it *ipm) startPoint() {
+	a, x, y, s := it.a, it.x, it.y, it.s
+	for j := range it.d {
+		it.d[j] = 1
+	}
+	it.ne.factorize(it.d)
+	copy(it.work, it.bs)
+	it.ne.solve(it.work)
+	a.mulTransVec(x, it.work)
+	a.mulVec(it.work, it.cs)
+	it.ne.solve(it.work)
+	copy(y, it.work)
+	a.mulTransVec(it.colWork, y)
 	for j := range s {
-		s[j] = cs[j] - colWork[j]
+		s[j] = it.cs[j] - it.colWork[j]
 	}
 	shift := func(v []float64) {
 		lowest := math.Inf(1)
@@ -105,140 +146,164 @@ func interiorPoint(ctx context.Context, a *sparseColumns, b, c []float64, rowCoo
 			s[j] = 1
 		}
 	}
+}
 
-	rb, rc := make([]float64, m), make([]float64, n)
-	dxAff, dsAff, dy := make([]float64, n), make([]float64, n), make([]float64, m)
-	rxs := make([]float64, n)
-	rhs, refine := make([]float64, m), make([]float64, m)
-	// best keeps the iterate with the smallest worst measure, returned when
-	// round-off stops progress before the tolerance is met.
-	best := struct {
-		x, y, s []float64
-		worst   float64
-		res     lpResult
-	}{worst: math.Inf(1)}
-	normB, normC := norm2(bs), norm2(cs)
-	res := &lpResult{}
-	const maxIterations = 200
-	for iter := 0; ; iter++ {
+// maxIterations caps the interior-point iterations of one solve.
+const maxIterations = 200
+
+// solve iterates from the current point until the tolerance is met, or
+// round-off stops progress with the best iterate within looseTolerance.
+func (it *ipm) solve(ctx context.Context, tol float64) (*lpResult, error) {
+	for iter := it.res.iterations; ; iter++ {
 		if err := ctx.Err(); err != nil {
 			return nil, err
 		}
-		a.mulVec(rb, x)
-		for i := range rb {
-			rb[i] -= bs[i]
-		}
-		a.mulTransVec(rc, y)
-		var primalObj, dualObj, mu float64
-		for j := range rc {
-			rc[j] += s[j] - cs[j]
-			primalObj += cs[j] * x[j]
-			mu += x[j] * s[j]
-		}
-		for i := range y {
-			dualObj += bs[i] * y[i]
-		}
-		mu /= float64(n)
-		res.primalResidual = norm2(rb) / (1 + normB)
-		res.dualResidual = norm2(rc) / (1 + normC)
-		res.gap = math.Abs(primalObj-dualObj) / (1 + math.Abs(primalObj))
-		res.iterations = iter
-		rep.Progress("interior point", iter, maxIterations, nil)
+		it.measure(iter)
+		res := &it.res
 		if res.primalResidual < tol && res.dualResidual < tol && res.gap < tol {
 			break
 		}
-		if worst := max(res.primalResidual, res.dualResidual, res.gap); worst < best.worst {
-			best.worst = worst
-			best.x = append(best.x[:0], x...)
-			best.y = append(best.y[:0], y...)
-			best.s = append(best.s[:0], s...)
-			best.res = *res
+		worst := max(res.primalResidual, res.dualResidual, res.gap)
+		if worst < it.best.worst {
+			it.best.worst = worst
+			it.best.x = append(it.best.x[:0], it.x...)
+			it.best.y = append(it.best.y[:0], it.y...)
+			it.best.s = append(it.best.s[:0], it.s...)
+			it.best.res = *res
 		}
-		if iter == maxIterations || math.IsNaN(mu) || maxAbs(x) > 1e14 || maxAbs(y) > 1e14 || max(res.primalResidual, res.dualResidual, res.gap) > 1e3*best.worst {
-			if best.worst > looseTolerance {
+		if iter >= maxIterations || math.IsNaN(it.mu) || maxAbs(it.x) > 1e14 || maxAbs(it.y) > 1e14 || worst > 1e3*it.best.worst {
+			if it.best.worst > looseTolerance {
 				return nil, errNoConvergence
 			}
-			copy(x, best.x)
-			copy(y, best.y)
-			copy(s, best.s)
-			*res = best.res
+			copy(it.x, it.best.x)
+			copy(it.y, it.best.y)
+			copy(it.s, it.best.s)
+			it.res = it.best.res
 			break
 		}
-		for j := range d {
-			d[j] = x[j] / s[j]
-		}
-		ne.factorize(d)
+		it.step()
+	}
+	return it.result(), nil
+}
 
-		// solveDirection solves A Δx = −r_b, AᵀΔy + Δs = −r_c,
-		// S Δx + X Δs = rxs.
-		solveDirection := func(dxOut, dsOut []float64) {
-			for j := range colWork {
-				colWork[j] = (rxs[j] + x[j]*rc[j]) / s[j]
-			}
-			a.mulVec(work, colWork)
-			for i := range work {
-				work[i] = -rb[i] - work[i]
-			}
-			copy(rhs, work)
-			ne.solve(work)
-			// One step of iterative refinement: near the optimum D spans
-			// many orders of magnitude and the factor loses accuracy.
-			a.mulTransVec(colWork, work)
-			for j := range colWork {
-				colWork[j] *= d[j]
-			}
-			a.mulVec(refine, colWork)
-			for i := range refine {
-				refine[i] = rhs[i] - refine[i]
-			}
-			ne.solve(refine)
-			for i := range work {
-				work[i] += refine[i]
-			}
-			copy(dy, work)
-			a.mulTransVec(colWork, dy)
-			for j := range dxOut {
-				dsOut[j] = -rc[j] - colWork[j]
-				dxOut[j] = (rxs[j] - x[j]*dsOut[j]) / s[j]
-			}
-		}
-		for j := range rxs {
-			rxs[j] = -x[j] * s[j]
-		}
-		solveDirection(dxAff, dsAff)
-		alphaP, alphaD := min(1, stepToBoundary(x, dxAff)), min(1, stepToBoundary(s, dsAff))
-		var muAff float64
-		for j := range x {
-			muAff += (x[j] + alphaP*dxAff[j]) * (s[j] + alphaD*dsAff[j])
-		}
-		muAff /= float64(n)
-		sigma := math.Pow(muAff/mu, 3)
-		for j := range rxs {
-			rxs[j] = -x[j]*s[j] - dxAff[j]*dsAff[j] + sigma*mu
-		}
-		// The corrector direction overwrites the affine one.
-		solveDirection(dxAff, dsAff)
-		eta := max(0.9, 1-10*mu)
-		alphaP = min(1, eta*stepToBoundary(x, dxAff))
-		alphaD = min(1, eta*stepToBoundary(s, dsAff))
-		for j := range x {
-			x[j] += alphaP * dxAff[j]
-			s[j] += alphaD * dsAff[j]
-		}
-		for i := range y {
-			y[i] += alphaD * dy[i]
-		}
+// measure computes the residuals r_b = Ax − b, r_c = Aᵀy + s − c, the
+// duality measure μ and the relative measures of the iterate.
+func (it *ipm) measure(iter int) {
+	it.a.mulVec(it.rb, it.x)
+	for i := range it.rb {
+		it.rb[i] -= it.bs[i]
 	}
-	res.x, res.y, res.s = x, y, s
+	it.a.mulTransVec(it.rc, it.y)
+	var primalObj, dualObj, mu float64
+	for j := range it.rc {
+		it.rc[j] += it.s[j] - it.cs[j]
+		primalObj += it.cs[j] * it.x[j]
+		mu += it.x[j] * it.s[j]
+	}
+	for i := range it.y {
+		dualObj += it.bs[i] * it.y[i]
+	}
+	it.mu = mu / float64(len(it.x))
+	res := &it.res
+	res.primalResidual = norm2(it.rb) / (1 + it.normB)
+	res.dualResidual = norm2(it.rc) / (1 + it.normC)
+	res.gap = math.Abs(primalObj-dualObj) / (1 + math.Abs(primalObj))
+	res.iterations = iter
+	it.rep.Progress("interior point", iter, maxIterations, nil)
+}
+
+// step factorises the normal equations at the current point and takes
+// Mehrotra's predictor and corrector steps.
+func (it *ipm) step() {
+	x, s := it.x, it.s
+	for j := range it.d {
+		it.d[j] = x[j] / s[j]
+	}
+	it.ne.factorize(it.d)
+	for j := range it.rxs {
+		it.rxs[j] = -x[j] * s[j]
+	}
+	it.direction(it.dxAff, it.dsAff)
+	alphaP, alphaD := min(1, stepToBoundary(x, it.dxAff)), min(1, stepToBoundary(s, it.dsAff))
+	var muAff float64
 	for j := range x {
-		x[j] *= bScale
-		s[j] *= cScale
-		res.objective += c[j] * x[j]
+		muAff += (x[j] + alphaP*it.dxAff[j]) * (s[j] + alphaD*it.dsAff[j])
 	}
-	for i := range y {
-		y[i] *= cScale
+	muAff /= float64(len(x))
+	sigma := math.Pow(muAff/it.mu, 3)
+	for j := range it.rxs {
+		it.rxs[j] = -x[j]*s[j] - it.dxAff[j]*it.dsAff[j] + sigma*it.mu
 	}
-	return res, nil
+	// The corrector direction overwrites the affine one.
+	it.direction(it.dxAff, it.dsAff)
+	eta := max(0.9, 1-10*it.mu)
+	alphaP = min(1, eta*stepToBoundary(x, it.dxAff))
+	alphaD = min(1, eta*stepToBoundary(s, it.dsAff))
+	for j := range x {
+		x[j] += alphaP * it.dxAff[j]
+		s[j] += alphaD * it.dsAff[j]
+	}
+	for i := range it.y {
+		it.y[i] += alphaD * it.dy[i]
+	}
+}
+
+// direction solves A Δx = −r_b, AᵀΔy + Δs = −r_c, S Δx + X Δs = rxs through
+// the normal equations, with one step of iterative refinement: near the
+// optimum D spans many orders of magnitude and the factor loses accuracy.
+func (it *ipm) direction(dxOut, dsOut []float64) {
+	a, x, s, d := it.a, it.x, it.s, it.d
+	for j := range it.colWork {
+		it.colWork[j] = (it.rxs[j] + x[j]*it.rc[j]) / s[j]
+	}
+	a.mulVec(it.work, it.colWork)
+	for i := range it.work {
+		it.work[i] = -it.rb[i] - it.work[i]
+	}
+	copy(it.rhs, it.work)
+	it.ne.solve(it.work)
+	a.mulTransVec(it.colWork, it.work)
+	for j := range it.colWork {
+		it.colWork[j] *= d[j]
+	}
+	a.mulVec(it.refine, it.colWork)
+	for i := range it.refine {
+		it.refine[i] = it.rhs[i] - it.refine[i]
+	}
+	it.ne.solve(it.refine)
+	for i := range it.work {
+		it.work[i] += it.refine[i]
+	}
+	copy(it.dy, it.work)
+	a.mulTransVec(it.colWork, it.dy)
+	for j := range dxOut {
+		dsOut[j] = -it.rc[j] - it.colWork[j]
+		dxOut[j] = (it.rxs[j] - x[j]*dsOut[j]) / s[j]
+	}
+}
+
+// result returns the solution in the caller's scale; the iterate stays, so
+// that refine can continue from it.
+func (it *ipm) result() *lpResult {
+	res := it.res
+	res.x, res.y, res.s = make([]float64, len(it.x)), make([]float64, len(it.y)), make([]float64, len(it.s))
+	res.objective = 0
+	for j := range it.x {
+		res.x[j] = it.x[j] * it.bScale
+		res.s[j] = it.s[j] * it.cScale
+		res.objective += it.c[j] * res.x[j]
+	}
+	for i := range it.y {
+		res.y[i] = it.y[i] * it.cScale
+	}
+	res.state = it
+	return &res
+}
+
+// refine continues the solve that gave r to the tighter tolerance tol;
+// the iterations add up in the result.
+func (r *lpResult) refine(ctx context.Context, tol float64) (*lpResult, error) {
+	return r.state.solve(ctx, tol)
 }
 
 // looseTolerance is the accuracy accepted when round-off stops the

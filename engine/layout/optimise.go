@@ -385,14 +385,19 @@ func (st *setting) useful(list []candidate) []candidate {
 // run solves one program by the interior-point method.
 func (st *setting) run(ctx context.Context, prog *program, opt Options, stats *Stats, rep progress.Reporter) (*lpResult, error) {
 	res, err := interiorPoint(ctx, prog.a, prog.b, prog.c, prog.rowCoord, opt.Tolerance, rep)
-	if errors.Is(err, errNoConvergence) {
-		return nil, fault.New(fault.Infeasible, "the layout program did not converge over %d members; the loads may not be carried to the supports", len(prog.members))
-	}
 	if err != nil {
-		return nil, err
+		return nil, st.runError(err, prog)
 	}
 	stats.InteriorPointIterations += res.iterations
 	return res, nil
+}
+
+// runError words an interior-point failure.
+func (st *setting) runError(err error, prog *program) error {
+	if errors.Is(err, errNoConvergence) {
+		return fault.New(fault.Infeasible, "the layout program did not converge over %d members; the loads may not be carried to the supports", len(prog.members))
+	}
+	return err
 }
 
 // accept checks the artificial forces of a solution and returns its forces.

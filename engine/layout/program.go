@@ -64,91 +64,103 @@ func (st *setting) column(c candidate) (rows []int32, values []float64) {
 	return rows, values
 }
 
+// build assembles the program over the given members.
 func (st *setting) build(members []candidate) *program {
-	K := len(st.loads)
-	R := st.freeRows
-	m := len(members)
-	p := &program{members: members, cases: K, freeRows: R}
-	a := &sparseColumns{colStart: []int{0}}
-	addColumn := func(rows []int32, values []float64, cost float64) {
-		// Rows must be ascending within a column.
-		for s := 1; s < len(rows); s++ {
-			for t := s; t > 0 && rows[t] < rows[t-1]; t-- {
-				rows[t], rows[t-1] = rows[t-1], rows[t]
-				values[t], values[t-1] = values[t-1], values[t]
-			}
-		}
-		a.rowIndex = append(a.rowIndex, rows...)
-		a.value = append(a.value, values...)
-		a.colStart = append(a.colStart, len(a.rowIndex))
-		p.c = append(p.c, cost)
-	}
-	negate := func(v []float64) []float64 {
-		out := make([]float64, len(v))
-		for i, t := range v {
-			out[i] = -t
-		}
-		return out
-	}
-	nodeCoord := func(r int) vec { return st.g.nodes[st.rowNode[r]] }
-	if K == 1 {
-		for _, k := range members {
-			rows, values := st.column(k)
-			cost := st.cost(k)
-			addColumn(rows, values, cost/st.tension)
-			addColumn(append([]int32(nil), rows...), negate(values), cost/st.compr)
-		}
-		for r := 0; r < R; r++ {
-			addColumn([]int32{int32(r)}, []float64{1}, st.penalty)
-			addColumn([]int32{int32(r)}, []float64{-1}, st.penalty)
-			p.rowCoord = append(p.rowCoord, nodeCoord(r))
-		}
-		p.b = append([]float64(nil), st.loads[0]...)
-		a.rows = R
+	p := &program{members: members, cases: len(st.loads), freeRows: st.freeRows, a: &sparseColumns{colStart: []int{0}}}
+	if p.cases == 1 {
+		st.buildOneCase(p)
 	} else {
-		block := R + m // rows per case
-		for i, k := range members {
-			rows := make([]int32, K)
-			values := make([]float64, K)
-			for c := 0; c < K; c++ {
-				rows[c] = int32(c*block + R + i)
-				values[c] = -1
-			}
-			addColumn(rows, values, st.cost(k))
-		}
-		for c := 0; c < K; c++ {
-			offset := int32(c * block)
-			for i, k := range members {
-				rows, values := st.column(k)
-				for t := range rows {
-					rows[t] += offset
-				}
-				capRow := offset + int32(R+i)
-				addColumn(append(append([]int32(nil), rows...), capRow), append(append([]float64(nil), values...), 1/st.tension), 0)
-				addColumn(append(append([]int32(nil), rows...), capRow), append(negate(values), 1/st.compr), 0)
-			}
-			for i := range members {
-				addColumn([]int32{offset + int32(R+i)}, []float64{1}, 0)
-			}
-			for r := 0; r < R; r++ {
-				addColumn([]int32{offset + int32(r)}, []float64{1}, st.penalty)
-				addColumn([]int32{offset + int32(r)}, []float64{-1}, st.penalty)
-			}
-			for r := 0; r < R; r++ {
-				p.rowCoord = append(p.rowCoord, nodeCoord(r))
-			}
-			for _, cd := range members {
-				pa, pb := st.g.nodes[cd.a], st.g.nodes[cd.b]
-				p.rowCoord = append(p.rowCoord, scaled(vec{pa[0] + pb[0], pa[1] + pb[1], pa[2] + pb[2]}, 0.5))
-			}
-			p.b = append(p.b, st.loads[c]...)
-			p.b = append(p.b, make([]float64, m)...)
-		}
-		a.rows = K * block
+		st.buildCases(p)
 	}
-	a.cols = len(p.c)
-	p.a = a
+	p.a.cols = len(p.c)
 	return p
+}
+
+// addColumn appends a column (its rows sorted ascending) with its cost.
+func (p *program) addColumn(rows []int32, values []float64, cost float64) {
+	for s := 1; s < len(rows); s++ {
+		for t := s; t > 0 && rows[t] < rows[t-1]; t-- {
+			rows[t], rows[t-1] = rows[t-1], rows[t]
+			values[t], values[t-1] = values[t-1], values[t]
+		}
+	}
+	a := p.a
+	a.rowIndex = append(a.rowIndex, rows...)
+	a.value = append(a.value, values...)
+	a.colStart = append(a.colStart, len(a.rowIndex))
+	p.c = append(p.c, cost)
+}
+
+func negate(v []float64) []float64 {
+	out := make([]float64, len(v))
+	for i, t := range v {
+		out[i] = -t
+	}
+	return out
+}
+
+// addArtificial appends the artificial columns ±1 of the equilibrium rows
+// from offset on, and their rows' coordinates.
+func (st *setting) addArtificial(p *program, offset int32) {
+	for r := 0; r < st.freeRows; r++ {
+		p.addColumn([]int32{offset + int32(r)}, []float64{1}, st.penalty)
+		p.addColumn([]int32{offset + int32(r)}, []float64{-1}, st.penalty)
+		p.rowCoord = append(p.rowCoord, st.g.nodes[st.rowNode[r]])
+	}
+}
+
+// buildOneCase assembles the single-case program: T and C per member,
+// then the artificial columns.
+func (st *setting) buildOneCase(p *program) {
+	for _, k := range p.members {
+		rows, values := st.column(k)
+		cost := st.cost(k)
+		p.addColumn(rows, values, cost/st.tension)
+		p.addColumn(append([]int32(nil), rows...), negate(values), cost/st.compr)
+	}
+	st.addArtificial(p, 0)
+	p.b = append([]float64(nil), st.loads[0]...)
+	p.a.rows = st.freeRows
+}
+
+// buildCases assembles the multiple-load-case program: the areas, then per
+// case the tensions, compressions, capacity slacks and artificials, with
+// the capacity rows placed at the members' midpoints for the ordering.
+func (st *setting) buildCases(p *program) {
+	K, R, m := p.cases, st.freeRows, len(p.members)
+	block := R + m // rows per case
+	for i, k := range p.members {
+		rows := make([]int32, K)
+		values := make([]float64, K)
+		for c := 0; c < K; c++ {
+			rows[c] = int32(c*block + R + i)
+			values[c] = -1
+		}
+		p.addColumn(rows, values, st.cost(k))
+	}
+	for c := 0; c < K; c++ {
+		offset := int32(c * block)
+		for i, k := range p.members {
+			rows, values := st.column(k)
+			for t := range rows {
+				rows[t] += offset
+			}
+			capRow := offset + int32(R+i)
+			p.addColumn(append(append([]int32(nil), rows...), capRow), append(append([]float64(nil), values...), 1/st.tension), 0)
+			p.addColumn(append(append([]int32(nil), rows...), capRow), append(negate(values), 1/st.compr), 0)
+		}
+		for i := range p.members {
+			p.addColumn([]int32{offset + int32(R+i)}, []float64{1}, 0)
+		}
+		st.addArtificial(p, offset)
+		for _, cd := range p.members {
+			pa, pb := st.g.nodes[cd.a], st.g.nodes[cd.b]
+			p.rowCoord = append(p.rowCoord, scaled(vec{pa[0] + pb[0], pa[1] + pb[1], pa[2] + pb[2]}, 0.5))
+		}
+		p.b = append(p.b, st.loads[c]...)
+		p.b = append(p.b, make([]float64, m)...)
+	}
+	p.a.rows = K * block
 }
 
 // forces returns the member forces per case (tension positive) and the
