@@ -10,6 +10,11 @@ type SolveParams struct {
 	// Cases lists the load cases and combinations to report, by id;
 	// default every case and then every combination.
 	Cases []string `json:"cases,omitempty"`
+	// Stations is the number of evenly spaced stations (both ends
+	// included) along each beam at which the internal forces and
+	// displacements are reported; default 11, 0 for none (the exact
+	// extremes along each member are reported whatever the stations).
+	Stations *int `json:"stations,omitempty" jsonschema:"minimum=0,maximum=1001"`
 	// Picture asks for an SVG drawing of the first reported case in the
 	// result: the deflected shape over the undeformed model, members
 	// styled by the sense of their axial force; a 3D model in an

@@ -13,12 +13,14 @@ import (
 // StiffnessSolver returns the Solver of a structural sweep over m: the
 // stiffness analysis of the given cases (nil for all), built once from m so
 // that the numbering, the stiffness pattern and its ordering are worked
-// out once (the steps change numbers only, never the topology). Each
-// solution holds the load-path cases (mean axial forces and external
-// forces, loadpath.Solved), the largest nodal translation and the largest
+// out once (the steps change numbers only, never the topology); no
+// stations are reported along the members. Each solution holds the
+// load-path cases (mean axial forces and external forces,
+// loadpath.Solved), the largest translation anywhere (at the nodes and
+// inside the members, CaseResult.MaxDisplacement) and the largest
 // utilisation over the cases (0 when no member was checked).
 func StiffnessSolver(m *model.Model, cases []string) Solver {
-	analysis := stiffness.NewAnalysis(m, stiffness.Options{Cases: cases, Workers: 1, StabilityLimit: -1, SkipCondition: true})
+	analysis := stiffness.NewAnalysis(m, stiffness.Options{Cases: cases, Workers: 1, StabilityLimit: -1, SkipCondition: true, Stations: -1})
 	return func(ctx context.Context, mm *model.Model) (*Solution, error) {
 		r, err := analysis.Solve(ctx, mm)
 		if err != nil {
@@ -26,9 +28,8 @@ func StiffnessSolver(m *model.Model, cases []string) Solver {
 		}
 		sol := &Solution{Cases: loadpath.Solved(r)}
 		for i := range r.Cases {
-			d, _ := r.Cases[i].MaxNodeDisplacement()
 			u, _ := r.Cases[i].MaxUtilisation()
-			sol.MaxDisplacement = math.Max(sol.MaxDisplacement, d)
+			sol.MaxDisplacement = math.Max(sol.MaxDisplacement, r.Cases[i].MaxDisplacement.Value)
 			sol.MaxUtilisation = math.Max(sol.MaxUtilisation, u)
 		}
 		return sol, nil

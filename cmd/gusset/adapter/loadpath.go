@@ -15,6 +15,7 @@ import (
 func (a *Adapter) loadPath(ctx context.Context, r *request[protocol.LoadPathParams]) (*protocol.LoadPathResult, error) {
 	p, m, st := r.Params, r.Model, r.Stream
 	var cases []loadpath.Case
+	var caveats []string
 	if p.Forces != nil {
 		c, err := givenForces(m, p.Forces, p.Cases)
 		if err != nil {
@@ -27,6 +28,7 @@ func (a *Adapter) loadPath(ctx context.Context, r *request[protocol.LoadPathPara
 			return nil, err
 		}
 		cases = loadpath.Solved(r)
+		caveats = loadPathCaveats(m, r)
 	}
 	opt, err := sizingOptions(p.Sizing, "/params/sizing")
 	if err != nil {
@@ -37,7 +39,9 @@ func (a *Adapter) loadPath(ctx context.Context, r *request[protocol.LoadPathPara
 	if err != nil {
 		return nil, loadPathError(err)
 	}
-	return loadPathResult(m, res), nil
+	out := loadPathResult(m, res)
+	out.Warnings = caveats
+	return out, nil
 }
 
 // givenForces builds the case of given member forces
