@@ -1,7 +1,9 @@
 package main
 
 import (
+	"encoding/json"
 	"fmt"
+	"os/exec"
 	"strings"
 	"testing"
 	"time"
@@ -96,5 +98,36 @@ func TestStiffnessRatioThroughProcess(t *testing.T) {
 			}
 			checkBadInput(t, bin, want, line)
 		})
+	}
+}
+
+// TestSelfWeightWithoutDensityThroughProcess solves a self-weight case
+// over a material without weight_density through `gusset run` and checks
+// that the answer's warnings name the material (once the members carried
+// no self-weight without a word).
+func TestSelfWeightWithoutDensityThroughProcess(t *testing.T) {
+	bin := buildGusset(t)
+	line := `{"jsonrpc":"2.0","id":1,"method":"solve","params":{"model":{"dimension":2,` +
+		`"materials":[{"id":"timber","elastic_modulus":1.1e7}],"sections":[{"id":"post","area":0.01}],` +
+		`"nodes":[{"id":"A","at":[0,0]},{"id":"B","at":[8,0]},{"id":"C","at":[4,3]}],` +
+		`"members":[{"id":"AC","ends":["A","C"],"material":"timber","section":"post"},{"id":"BC","ends":["B","C"],"material":"timber","section":"post"}],` +
+		`"supports":[{"node":"A","fix":["x","y"]},{"node":"B","fix":["x","y"]}],` +
+		`"load_cases":[{"id":"dead","self_weight":true,"loads":[{"node":"C","force":[0,-10]}]}]}}}`
+	cmd := exec.Command(bin, "run", "-")
+	cmd.Stdin = strings.NewReader(line + "\n")
+	out, err := cmd.Output()
+	if err != nil {
+		t.Fatalf("run: %v", err)
+	}
+	var resp struct {
+		Result struct {
+			Warnings []string `json:"warnings"`
+		} `json:"result"`
+	}
+	if err := json.Unmarshal(out, &resp); err != nil {
+		t.Fatalf("%v: %s", err, out)
+	}
+	if !strings.Contains(strings.Join(resp.Result.Warnings, "\n"), `material "timber" has no weight_density`) {
+		t.Errorf("warnings %q do not name the material without weight_density", resp.Result.Warnings)
 	}
 }

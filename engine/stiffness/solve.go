@@ -248,6 +248,7 @@ func solve(ctx context.Context, m *model.Model, opt Options, an *Analysis) (*Res
 		an.release(sys)
 	}
 	res.Warnings = append(res.Warnings, residualWarnings(res)...)
+	noteSelfWeight(m, requests, res)
 	return res, nil
 }
 
