@@ -8,5 +8,6 @@
 // qualified engineer checks the design against the local codes and standards.
 
 export { Client, Call, Sweep } from './client.js';
+export { memberResult, memberResults, momentDiagram } from './members.js';
 export { BUILD_HINT, defaultHints, findBinary } from './binary.js';
 export * from './errors.js';

@@ -19,6 +19,7 @@ design against the local codes and standards.
 
 from .binary import BUILD_HINT, find_binary
 from .client import Call, Client, Progress, Sweep
+from .members import member_result, member_results, moment_diagram
 from .errors import (
     Cancelled,
     ClientClosed,
@@ -88,5 +89,8 @@ __all__ = [
     "WrongDimension",
     "error_class",
     "find_binary",
+    "member_result",
+    "member_results",
+    "moment_diagram",
     "from_wire",
 ]

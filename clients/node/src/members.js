@@ -1,0 +1,46 @@
+// Helpers that read a solve result's results along members by member id.
+//
+// A solve result holds, per case, `members`: one entry per model member,
+// aligned with model.members, each with its `id`, the internal forces and
+// displacements at its stations and the exact extremes along it (see the
+// schema's MemberResult). These helpers find them by id so that a host need
+// not keep the member order.
+
+/**
+ * memberResult returns one case's results along the member called memberId.
+ * @param {object} caseResult one entry of a solve result's `cases`
+ * @param {string} memberId
+ * @returns {object}
+ * @throws {RangeError} when the case has no member of that id
+ */
+export function memberResult(caseResult, memberId) {
+  for (const entry of caseResult.members ?? []) {
+    if (entry.id === memberId) return entry;
+  }
+  throw new RangeError(`no member ${JSON.stringify(memberId)} in case ${JSON.stringify(caseResult.id)}`);
+}
+
+/**
+ * memberResults yields [case id, results along the member] for every case of a solve result.
+ * @param {object} result a solve result
+ * @param {string} memberId
+ */
+export function* memberResults(result, memberId) {
+  for (const c of result.cases ?? []) yield [c.id, memberResult(c, memberId)];
+}
+
+/**
+ * momentDiagram returns [[distance from the first end, moment]] at the member's stations;
+ * axis is 'z' (the in-plane moment of a 2D frame) or 'y' (3D). It is empty when the solve
+ * asked for no stations or the member is a bar.
+ * @param {object} caseResult
+ * @param {string} memberId
+ * @param {'y'|'z'} [axis]
+ * @returns {Array<[number, number]>}
+ */
+export function momentDiagram(caseResult, memberId, axis = 'z') {
+  const entry = memberResult(caseResult, memberId);
+  const moments = entry[`moment_${axis}`];
+  if (!moments || moments.length === 0) return [];
+  return moments.map((m, k) => [entry.stations[k], m]);
+}
