@@ -145,9 +145,14 @@ func niceTicks(lo, hi float64, n int) []float64 {
 		d := math.Max(math.Abs(lo)*0.1, 1)
 		lo, hi = lo-d, hi+d
 	}
-	step := niceLength((hi - lo) / float64(n-1) * 1.5)
-	for (hi-lo)/step > float64(n) {
-		step = niceLength(step * 2.1)
+	// The smallest 1, 2 or 5 × 10ᵏ step that needs at most n−1 intervals.
+	raw := (hi - lo) / float64(n-1)
+	p := math.Pow(10, math.Floor(math.Log10(raw)))
+	step := 10 * p
+	for _, k := range []float64{5, 2, 1} {
+		if k*p >= raw {
+			step = k * p
+		}
 	}
 	start := math.Floor(lo/step) * step
 	var ticks []float64

@@ -49,7 +49,7 @@ func TestNiceTicks(t *testing.T) {
 	for _, tc := range []struct {
 		lo, hi float64
 		n      int
-	}{{0.75, 6, 8}, {0.0123, 0.0456, 6}, {-3, 3, 6}, {5, 5, 6}, {1e5, 3.2e5, 6}} {
+	}{{0.75, 6, 8}, {0.0123, 0.0456, 6}, {-3, 3, 6}, {5, 5, 6}, {1e5, 3.2e5, 6}, {3.7223, 745.15, 6}, {0, 4.2, 6}} {
 		ticks := niceTicks(tc.lo, tc.hi, tc.n)
 		if ticks[0] > tc.lo || ticks[len(ticks)-1] < tc.hi || len(ticks) > tc.n+2 || len(ticks) < 2 {
 			t.Errorf("niceTicks(%g, %g, %d) = %v", tc.lo, tc.hi, tc.n, ticks)
