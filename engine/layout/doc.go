@@ -3,10 +3,13 @@
 // Greenberg, "Automatic design of optimal structures", Journal de Mécanique
 // 3, 1964).
 //
-// A design domain (a rectangle, a polygon with holes, or the caller's own
-// nodes) is filled with a grid of nodes; every pair of nodes that can see each
-// other inside the domain is a candidate member. The least-volume layout that
-// carries the loads to the supports is the solution of the linear program
+// A design domain (in the plane a polygon with holes, in space a convex
+// polyhedron with holes that are convex polyhedra, or the caller's own
+// nodes) is filled with a grid of nodes; every pair of nodes that can see
+// each other inside the domain is a candidate member, except a pair whose
+// integer grid steps (dx, dy, dz) have a common divisor, which passes
+// through another node. The least-volume layout that carries the loads to
+// the supports is the solution of the linear program
 //
 //	minimise  Σ L_i (T_i/σ_t + C_i/σ_c)
 //	subject to B (T − C) = f on the free freedoms,  T, C ≥ 0,
@@ -22,7 +25,9 @@
 // members only; its dual values are nodal virtual displacements u, and every
 // candidate whose virtual strain Bᵢᵀu/L_i exceeds the dual limit 1/σ_t (or
 // falls below −1/σ_c) would improve the layout; the most violating ones are
-// added and the program is solved again until none violates. The largest
+// added and the program is solved again until none violates. The
+// candidates are generated node by node whenever they are priced and never
+// held all at once: a 20 × 10 × 10 space grid has 2.67 million. The largest
 // relative violation left is the optimality gap: the volume found is within
 // that fraction of the optimum over all candidates.
 //

@@ -716,13 +716,22 @@ export class Client {
   /**
    * optimiseLayout finds the least-volume pin-jointed layout over a ground
    * structure: supports, cases, tension_limit and compression_limit are
-   * needed; domain and divisions, or nodes, set the candidates.
-   * @param {{supports: object[], cases: object[], tension_limit: number, compression_limit: number}
-   *   & RequestOptions & Record<string, any>} options
+   * needed; domain and divisions, or nodes, set the candidates; dimension 3
+   * makes a space layout (points, divisions and forces with three entries).
+   * `onRound` is called with each member-adding round as it ends.
+   * @param {{supports: object[], cases: object[], tension_limit: number, compression_limit: number,
+   *   onRound?: (round: any) => void} & RequestOptions & Record<string, any>} options
    * @returns {Promise<any>}
    */
   optimiseLayout(options) {
-    const [params, request] = Client._split(options);
+    const { onRound, ...rest } = options;
+    const [params, request] = Client._split(rest);
+    const onProgress = request.onProgress;
+    /** @param {Progress} p */
+    request.onProgress = (p) => {
+      onProgress?.(p);
+      if (onRound && p.stage === 'member adding' && p.partial !== undefined) onRound(p.partial);
+    };
     return this.call('optimise-layout', params, request);
   }
 

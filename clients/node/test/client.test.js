@@ -383,6 +383,37 @@ describe('optimiseLayout', { skip }, () => {
       await client.close();
     }
   });
+
+  test('a tripod in space', async (t) => {
+    // A load P = 10 down at the origin hangs from supports (2, 1, 2),
+    // (−2, 1, 2), (1, −2, 2), each 3 away: equilibrium of the loaded node
+    // gives N = 3.75, 6.25 and 5 (all tension), volume 15·3 = 45 with σ = 1
+    // (hand result; the dual bound that no layout over these nodes needs
+    // less is derived in testdata/transcripts/layout-tripod.want.json).
+    if (!names.includes('optimise-layout')) return t.skip('optimise-layout not offered');
+    const legs = [[2, 1, 2], [-2, 1, 2], [1, -2, 2]];
+    const rounds = [];
+    const client = new Client({ binary: bin });
+    try {
+      const lay = await client.optimiseLayout({
+        dimension: 3,
+        nodes: [[0, 0, 0], ...legs, [0, 0, 1], [0, 0, 2], [1, 0, 1]],
+        supports: legs.map((at) => ({ at, fix: ['x', 'y', 'z'] })),
+        cases: [{ id: 'hang', loads: [{ at: [0, 0, 0], force: [0, 0, -10] }] }],
+        tension_limit: 1,
+        compression_limit: 1,
+        onRound: (r) => rounds.push(r),
+      });
+      assert.ok(closeWithin(lay.volume, 45, 1e-7), String(lay.volume));
+      const forces = lay.members.map((m) => m.forces[0]).sort((a, b) => a - b);
+      [3.75, 5, 6.25].forEach((want, i) => assert.ok(closeWithin(forces[i], want, 1e-7), String(forces)));
+      assert.equal(lay.model.dimension, 3);
+      assert.ok(rounds.length >= 1);
+      assert.equal(rounds[rounds.length - 1].added, 0);
+    } finally {
+      await client.close();
+    }
+  });
 });
 
 describe('findForm', { skip }, () => {

@@ -828,19 +828,34 @@ class Client:
         joint_cost: Optional[float] = None,
         units: Optional[Mapping[str, str]] = None,
         picture: Optional[bool] = None,
+        dimension: Optional[int] = None,
+        on_round: Optional[Callable[[Dict[str, Any]], None]] = None,
         timeout: Optional[float] = None,
         **options: Any,
     ) -> Dict[str, Any]:
         """optimise_layout finds the least-volume pin-jointed layout over a ground structure.
 
+        dimension 3 makes a space layout: points, divisions and forces then
+        have three entries, and the domain is a box or a convex polyhedron.
         joint_cost, a length added to every member in the objective, makes
         layouts with fewer members win when the saving outweighs the extra
         volume; the result's "objective" includes it, "volume" does not.
+        on_round, when given, receives each member-adding round as it ends
+        (iteration, members, added, volume, max_violation, violators).
         """
+        on_progress = None
+        if on_round is not None:
+            round_callback = on_round
+
+            def on_progress(item: Progress) -> None:
+                if item.stage == "member adding" and item.partial is not None:
+                    round_callback(item.partial)
+
         params = _params(supports=supports, cases=cases, tension_limit=tension_limit,
                          compression_limit=compression_limit, domain=domain, divisions=divisions, nodes=nodes,
-                         connectivity=connectivity, joint_cost=joint_cost, units=units, picture=picture, **options)
-        return self.call("optimise-layout", params, timeout)  # type: ignore[no-any-return]
+                         connectivity=connectivity, joint_cost=joint_cost, units=units, picture=picture,
+                         dimension=dimension, **options)
+        return self.call("optimise-layout", params, timeout, on_progress)  # type: ignore[no-any-return]
 
     def modes(
         self,
