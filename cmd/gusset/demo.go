@@ -97,7 +97,9 @@ func (d *demo) call(method string, params map[string]any, result any) error {
 	return fmt.Errorf("%s: no response", method)
 }
 
-func (d *demo) say(format string, args ...any) { fmt.Fprintf(d.out, format, args...) }
+func (d *demo) say(format string, args ...any) {
+	fmt.Fprint(d.out, withoutNegativeZeros(fmt.Sprintf(format, args...)))
+}
 
 func (d *demo) run() error {
 	var model struct {

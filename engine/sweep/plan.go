@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 	"runtime"
+	"strconv"
 )
 
 // ErrInvalidPlan is matched (with errors.Is) by every *PlanError.
@@ -40,8 +41,9 @@ type Axis struct {
 }
 
 // Range returns count values evenly spaced from from to to, both included
-// (from alone when count is 1). It returns a *PlanError when count < 1 or
-// an end is not finite.
+// (from alone when count is 1): from + i·(to − from)/(count − 1), each
+// rounded to the shortest decimal within a few units in the last place.
+// It returns a *PlanError when count < 1 or an end is not finite.
 func Range(from, to float64, count int) ([]float64, error) {
 	if count < 1 {
 		return nil, &PlanError{Path: "/count", Message: fmt.Sprintf("a range needs at least one value, not %d", count)}
@@ -54,12 +56,30 @@ func Range(from, to float64, count int) ([]float64, error) {
 	if count == 1 {
 		return out, nil
 	}
-	// Computed from both ends so that the last value is exactly to.
-	for i := 1; i < count; i++ {
-		s := float64(i) / float64(count-1)
-		out[i] = from*(1-s) + to*s
+	step := (to - from) / float64(count-1)
+	for i := 1; i < count-1; i++ {
+		out[i] = shortDecimal(from + float64(i)*step)
 	}
+	out[count-1] = to
 	return out, nil
+}
+
+// shortDecimal returns the double of the shortest decimal (fewest
+// significant digits) within four units in the last place of v, so that
+// a range step computed as 0.6000000000000001 reads 0.6; a v that no such
+// decimal is near is returned as it is. Zero is returned positive.
+func shortDecimal(v float64) float64 {
+	if v == 0 {
+		return 0
+	}
+	tolerance := 4 * (math.Nextafter(math.Abs(v), math.Inf(1)) - math.Abs(v))
+	for digits := 1; digits <= 17; digits++ {
+		r, err := strconv.ParseFloat(strconv.FormatFloat(v, 'g', digits, 64), 64)
+		if err == nil && math.Abs(r-v) <= tolerance {
+			return r
+		}
+	}
+	return v
 }
 
 // Shard selects part of a sweep: the steps whose global index i satisfies
