@@ -7,4 +7,4 @@
 // The package knows nothing of mechanics, and holds types only.
 package protocol
 
-//go:generate go run gusset/schema/generate -protocol . -out ../schema/gusset.schema.json
+//go:generate go run gusset/schema/generate -protocol . -out ../schema/gusset.schema.json -readme ../README.md -python ../clients/python/gusset/errors.py -node ../clients/node/src/errors.js

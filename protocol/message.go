@@ -23,10 +23,32 @@ const (
 	CodeTimeLimit      = -32004 // the request ran longer than the wall-time limit
 )
 
-// Application error codes (1000 and up) come from the engine's fault kinds:
-// 1000 invalid model, 1001 expression error, 1002 unstable structure,
-// 1003 not planar, 1004 not in equilibrium, 1005 wrong dimension,
-// 1006 missing data, 1007 infeasible, 1008 no solution, 1009 unknown case.
+// CodeInfo describes an error code for the published schema's ErrorCode
+// definition, from which the README's table and both clients' error
+// classes are generated.
+type CodeInfo struct {
+	Code int
+	// Kind is the code's short name, error.data.kind on the wire.
+	Kind string
+	// When says in a phrase when the code is sent.
+	When string
+}
+
+// ServerCodes are the JSON-RPC and server-state codes. Application codes
+// (1000 and up) come from the engine's fault kinds (engine/fault.Kinds);
+// the adapter joins the two tables.
+var ServerCodes = []CodeInfo{
+	{CodeParseError, "parse error", "the line is not JSON, or is longer than `--max-line-bytes` (id null; reading goes on)"},
+	{CodeInvalidRequest, "invalid request", "not a JSON-RPC 2.0 request object; an id already in flight"},
+	{CodeMethodNotFound, "method not found", "unknown method"},
+	{CodeInvalidParams, "invalid params", "params do not follow the schema (wrong types, unknown fields, numbers out of double range)"},
+	{CodeInternal, "internal error", "a bug (a recovered panic); the process goes on"},
+	{CodeCancelled, "cancelled", "stopped by `cancel`"},
+	{CodeLimitExceeded, "limit exceeded", "a model or sweep over the limits"},
+	{CodeOverloaded, "overloaded", "reserved for too many waiting requests"},
+	{CodeShuttingDown, "shutting down", "the server is stopping"},
+	{CodeTimeLimit, "time limit", "the request ran longer than `--time-limit`"},
+}
 
 // Request is one JSON-RPC 2.0 request or notification as read from a line.
 // ID is kept as raw JSON and echoed byte for byte.

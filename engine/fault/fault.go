@@ -33,30 +33,42 @@ func (k Kind) Code() int { return int(k) }
 
 // String returns the kind's short name.
 func (k Kind) String() string {
-	switch k {
-	case InvalidModel:
-		return "invalid model"
-	case Expression:
-		return "expression error"
-	case Unstable:
-		return "unstable structure"
-	case NotPlanar:
-		return "not planar"
-	case NotInEquilibrium:
-		return "not in equilibrium"
-	case WrongDimension:
-		return "wrong dimension"
-	case MissingData:
-		return "missing data"
-	case Infeasible:
-		return "infeasible"
-	case NoSolution:
-		return "no solution"
-	case UnknownCase:
-		return "unknown case"
+	for _, d := range kinds {
+		if d.Kind == k {
+			return d.Name
+		}
 	}
 	return fmt.Sprintf("kind %d", int(k))
 }
+
+// KindInfo describes a kind for the published schema and the clients,
+// which are generated from Kinds.
+type KindInfo struct {
+	Kind Kind
+	// Name is the kind's short name (Kind.String).
+	Name string
+	// When says in a phrase when the kind is reported.
+	When string
+}
+
+// kinds is the one table of the kinds: their names and when each is
+// reported.
+var kinds = []KindInfo{
+	{InvalidModel, "invalid model", "duplicate or dangling ids, zero-length members, coincident nodes, dimension mismatches, non-positive stiffness or area, an empty model, ..."},
+	{Expression, "expression error", "unknown parameter, syntax error, division by zero, non-finite value"},
+	{Unstable, "unstable structure", "a mechanism; `data.detail` carries its freedoms and node motions"},
+	{NotPlanar, "not planar", "members cross without a shared node"},
+	{NotInEquilibrium, "not in equilibrium", "forces that do not balance, with the closure error"},
+	{WrongDimension, "wrong dimension", "a 2D-only method given a 3D model"},
+	{MissingData, "missing data", "e.g. material limits needed for sizing"},
+	{Infeasible, "infeasible", "loads that cannot reach a support"},
+	{NoSolution, "no solution", "an edited force diagram no form fits"},
+	{UnknownCase, "unknown case", "a case or combination id that does not exist"},
+}
+
+// Kinds returns every kind with its name and when it is reported, in code
+// order.
+func Kinds() []KindInfo { return append([]KindInfo(nil), kinds...) }
 
 // Problem locates one defect in the input. Path is a JSON pointer (RFC 6901)
 // relative to the object the engine was given (for a model, the model object;

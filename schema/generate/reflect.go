@@ -53,6 +53,7 @@ func Generate(protocolDir string) ([]byte, error) {
 			root.Definitions[name] = def
 		}
 	}
+	root.Definitions["ErrorCode"] = errorCodeSchema()
 	out, err := json.MarshalIndent(root, "", "  ")
 	if err != nil {
 		return nil, err

@@ -137,79 +137,81 @@ export class ClientClosed extends GussetError {
   static kind = 'closed';
 }
 
-/** ParseError (-32700): the server could not read a line as JSON. */
+// BEGIN GENERATED: error classes (by go generate ./protocol from the error-code table; do not edit)
+
+/** ParseError (-32700): the line is not JSON, or is longer than `--max-line-bytes` (id null; reading goes on). */
 export class ParseError extends GussetError {
   static code = -32700;
   static kind = 'parse error';
 }
 
-/** InvalidRequest (-32600): the message is not a JSON-RPC 2.0 request. */
+/** InvalidRequest (-32600): not a JSON-RPC 2.0 request object; an id already in flight. */
 export class InvalidRequest extends GussetError {
   static code = -32600;
   static kind = 'invalid request';
 }
 
-/** MethodNotFound (-32601): the server has no such method. */
+/** MethodNotFound (-32601): unknown method. */
 export class MethodNotFound extends GussetError {
   static code = -32601;
   static kind = 'method not found';
 }
 
-/** InvalidParams (-32602): the params do not follow the method's schema. */
+/** InvalidParams (-32602): params do not follow the schema (wrong types, unknown fields, numbers out of double range). */
 export class InvalidParams extends GussetError {
   static code = -32602;
   static kind = 'invalid params';
 }
 
-/** InternalError (-32603): a bug in the server; the process goes on. */
+/** InternalError (-32603): a bug (a recovered panic); the process goes on. */
 export class InternalError extends GussetError {
   static code = -32603;
   static kind = 'internal error';
 }
 
-/** Cancelled (-32000): the request was stopped by a cancel request or an AbortSignal. */
+/** Cancelled (-32000): stopped by `cancel`. */
 export class Cancelled extends GussetError {
   static code = -32000;
   static kind = 'cancelled';
 }
 
-/** LimitExceeded (-32001): a limit in force was exceeded; detail holds the limit and the value. */
+/** LimitExceeded (-32001): a model or sweep over the limits. */
 export class LimitExceeded extends GussetError {
   static code = -32001;
   static kind = 'limit exceeded';
 }
 
-/** Overloaded (-32002): too many requests were waiting; send fewer at once. */
+/** Overloaded (-32002): reserved for too many waiting requests. */
 export class Overloaded extends GussetError {
   static code = -32002;
   static kind = 'overloaded';
 }
 
-/** ShuttingDown (-32003): the server is stopping and takes no new work. */
+/** ShuttingDown (-32003): the server is stopping. */
 export class ShuttingDown extends GussetError {
   static code = -32003;
   static kind = 'shutting down';
 }
 
-/** TimeLimit (-32004): the request ran longer than the server's wall-time limit. */
+/** TimeLimit (-32004): the request ran longer than `--time-limit`. */
 export class TimeLimit extends GussetError {
   static code = -32004;
   static kind = 'time limit';
 }
 
-/** InvalidModel (1000): semantic errors in the model (dangling ids, zero length, ...). */
+/** InvalidModel (1000): duplicate or dangling ids, zero-length members, coincident nodes, dimension mismatches, non-positive stiffness or area, an empty model, .... */
 export class InvalidModel extends GussetError {
   static code = 1000;
   static kind = 'invalid model';
 }
 
-/** ExpressionError (1001): an expression failed to parse or evaluate. */
+/** ExpressionError (1001): unknown parameter, syntax error, division by zero, non-finite value. */
 export class ExpressionError extends GussetError {
   static code = 1001;
   static kind = 'expression error';
 }
 
-/** UnstableStructure (1002): the structure is a mechanism; detail carries its motions. */
+/** UnstableStructure (1002): a mechanism; `data.detail` carries its freedoms and node motions. */
 export class UnstableStructure extends GussetError {
   static code = 1002;
   static kind = 'unstable structure';
@@ -221,51 +223,69 @@ export class NotPlanar extends GussetError {
   static kind = 'not planar';
 }
 
-/** NotInEquilibrium (1004): the forces do not balance within tolerance. */
+/** NotInEquilibrium (1004): forces that do not balance, with the closure error. */
 export class NotInEquilibrium extends GussetError {
   static code = 1004;
   static kind = 'not in equilibrium';
 }
 
-/** WrongDimension (1005): the method needs a 2D (or 3D) model. */
+/** WrongDimension (1005): a 2D-only method given a 3D model. */
 export class WrongDimension extends GussetError {
   static code = 1005;
   static kind = 'wrong dimension';
 }
 
-/** MissingData (1006): data the method needs is absent (material limits, ...). */
+/** MissingData (1006): e.g. material limits needed for sizing. */
 export class MissingData extends GussetError {
   static code = 1006;
   static kind = 'missing data';
 }
 
-/** Infeasible (1007): the optimisation problem has no solution. */
+/** Infeasible (1007): loads that cannot reach a support. */
 export class Infeasible extends GussetError {
   static code = 1007;
   static kind = 'infeasible';
 }
 
-/** NoSolution (1008): a requested geometric construction does not exist. */
+/** NoSolution (1008): an edited force diagram no form fits. */
 export class NoSolution extends GussetError {
   static code = 1008;
   static kind = 'no solution';
 }
 
-/** UnknownCase (1009): a load case or combination named in the request does not exist. */
+/** UnknownCase (1009): a case or combination id that does not exist. */
 export class UnknownCase extends GussetError {
   static code = 1009;
   static kind = 'unknown case';
 }
 
+/** wireErrors lists the classes of the wire codes, in code-table order. */
+export const wireErrors = [
+  ParseError,
+  InvalidRequest,
+  MethodNotFound,
+  InvalidParams,
+  InternalError,
+  Cancelled,
+  LimitExceeded,
+  Overloaded,
+  ShuttingDown,
+  TimeLimit,
+  InvalidModel,
+  ExpressionError,
+  UnstableStructure,
+  NotPlanar,
+  NotInEquilibrium,
+  WrongDimension,
+  MissingData,
+  Infeasible,
+  NoSolution,
+  UnknownCase,
+];
+// END GENERATED: error classes
+
 /** @type {Map<number, typeof GussetError>} */
-const byCode = new Map(
-  [
-    ParseError, InvalidRequest, MethodNotFound, InvalidParams, InternalError,
-    Cancelled, LimitExceeded, Overloaded, ShuttingDown, TimeLimit,
-    InvalidModel, ExpressionError, UnstableStructure, NotPlanar, NotInEquilibrium,
-    WrongDimension, MissingData, Infeasible, NoSolution, UnknownCase,
-  ].map((type) => [/** @type {number} */ (type.code), type]),
-);
+const byCode = new Map(wireErrors.map((type) => [/** @type {number} */ (type.code), type]));
 
 /**
  * errorClass returns the error class for a wire code, GussetError for unknown codes.

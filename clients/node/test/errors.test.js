@@ -1,34 +1,36 @@
 // Tests of the mapping from wire errors to error classes, and of finding the binary.
 
 import assert from 'node:assert/strict';
+import { execFileSync } from 'node:child_process';
 import { chmodSync, mkdtempSync, realpathSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { describe, test } from 'node:test';
 
 import * as gusset from '../src/index.js';
+import { binary } from '../testing/fixtures.js';
 
 describe('error classes', () => {
-  test('one per code', () => {
-    // JSON-RPC's reserved codes come from the JSON-RPC 2.0 specification
-    // (section 5.1); the server's own and the application codes from
-    // /work/shared/DESIGN.md, "Wire protocol", and protocol/message.go.
-    const table = [
-      [-32700, gusset.ParseError], [-32600, gusset.InvalidRequest], [-32601, gusset.MethodNotFound],
-      [-32602, gusset.InvalidParams], [-32603, gusset.InternalError], [-32000, gusset.Cancelled],
-      [-32001, gusset.LimitExceeded], [-32002, gusset.Overloaded], [-32003, gusset.ShuttingDown],
-      [-32004, gusset.TimeLimit], [1000, gusset.InvalidModel], [1001, gusset.ExpressionError],
-      [1002, gusset.UnstableStructure], [1003, gusset.NotPlanar], [1004, gusset.NotInEquilibrium],
-      [1005, gusset.WrongDimension], [1006, gusset.MissingData], [1007, gusset.Infeasible],
-      [1008, gusset.NoSolution], [1009, gusset.UnknownCase],
-    ];
-    for (const [code, type] of table) {
-      assert.equal(gusset.errorClass(code), type, String(code));
+  test('one per code of the published schema', (t) => {
+    // The codes come from the published schema's ErrorCode definition
+    // (`gusset schema`), the one table the server's codes and these classes
+    // are generated from; the reserved codes are JSON-RPC 2.0's (section 5.1).
+    const bin = binary();
+    if (!bin) return t.skip('no gusset binary: set GUSSET_BINARY or build it with go build -o gusset ./cmd/gusset');
+    const table = JSON.parse(execFileSync(bin, ['schema'], { encoding: 'utf8' })).$defs.ErrorCode.oneOf;
+    assert.ok(table.length >= 20);
+    for (const { const: code, title: kind } of table) {
+      const type = gusset.errorClass(code);
+      assert.equal(type.code, code, String(code));
+      assert.equal(type.kind, kind, String(code));
+      assert.equal(type.name, kind.split(' ').map((w) => w[0].toUpperCase() + w.slice(1)).join(''));
+      assert.equal(gusset[type.name], type);
       const err = gusset.fromWire({ code, message: 'm', data: { kind: 'k', problems: [] } });
       assert.ok(err instanceof type && err instanceof gusset.GussetError && err instanceof Error);
       assert.equal(err.code, code);
       assert.equal(err.name, type.name);
     }
+    assert.deepEqual(gusset.wireErrors.map((type) => type.code).sort(), table.map((e) => e.const).sort());
     assert.equal(gusset.errorClass(4242), gusset.GussetError);
   });
 

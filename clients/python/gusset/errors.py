@@ -14,7 +14,7 @@ Errors raised by the client itself (the binary missing, the process dying,
 a garbled output line, a timeout) have ``code`` None.
 """
 
-from typing import Any, Dict, List, NamedTuple, Optional, Sequence, Type
+from typing import Any, Dict, List, NamedTuple, Optional, Sequence, Tuple, Type
 
 __all__ = [
     "Problem",
@@ -24,6 +24,7 @@ __all__ = [
     "ProtocolError",
     "RequestTimeout",
     "ClientClosed",
+    # BEGIN GENERATED: error names
     "ParseError",
     "InvalidRequest",
     "MethodNotFound",
@@ -44,6 +45,7 @@ __all__ = [
     "Infeasible",
     "NoSolution",
     "UnknownCase",
+    # END GENERATED: error names
     "error_class",
     "from_wire",
 ]
@@ -177,98 +179,95 @@ class ClientClosed(GussetError):
     KIND = "closed"
 
 
+# BEGIN GENERATED: error classes (by go generate ./protocol from the error-code table; do not edit)
+
+
 class ParseError(GussetError):
-    """ParseError (-32700): the server could not read a line as JSON."""
+    """ParseError (-32700): the line is not JSON, or is longer than ``--max-line-bytes`` (id null; reading goes on)."""
 
     CODE = -32700
     KIND = "parse error"
 
 
 class InvalidRequest(GussetError):
-    """InvalidRequest (-32600): the message is not a JSON-RPC 2.0 request."""
+    """InvalidRequest (-32600): not a JSON-RPC 2.0 request object; an id already in flight."""
 
     CODE = -32600
     KIND = "invalid request"
 
 
 class MethodNotFound(GussetError):
-    """MethodNotFound (-32601): the server has no such method."""
+    """MethodNotFound (-32601): unknown method."""
 
     CODE = -32601
     KIND = "method not found"
 
 
 class InvalidParams(GussetError):
-    """InvalidParams (-32602): the params do not follow the method's schema."""
+    """InvalidParams (-32602): params do not follow the schema (wrong types, unknown fields, numbers out of double range)."""
 
     CODE = -32602
     KIND = "invalid params"
 
 
 class InternalError(GussetError):
-    """InternalError (-32603): a bug in the server; the process goes on."""
+    """InternalError (-32603): a bug (a recovered panic); the process goes on."""
 
     CODE = -32603
     KIND = "internal error"
 
 
 class Cancelled(GussetError):
-    """Cancelled (-32000): the request was stopped by a cancel request."""
+    """Cancelled (-32000): stopped by ``cancel``."""
 
     CODE = -32000
     KIND = "cancelled"
 
 
 class LimitExceeded(GussetError):
-    """LimitExceeded (-32001): a limit in force was exceeded.
-
-    ``detail`` holds the limit and the value when the server gives them.
-    """
+    """LimitExceeded (-32001): a model or sweep over the limits."""
 
     CODE = -32001
     KIND = "limit exceeded"
 
 
 class Overloaded(GussetError):
-    """Overloaded (-32002): too many requests were waiting; send fewer at once."""
+    """Overloaded (-32002): reserved for too many waiting requests."""
 
     CODE = -32002
     KIND = "overloaded"
 
 
 class ShuttingDown(GussetError):
-    """ShuttingDown (-32003): the server is stopping and takes no new work."""
+    """ShuttingDown (-32003): the server is stopping."""
 
     CODE = -32003
     KIND = "shutting down"
 
 
 class TimeLimit(GussetError):
-    """TimeLimit (-32004): the request ran longer than the server's wall-time limit."""
+    """TimeLimit (-32004): the request ran longer than ``--time-limit``."""
 
     CODE = -32004
     KIND = "time limit"
 
 
 class InvalidModel(GussetError):
-    """InvalidModel (1000): semantic errors in the model (dangling ids, zero length, ...)."""
+    """InvalidModel (1000): duplicate or dangling ids, zero-length members, coincident nodes, dimension mismatches, non-positive stiffness or area, an empty model, ...."""
 
     CODE = 1000
     KIND = "invalid model"
 
 
 class ExpressionError(GussetError):
-    """ExpressionError (1001): an expression failed to parse or evaluate."""
+    """ExpressionError (1001): unknown parameter, syntax error, division by zero, non-finite value."""
 
     CODE = 1001
     KIND = "expression error"
 
 
 class UnstableStructure(GussetError):
-    """UnstableStructure (1002): the structure is a mechanism.
-
-    ``detail`` carries the mechanism's freedoms and node motions.
-    """
+    """UnstableStructure (1002): a mechanism; ``data.detail`` carries its freedoms and node motions."""
 
     CODE = 1002
     KIND = "unstable structure"
@@ -282,73 +281,73 @@ class NotPlanar(GussetError):
 
 
 class NotInEquilibrium(GussetError):
-    """NotInEquilibrium (1004): the forces do not balance within tolerance."""
+    """NotInEquilibrium (1004): forces that do not balance, with the closure error."""
 
     CODE = 1004
     KIND = "not in equilibrium"
 
 
 class WrongDimension(GussetError):
-    """WrongDimension (1005): the method needs a 2D (or 3D) model."""
+    """WrongDimension (1005): a 2D-only method given a 3D model."""
 
     CODE = 1005
     KIND = "wrong dimension"
 
 
 class MissingData(GussetError):
-    """MissingData (1006): data the method needs is absent (material limits, ...)."""
+    """MissingData (1006): e.g. material limits needed for sizing."""
 
     CODE = 1006
     KIND = "missing data"
 
 
 class Infeasible(GussetError):
-    """Infeasible (1007): the optimisation problem has no solution."""
+    """Infeasible (1007): loads that cannot reach a support."""
 
     CODE = 1007
     KIND = "infeasible"
 
 
 class NoSolution(GussetError):
-    """NoSolution (1008): a requested geometric construction does not exist."""
+    """NoSolution (1008): an edited force diagram no form fits."""
 
     CODE = 1008
     KIND = "no solution"
 
 
 class UnknownCase(GussetError):
-    """UnknownCase (1009): a load case or combination named in the request does not exist."""
+    """UnknownCase (1009): a case or combination id that does not exist."""
 
     CODE = 1009
     KIND = "unknown case"
 
 
-_BY_CODE: Dict[int, Type[GussetError]] = {
-    cls.CODE: cls
-    for cls in (
-        ParseError,
-        InvalidRequest,
-        MethodNotFound,
-        InvalidParams,
-        InternalError,
-        Cancelled,
-        LimitExceeded,
-        Overloaded,
-        ShuttingDown,
-        TimeLimit,
-        InvalidModel,
-        ExpressionError,
-        UnstableStructure,
-        NotPlanar,
-        NotInEquilibrium,
-        WrongDimension,
-        MissingData,
-        Infeasible,
-        NoSolution,
-        UnknownCase,
-    )
-    if cls.CODE is not None
-}
+#: WIRE_ERRORS lists the classes of the wire codes, in code-table order.
+WIRE_ERRORS: Tuple[Type[GussetError], ...] = (
+    ParseError,
+    InvalidRequest,
+    MethodNotFound,
+    InvalidParams,
+    InternalError,
+    Cancelled,
+    LimitExceeded,
+    Overloaded,
+    ShuttingDown,
+    TimeLimit,
+    InvalidModel,
+    ExpressionError,
+    UnstableStructure,
+    NotPlanar,
+    NotInEquilibrium,
+    WrongDimension,
+    MissingData,
+    Infeasible,
+    NoSolution,
+    UnknownCase,
+)
+# END GENERATED: error classes
+
+_BY_CODE: Dict[int, Type[GussetError]] = {cls.CODE: cls for cls in WIRE_ERRORS if cls.CODE is not None}
 
 
 def error_class(code: int) -> Type[GussetError]:

@@ -1,5 +1,7 @@
 """Tests of the mapping from wire errors to exceptions."""
 
+import json
+import subprocess
 import unittest
 
 import support  # noqa: F401 (puts the package on sys.path)
@@ -8,38 +10,27 @@ from support import gusset
 
 class ErrorClassTest(unittest.TestCase):
     def test_codes(self) -> None:
-        # JSON-RPC's reserved codes come from the JSON-RPC 2.0 specification
-        # (section 5.1); the server's own and the application codes from
-        # /work/shared/DESIGN.md, "Wire protocol", and protocol/message.go.
-        table = [
-            (-32700, gusset.ParseError),
-            (-32600, gusset.InvalidRequest),
-            (-32601, gusset.MethodNotFound),
-            (-32602, gusset.InvalidParams),
-            (-32603, gusset.InternalError),
-            (-32000, gusset.Cancelled),
-            (-32001, gusset.LimitExceeded),
-            (-32002, gusset.Overloaded),
-            (-32003, gusset.ShuttingDown),
-            (-32004, gusset.TimeLimit),
-            (1000, gusset.InvalidModel),
-            (1001, gusset.ExpressionError),
-            (1002, gusset.UnstableStructure),
-            (1003, gusset.NotPlanar),
-            (1004, gusset.NotInEquilibrium),
-            (1005, gusset.WrongDimension),
-            (1006, gusset.MissingData),
-            (1007, gusset.Infeasible),
-            (1008, gusset.NoSolution),
-            (1009, gusset.UnknownCase),
-        ]
-        for code, cls in table:
+        # The codes come from the published schema's ErrorCode definition
+        # (`gusset schema`), the one table the server's codes and these
+        # classes are generated from; the reserved codes are JSON-RPC 2.0's
+        # (section 5.1).
+        schema = json.loads(subprocess.run([support.binary(), "schema"], check=True, capture_output=True).stdout)
+        table = schema["$defs"]["ErrorCode"]["oneOf"]
+        self.assertGreaterEqual(len(table), 20)
+        for entry in [e for e in table if -32768 <= e["const"] <= -32000]:
+            self.assertIn(entry["const"], (-32700, -32600, -32601, -32602, -32603) + tuple(range(-32099, -31999)))
+        for entry in table:
+            code, kind = entry["const"], entry["title"]
             with self.subTest(code=code):
-                self.assertIs(gusset.error_class(code), cls)
+                cls = gusset.error_class(code)
+                self.assertEqual((cls.CODE, cls.KIND), (code, kind))
+                self.assertEqual(cls.__name__, "".join(w[:1].upper() + w[1:] for w in kind.split()))
+                self.assertIs(getattr(gusset, cls.__name__), cls)
                 err = gusset.from_wire({"code": code, "message": "m", "data": {"kind": "k", "problems": []}})
                 self.assertIsInstance(err, cls)
                 self.assertIsInstance(err, gusset.GussetError)
                 self.assertEqual(err.code, code)
+        self.assertEqual(sorted(c.CODE for c in gusset.errors.WIRE_ERRORS), sorted(e["const"] for e in table))
         self.assertIs(gusset.error_class(4242), gusset.GussetError)
 
     def test_fields(self) -> None:

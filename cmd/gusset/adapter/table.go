@@ -29,6 +29,7 @@ import (
 	"encoding/json"
 	"reflect"
 
+	"gusset/engine/fault"
 	"gusset/engine/model"
 	"gusset/protocol"
 	"gusset/protocol/jsonrpc"
@@ -162,4 +163,15 @@ func SchemaTypes() []any {
 		out = append(out, reflect.Zero(e.params).Interface(), reflect.Zero(e.result).Interface())
 	}
 	return append(out, detailTypes...)
+}
+
+// ErrorCodes returns every error code the server sends: the transport's
+// (protocol.ServerCodes) and then the engine's fault kinds, for the
+// schema's ErrorCode definition and the clients generated from it.
+func ErrorCodes() []protocol.CodeInfo {
+	out := append([]protocol.CodeInfo(nil), protocol.ServerCodes...)
+	for _, k := range fault.Kinds() {
+		out = append(out, protocol.CodeInfo{Code: k.Kind.Code(), Kind: k.Name, When: k.When})
+	}
+	return out
 }
