@@ -11,6 +11,8 @@ func TestWithoutNegativeZeros(t *testing.T) {
 		{"(-0.0,-0.0)", "(0.0,0.0)"},
 		{"-0.05 -10.0 -0.5 x-0.01 -100", "-0.05 -10.0 -0.5 x-0.01 -100"},
 		{"M = -0.0 kN·m", "M = 0.0 kN·m"},
+		{"at -0.0.", "at 0.0."},
+		{"-0.", "0."},
 	} {
 		if got := withoutNegativeZeros(tc.in); got != tc.want {
 			t.Errorf("withoutNegativeZeros(%q) = %q, want %q", tc.in, got, tc.want)
