@@ -20,6 +20,9 @@ type SolveResult struct {
 	Unchecked []Problem `json:"unchecked"`
 	// Stats describes the system solved.
 	Stats SolveStats `json:"stats"`
+	// Picture is the SVG drawing of the first reported case, when asked
+	// for.
+	Picture string `json:"picture,omitempty"`
 	// Caution: results are for preliminary design.
 	Caution string `json:"caution"`
 }
