@@ -10,6 +10,7 @@ import (
 	"io"
 	"os"
 	"path/filepath"
+	"strconv"
 	"strings"
 	"time"
 
@@ -38,6 +39,8 @@ type demo struct {
 	server *jsonrpc.Server
 	model  json.RawMessage
 	next   int
+	// answers are the requests and results so far, for report.html.
+	answers []answered
 }
 
 func runDemo(args []string, stdout, stderr io.Writer) int {
@@ -62,7 +65,13 @@ func runDemo(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintf(stderr, "gusset demo: %v\n", err)
 		return 1
 	}
-	fmt.Fprintf(stdout, "\nDone in %d ms. Pictures are in %s/.\n\n%s\n", time.Since(start).Milliseconds(), *dir, adapter.Caution)
+	report := filepath.Join(*dir, "report.html")
+	if err := writeReport(report, "Gusset demo: the Brannock Cut footbridge, Esker Vale", d.answers); err != nil {
+		fmt.Fprintf(stderr, "gusset demo: %v\n", err)
+		return 1
+	}
+	fmt.Fprintf(stdout, "\nDone in %d ms. Pictures are in %s/; the whole study in one page: %s\n\n%s\n",
+		time.Since(start).Milliseconds(), *dir, report, adapter.Caution)
 	return 0
 }
 
@@ -92,7 +101,14 @@ func (d *demo) call(method string, params map[string]any, result any) error {
 		if msg.Error != nil {
 			return fmt.Errorf("%s failed: %s", method, msg.Error.Message)
 		}
-		return json.Unmarshal(msg.Result, result)
+		if err := json.Unmarshal(msg.Result, result); err != nil {
+			return err
+		}
+		p, _ := json.Marshal(params)
+		id := json.RawMessage(strconv.Itoa(d.next))
+		d.answers = append(d.answers, answered{ID: id, Method: method, Params: p,
+			Response: &protocol.Response{JSONRPC: "2.0", ID: id, Result: result}})
+		return nil
 	}
 	return fmt.Errorf("%s: no response", method)
 }
@@ -117,7 +133,10 @@ func (d *demo) run() error {
 
 	// 1. Analysis.
 	var solved protocol.SolveResult
-	if err := d.call("solve", map[string]any{"model": d.model}, &solved); err != nil {
+	if err := d.call("solve", map[string]any{"model": d.model, "cases": []string{"ultimate", "dead", "crowd"}, "picture": true}, &solved); err != nil {
+		return err
+	}
+	if err := os.WriteFile(filepath.Join(d.dir, "deflected-shape.svg"), []byte(solved.Picture), 0o644); err != nil {
 		return err
 	}
 	d.say("1. Stiffness analysis (solve)\n")
@@ -145,10 +164,6 @@ func (d *demo) run() error {
 		d.say("\n   Warnings: %s\n\n", strings.Join(solved.Warnings, "; "))
 	}
 	if err := d.diagrams(g.ID); err != nil {
-		return err
-	}
-
-	if err := d.crossBeam(); err != nil {
 		return err
 	}
 

@@ -2,12 +2,12 @@ package main
 
 import (
 	"context"
+	"errors"
 	"flag"
 	"fmt"
 	"io"
 	"os"
 	"os/signal"
-	"path/filepath"
 	"runtime/debug"
 	"strings"
 	"sync"
@@ -25,12 +25,21 @@ const usage = `gusset: a structural solver process driven by JSON-RPC lines.
 
 Usage:
   gusset [serve] [flags]      read requests on stdin, answer on stdout (the default)
-  gusset run [flags] FILE|-   answer the requests in FILE (or stdin) and exit;
-                              the exit status is 1 when any request failed
+  gusset run FILE|- [flags]   answer the requests in FILE (or stdin) and exit;
+                              flags may come before or after FILE. FILE holds
+                              one request per line, or one JSON document (a
+                              request, pretty-printed or not, or an array of
+                              requests). Answers come out in the file's order
+                              (--ordered=false: as they finish). The exit
+                              status is 1 when any request failed.
   gusset schema               print the published JSON Schema
-  gusset demo [--out DIR]     run the built-in demonstration scenario
+  gusset demo [--out DIR]     run the built-in demonstration scenario and write
+                              its pictures and report.html into DIR
   gusset --version            print the version
-  gusset --help               print this help
+  gusset --help               print this help (also: gusset COMMAND --help)
+
+Progress notifications go to stdout with the answers unless
+--notifications says stderr (as JSON lines) or none.
 
 Flags of serve and run:
 `
@@ -43,37 +52,48 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 			fmt.Fprintf(stdout, "gusset %s (protocol %s)\n", version, protocol.Version)
 			return 0
 		case "--help", "-help", "-h", "help":
-			fmt.Fprint(stdout, usage)
-			f := newFlags(stdout)
-			f.fs.PrintDefaults()
+			printHelp(stdout)
 			return 0
 		case "schema":
+			if len(args) > 1 {
+				if isHelp(args[1]) {
+					fmt.Fprint(stdout, "gusset schema: print the published JSON Schema (draft 2020-12) of every\nrequest, result and error to stdout. It takes no flags.\n")
+					return 0
+				}
+				fmt.Fprintf(stderr, "gusset schema: unexpected argument %q; try gusset schema --help\n", args[1])
+				return 2
+			}
 			stdout.Write(schema.Document)
 			return 0
 		case "demo":
 			return runDemo(args[1:], stdout, stderr)
 		case "serve":
-			return serve(args[1:], stdin, stdout, stderr, false)
+			return serve(args[1:], stdin, stdout, stderr)
 		case "run":
-			return serve(args[1:], stdin, stdout, stderr, true)
+			return runFile(args[1:], stdin, stdout, stderr)
 		}
 		if !strings.HasPrefix(args[0], "-") {
 			fmt.Fprintf(stderr, "gusset: unknown command %q; try gusset --help\n", args[0])
 			return 2
 		}
 	}
-	return serve(args, stdin, stdout, stderr, false)
+	return serve(args, stdin, stdout, stderr)
 }
 
 type flags struct {
-	fs       *flag.FlagSet
-	limits   protocol.Limits
-	pictures string
+	fs            *flag.FlagSet
+	limits        protocol.Limits
+	pictures      string
+	report        string
+	csv           string
+	ordered       bool
+	notifications string
 }
 
 func newFlags(out io.Writer) *flags {
 	f := &flags{fs: flag.NewFlagSet("gusset", flag.ContinueOnError)}
 	f.fs.SetOutput(out)
+	f.fs.Usage = func() {} // --help is answered by printHelp, on stdout
 	d := protocol.Limits{}.WithDefaults()
 	f.fs.IntVar(&f.limits.Workers, "jobs", d.Workers, "requests worked on at once")
 	f.fs.IntVar(&f.limits.MaxLineBytes, "max-line-bytes", d.MaxLineBytes, "largest request line accepted, in bytes")
@@ -84,7 +104,11 @@ func newFlags(out io.Writer) *flags {
 	f.fs.IntVar(&f.limits.MaxQueued, "max-queued", d.MaxQueued, "requests that may wait for a worker whatever their size")
 	f.fs.IntVar(&f.limits.ReadAheadBytes, "read-ahead-bytes", d.ReadAheadBytes, "bytes of further waiting requests read ahead beyond --max-queued, so cancel is never held up behind small requests")
 	f.fs.Float64Var(&f.limits.TimeLimitSeconds, "time-limit", 0, "wall time allowed per request in seconds (0: none)")
-	f.fs.StringVar(&f.pictures, "pictures", "", "run only: write every picture a result carries into this folder, as ID.svg")
+	f.fs.StringVar(&f.pictures, "pictures", "", "run only: ask every request that can draw a picture for one, and write them into this folder as ID.svg")
+	f.fs.StringVar(&f.report, "report", "", "run only: write one self-contained report.html of every answer into this folder")
+	f.fs.StringVar(&f.csv, "csv", "", "run only: write the member and node results as CSV files (one per result table, with a header line) into this folder")
+	f.fs.BoolVar(&f.ordered, "ordered", true, "run only: write answers in the file's order (false: as they finish)")
+	f.fs.StringVar(&f.notifications, "notifications", notifyStdout, "where progress notifications go: stdout (with the answers), stderr, or none")
 	return f
 }
 
@@ -97,28 +121,53 @@ func newServer(limits protocol.Limits, log io.Writer) (*jsonrpc.Server, error) {
 	return s, nil
 }
 
-func serve(args []string, stdin io.Reader, stdout, stderr io.Writer, oneShot bool) int {
+// parseInterleaved parses flags that may come before or after the
+// positional arguments, and returns the positional ones.
+func (f *flags) parseInterleaved(args []string) ([]string, error) {
+	var positional []string
+	for {
+		if err := f.fs.Parse(args); err != nil {
+			return nil, err
+		}
+		rest := f.fs.Args()
+		if len(rest) == 0 {
+			return positional, nil
+		}
+		positional = append(positional, rest[0])
+		args = rest[1:]
+	}
+}
+
+func printHelp(w io.Writer) {
+	fmt.Fprint(w, usage)
+	f := newFlags(w)
+	f.fs.PrintDefaults()
+}
+
+func isHelp(arg string) bool {
+	return arg == "--help" || arg == "-help" || arg == "-h"
+}
+
+func serve(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	f := newFlags(stderr)
-	if err := f.fs.Parse(args); err != nil {
+	positional, err := f.parseInterleaved(args)
+	if errors.Is(err, flag.ErrHelp) {
+		printHelp(stdout)
+		return 0
+	}
+	if err != nil {
 		return 2
 	}
-	in := stdin
-	if oneShot {
-		if f.fs.NArg() != 1 {
-			fmt.Fprintln(stderr, "gusset run: give one FILE of requests (one JSON-RPC request per line), or - for stdin")
-			return 2
-		}
-		if name := f.fs.Arg(0); name != "-" {
-			file, err := os.Open(name)
-			if err != nil {
-				fmt.Fprintf(stderr, "gusset run: %v\n", err)
-				return 2
-			}
-			defer file.Close()
-			in = file
-		}
-	} else if f.fs.NArg() > 0 {
-		fmt.Fprintf(stderr, "gusset serve: unexpected argument %q\n", f.fs.Arg(0))
+	if len(positional) > 0 {
+		fmt.Fprintf(stderr, "gusset serve: unexpected argument %q\n", positional[0])
+		return 2
+	}
+	if f.pictures != "" || f.report != "" || f.csv != "" {
+		fmt.Fprintln(stderr, "gusset serve: --pictures, --report and --csv belong to gusset run")
+		return 2
+	}
+	out, notify, ok := f.outputs(stdout, stderr)
+	if !ok {
 		return 2
 	}
 	tuneMemory()
@@ -127,33 +176,36 @@ func serve(args []string, stdin io.Reader, stdout, stderr io.Writer, oneShot boo
 		fmt.Fprintf(stderr, "gusset: %v\n", err)
 		return 1
 	}
-	if f.pictures != "" {
-		if !oneShot {
-			fmt.Fprintln(stderr, "gusset serve: --pictures belongs to gusset run")
-			return 2
-		}
-		if err := os.MkdirAll(f.pictures, 0o755); err != nil {
-			fmt.Fprintf(stderr, "gusset run: %v\n", err)
-			return 2
-		}
-		s.OnResponse = pictureWriter(f.pictures, stderr)
-	}
-	if oneShot && isTerminal(stderr) {
-		bar := &progressBar{out: stderr}
-		s.OnProgress = bar.update
-		defer bar.clear()
+	var router *outputRouter
+	if notify != out {
+		router = newOutputRouter(out, notify, nil)
+		out = router
 	}
 	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt)
 	defer stop()
-	failures, err := s.Serve(ctx, in, stdout)
+	_, err = s.Serve(ctx, stdin, out)
+	if router != nil && err == nil {
+		err = router.Close()
+	}
 	if err != nil {
 		fmt.Fprintf(stderr, "gusset: writing output: %v\n", err)
 		return 1
 	}
-	if oneShot && failures > 0 {
-		return 1
-	}
 	return 0
+}
+
+// outputs returns where answers and notifications go.
+func (f *flags) outputs(stdout, stderr io.Writer) (out, notify io.Writer, ok bool) {
+	switch f.notifications {
+	case notifyStdout:
+		return stdout, stdout, true
+	case notifyStderr:
+		return stdout, stderr, true
+	case notifyNone:
+		return stdout, nil, true
+	}
+	fmt.Fprintf(stderr, "gusset: --notifications is one of stdout, stderr, none; not %q\n", f.notifications)
+	return nil, nil, false
 }
 
 func isTerminal(w io.Writer) bool {
@@ -177,11 +229,11 @@ func (b *progressBar) update(p *protocol.Progress) {
 	defer b.mu.Unlock()
 	const width = 30
 	line := fmt.Sprintf("%s %s", string(p.Request), p.Stage)
-	if p.Total > 0 {
+	if p.Total > 0 && p.Done <= p.Total {
 		filled := width * p.Done / p.Total
 		line += fmt.Sprintf(" [%s%s] %d/%d", strings.Repeat("#", filled), strings.Repeat(".", width-filled), p.Done, p.Total)
 	} else {
-		line += fmt.Sprintf(" %d", p.Done)
+		line += fmt.Sprintf(": %d done", p.Done) // no total known: no bar
 	}
 	fmt.Fprintf(b.out, "\r\033[K%s", line)
 	b.drawn = true
@@ -214,36 +266,5 @@ func tuneMemory() {
 	}
 	if os.Getenv("GOMEMLIMIT") == "" {
 		debug.SetMemoryLimit(memoryLimit)
-	}
-}
-
-// pictureWriter returns a response hook that writes the SVG picture of a
-// result (reciprocate and optimise-layout, when asked with "picture": true)
-// into dir as ID.svg, the id made safe for a file name.
-func pictureWriter(dir string, stderr io.Writer) func(r *protocol.Response) {
-	var mu sync.Mutex
-	return func(r *protocol.Response) {
-		var picture string
-		switch v := r.Result.(type) {
-		case *protocol.ReciprocateResult:
-			picture = v.Picture
-		case *protocol.LayoutResult:
-			picture = v.Picture
-		}
-		if picture == "" {
-			return
-		}
-		name := strings.Map(func(c rune) rune {
-			if c == '/' || c == '\\' || c == '"' || c < ' ' {
-				return '_'
-			}
-			return c
-		}, strings.Trim(string(r.ID), `"`))
-		mu.Lock()
-		defer mu.Unlock()
-		file := filepath.Join(dir, name+".svg")
-		if err := os.WriteFile(file, []byte(picture), 0o644); err != nil {
-			fmt.Fprintf(stderr, "gusset run: writing %s: %v\n", file, err)
-		}
 	}
 }

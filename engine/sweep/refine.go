@@ -193,7 +193,9 @@ func (r *refiner) evaluate(x []float64) ([]float64, map[string]float64, error) {
 	} else {
 		step.Metrics = metrics
 	}
-	r.rep.Progress(StageRefining, r.ref.Evaluations, r.maxEval, step)
+	// Total 0 (unknown): the cap is a bound, not a forecast; Brent's
+	// method usually stops far below it.
+	r.rep.Progress(StageRefining, r.ref.Evaluations, 0, step)
 	return values, metrics, err
 }
 

@@ -54,7 +54,7 @@ type Result struct {
 // Stage names reported through progress.Reporter.
 const (
 	StageStep     = "step"     // partial: a Step; done/total count this shard's steps
-	StageRefining = "refining" // partial: a Step (Index −1); done counts evaluations, total is the cap
+	StageRefining = "refining" // partial: a Step (Index −1); done counts evaluations, total is 0 (unknown)
 )
 
 // Run evaluates the plan's steps with plan.Workers goroutines and, when the

@@ -1,11 +1,8 @@
 package adapter
 
 import (
-	"bytes"
-
 	"gusset/engine/fault"
 	"gusset/engine/model"
-	"gusset/engine/render"
 	"gusset/engine/stiffness"
 	"gusset/protocol"
 )
@@ -142,32 +139,4 @@ func loadPathCaveats(m *model.Model, r *stiffness.Result) []string {
 		}
 	}
 	return out
-}
-
-// solvePicture draws the first reported case: for a 2D model with beams,
-// the bending-moment diagram and the deflected shape along the members
-// (render.Beams, from the stations); otherwise, or without stations, the
-// deflected shape with the members styled by their axial force
-// (render.Solved).
-func solvePicture(m *model.Model, res *stiffness.Result) (string, error) {
-	c := &res.Cases[0]
-	var svg bytes.Buffer
-	var curves []render.BeamCurve
-	if m.Dim == 2 {
-		for e := range c.Members {
-			r := &c.Members[e]
-			if len(r.Stations) == 0 {
-				continue
-			}
-			curves = append(curves, render.BeamCurve{Member: e, Stations: r.Stations, Moment: r.MomentZ, Displacements: r.Displacements,
-				PeakMoment: [2]float64{r.PeakMomentZ.Value, r.PeakMomentZ.At}, PeakDisplacement: [2]float64{r.PeakDisplacement.Value, r.PeakDisplacement.At}})
-		}
-	}
-	if len(curves) > 0 {
-		err := render.Beams(&svg, m, c.Displacements, curves, render.Options{Title: "Moments and deflections along the members: " + c.ID})
-		return svg.String(), err
-	}
-	title := "Deflected shape and axial forces: " + c.ID
-	err := render.Solved(&svg, m, c.Displacements, c.AxialForce, render.Options{Title: title, ForceLabels: len(m.Members) <= 12})
-	return svg.String(), err
 }
