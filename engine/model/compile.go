@@ -176,6 +176,7 @@ func (c *compiler) number(v Value, path func() string, bind binding) (float64, *
 	if len(ce.prog.Uses()) == 0 {
 		return x, nil
 	}
+	c.markUsed(ce.prog.Uses())
 	if bind.set != nil {
 		bind.path = path()
 		bind.source = v.Expr

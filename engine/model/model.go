@@ -46,7 +46,8 @@ type Model struct {
 	Cases        []LoadCase
 	Combinations []Combination
 
-	bindings []binding
+	bindings  []binding
+	paramUsed []bool // by parameter: some expression reads it
 }
 
 // Member is a compiled member.

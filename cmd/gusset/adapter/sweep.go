@@ -25,6 +25,11 @@ func (a *Adapter) sweep(ctx context.Context, r *request[protocol.SweepParams]) (
 				fmt.Sprintf("The model has no parameter %q; its parameters are %q.", axis.Name, m.ParamNames),
 				protocol.Problem{Path: fmt.Sprintf("/params/parameters/%d/name", i), Message: "not a model parameter"})
 		}
+		if !m.ParamUsed(m.ParamIndex(axis.Name)) {
+			return nil, protocol.NewError(protocol.CodeInvalidParams, "invalid params",
+				fmt.Sprintf("No expression of the model reads parameter %q, so sweeping it changes nothing; write it into a coordinate, load, section or material expression.", axis.Name),
+				protocol.Problem{Path: fmt.Sprintf("/params/parameters/%d/name", i), Message: "no expression of the model reads this parameter"})
+		}
 		names[i] = axis.Name
 		plan.Axes = append(plan.Axes, sweep.Axis{Name: axis.Name, Values: values})
 	}
