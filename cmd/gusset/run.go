@@ -114,7 +114,7 @@ func newFlags(out io.Writer) *flags {
 
 // newServer builds a server with every method registered.
 func newServer(limits protocol.Limits, log io.Writer) (*jsonrpc.Server, error) {
-	s := &jsonrpc.Server{Name: "gusset", Version: version, Limits: limits, Log: log}
+	s := &jsonrpc.Server{Name: "gusset", Version: version, Limits: limits, Log: log, Suggest: schema.Closest}
 	if err := adapter.Register(s); err != nil {
 		return nil, err
 	}

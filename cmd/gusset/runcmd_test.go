@@ -175,3 +175,26 @@ func TestProgressBarWithoutTotal(t *testing.T) {
 		t.Errorf("progress line %q", got)
 	}
 }
+
+// TestMessagesHintAndListWithCommas checks, through the command, that a
+// misspelt method gets a did-you-mean leading its message, that a far one
+// does not, and that lists of names print with commas.
+func TestMessagesHintAndListWithCommas(t *testing.T) {
+	in := `{"jsonrpc":"2.0","id":1,"method":"Solve"}` + "\n" +
+		`{"jsonrpc":"2.0","id":2,"method":"load_path"}` + "\n" +
+		`{"jsonrpc":"2.0","id":3,"method":"frobnicate"}` + "\n"
+	_, out, _ := runCapture([]string{"run", "-"}, in)
+	msgs := readMessages(t, out)
+	if len(msgs) != 3 {
+		t.Fatalf("%d answers", len(msgs))
+	}
+	message := func(m map[string]any) string { return m["error"].(map[string]any)["message"].(string) }
+	for i, want := range []string{`did you mean "solve"?`, `did you mean "load-path"?`} {
+		if msg := message(msgs[i]); !strings.Contains(msg, want) || strings.Index(msg, want) > strings.Index(msg, "The methods") {
+			t.Errorf("answer %d: %q, want %q before the list", i+1, msg, want)
+		}
+	}
+	if msg := message(msgs[2]); strings.Contains(msg, "did you mean") || !strings.Contains(msg, `"cancel", "describe", `) {
+		t.Errorf("far name: %q, want no hint and a list with commas", msg)
+	}
+}

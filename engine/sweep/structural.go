@@ -4,6 +4,8 @@ import (
 	"context"
 	"fmt"
 	"math"
+	"strconv"
+	"strings"
 
 	"gusset/engine/fault"
 	"gusset/engine/loadpath"
@@ -83,7 +85,7 @@ func ModelEvaluatorModal(m *model.Model, names, metrics []string, solve Solver, 
 		}
 		if !known {
 			return nil, &PlanError{Path: fmt.Sprintf("/metrics/%d", i),
-				Message: fmt.Sprintf("unknown metric %q (known: %q)", name, knownMetrics)}
+				Message: fmt.Sprintf("unknown metric %q (known: %s)", name, quotedList(knownMetrics))}
 		}
 		want[name] = true
 	}
@@ -147,4 +149,13 @@ func set(out map[string]float64, want map[string]bool, name string, v float64) {
 	if want[name] {
 		out[name] = v
 	}
+}
+
+// quotedList writes names quoted and separated by commas: "a", "b".
+func quotedList(names []string) string {
+	quoted := make([]string, len(names))
+	for i, n := range names {
+		quoted[i] = strconv.Quote(n)
+	}
+	return strings.Join(quoted, ", ")
 }

@@ -143,7 +143,7 @@ func (s *Server) request(members map[string]json.RawMessage) (*call, *protocol.R
 	}
 	if method != protocol.MethodCancel && method != protocol.MethodDescribe && s.methods[method] == nil {
 		return nil, errorResponse(id, protocol.NewError(protocol.CodeMethodNotFound, "method not found",
-			fmt.Sprintf("There is no method %q; the methods are %s.", method, s.methodList()), protocol.Problem{Path: "/method", Message: "unknown method"}))
+			s.methodNotFound(method), protocol.Problem{Path: "/method", Message: "unknown method"}))
 	}
 	params := bytes.TrimSpace(members["params"])
 	if len(params) == 0 || string(params) == "null" {

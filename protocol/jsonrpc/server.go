@@ -8,6 +8,7 @@ import (
 	"io"
 	"reflect"
 	"sort"
+	"strings"
 
 	"gusset/protocol"
 )
@@ -45,6 +46,10 @@ type Server struct {
 	OnProgress func(p *protocol.Progress)
 	// OnResponse, if set, sees every final response before it is written.
 	OnResponse func(r *protocol.Response)
+	// Suggest, if set, returns the name in names nearest to a misspelt
+	// method name, or "": the method-not-found message then leads with
+	// "did you mean ...?".
+	Suggest func(name string, names []string) string
 
 	methods  map[string]Handler
 	describe []protocol.Method
@@ -91,14 +96,32 @@ func (s *Server) describeResult(limits protocol.Limits) protocol.DescribeResult 
 		Methods: methods, Limits: limits, SchemaID: s.SchemaID}
 }
 
-// methodList names every method, for the method-not-found message.
-func (s *Server) methodList() string {
+// methodNames lists every method, sorted.
+func (s *Server) methodNames() []string {
 	names := []string{protocol.MethodDescribe, protocol.MethodCancel}
 	for n := range s.methods {
 		names = append(names, n)
 	}
 	sort.Strings(names)
-	return fmt.Sprintf("%q", names)
+	return names
+}
+
+// methodNotFound is the message for an unknown method: a did-you-mean
+// first when Suggest finds a near name, then the methods as a list with
+// commas ("cancel", "describe", ...).
+func (s *Server) methodNotFound(method string) string {
+	names := s.methodNames()
+	quoted := make([]string, len(names))
+	for i, n := range names {
+		quoted[i] = fmt.Sprintf("%q", n)
+	}
+	msg := fmt.Sprintf("There is no method %q; the methods are %s.", method, strings.Join(quoted, ", "))
+	if s.Suggest != nil {
+		if near := s.Suggest(method, names); near != "" {
+			msg = fmt.Sprintf("There is no method %q: did you mean %q? The methods are %s.", method, near, strings.Join(quoted, ", "))
+		}
+	}
+	return msg
 }
 
 func (s *Server) logf(format string, args ...any) {

@@ -6,6 +6,7 @@ import (
 	"encoding/json"
 	"errors"
 	"fmt"
+	"strconv"
 	"strings"
 
 	"gusset/engine/fault"
@@ -178,5 +179,14 @@ func checkCases(m *model.Model, ids []string, pointer string) error {
 		known = append(known, c.ID)
 	}
 	return protocol.NewError(fault.UnknownCase.Code(), fault.UnknownCase.String(),
-		fmt.Sprintf("%s; the model's cases and combinations are %q.", problems[0].Message, known), problems...)
+		fmt.Sprintf("%s; the model's cases and combinations are %s.", problems[0].Message, quotedList(known)), problems...)
+}
+
+// quotedList writes names quoted and separated by commas: "a", "b".
+func quotedList(names []string) string {
+	quoted := make([]string, len(names))
+	for i, n := range names {
+		quoted[i] = strconv.Quote(n)
+	}
+	return strings.Join(quoted, ", ")
 }
