@@ -95,6 +95,9 @@ func checkProblem(p *Problem) (int, error) {
 	if !(p.TensionLimit > 0) || !(p.CompressionLimit > 0) || !finite(p.TensionLimit) || !finite(p.CompressionLimit) {
 		return 0, fault.At(fault.MissingData, "/tension_limit", "positive, finite tension and compression limits are needed (got %g and %g)", p.TensionLimit, p.CompressionLimit)
 	}
+	if err := checkLimitScale(p); err != nil {
+		return 0, err
+	}
 	if !(p.JointCost >= 0) || !finite(p.JointCost) {
 		return 0, fault.At(fault.InvalidModel, "/joint_cost", "the joint cost must be a finite length ≥ 0, got %g", p.JointCost)
 	}
