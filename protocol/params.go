@@ -98,9 +98,9 @@ type SweepParams struct {
 	// Model is the structure; the swept parameters must be among its
 	// parameters.
 	Model Model `json:"model"`
-	// Parameters are the swept parameters: one (a line) or two (a grid,
-	// the second varying fastest).
-	Parameters []SweepAxis `json:"parameters" jsonschema:"minItems=1,maxItems=2"`
+	// Parameters are the swept parameters: one axis object (a line), or
+	// an array of one or two (a grid, the second varying fastest).
+	Parameters SweepAxes `json:"parameters"`
 	// Metrics lists what to evaluate at each step: load_path, volume,
 	// mass, carbon, max_displacement, max_utilisation. Default load_path
 	// and volume when the materials have limits, load_path otherwise.

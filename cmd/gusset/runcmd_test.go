@@ -198,3 +198,35 @@ func TestMessagesHintAndListWithCommas(t *testing.T) {
 		t.Errorf("far name: %q, want no hint and a list with commas", msg)
 	}
 }
+
+// TestSweepOneAxisObject checks that a sweep's parameters may be one axis
+// object on the wire: the answer is the one of the same axis in an array,
+// and a misspelt field in the object form is pointed at.
+func TestSweepOneAxisObject(t *testing.T) {
+	line := readTranscript(t, "two-bar-sweep.in.jsonl")
+	var req map[string]any
+	if err := json.Unmarshal([]byte(line), &req); err != nil {
+		t.Fatal(err)
+	}
+	params := req["params"].(map[string]any)
+	axes := params["parameters"].([]any)
+	if len(axes) != 1 {
+		t.Fatalf("the transcript sweeps %d axes", len(axes))
+	}
+	params["parameters"] = axes[0]
+	one, _ := json.Marshal(req)
+	_, outArray, _ := runCapture([]string{"run", "-", "--notifications", "none"}, line+"\n")
+	code, outObject, errOut := runCapture([]string{"run", "-", "--notifications", "none"}, string(one)+"\n")
+	if code != 0 || outObject != outArray {
+		t.Errorf("one axis object: exit %d, answer differs from the array form:\n%.300s\n%.300s\n%s", code, outObject, outArray, errOut)
+	}
+	axis := axes[0].(map[string]any)
+	axis["nam"] = axis["name"]
+	delete(axis, "name")
+	params["parameters"] = axis
+	bad, _ := json.Marshal(req)
+	_, out, _ := runCapture([]string{"run", "-"}, string(bad)+"\n")
+	if !strings.Contains(out, "/params/parameters") || !strings.Contains(out, "did you mean 'name'") {
+		t.Errorf("a misspelt field of one axis object: %.400s", out)
+	}
+}

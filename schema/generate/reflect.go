@@ -20,7 +20,7 @@ func Definitions() []any {
 	return append([]any{
 		protocol.Request{}, protocol.Response{}, protocol.Notification{}, protocol.Progress{},
 		protocol.DescribeParams{}, protocol.DescribeResult{},
-		protocol.CancelParams{}, protocol.CancelResult{},
+		protocol.CancelParams{}, protocol.CancelResult{}, protocol.SweepAxis{},
 	}, adapter.SchemaTypes()...)
 }
 
@@ -61,12 +61,18 @@ func Generate(protocolDir string) ([]byte, error) {
 	return append(out, '\n'), nil
 }
 
-var numberType = reflect.TypeOf(protocol.Number{})
+var (
+	numberType = reflect.TypeOf(protocol.Number{})
+	axesType   = reflect.TypeOf(protocol.SweepAxes{})
+)
 
 // mapType gives protocol.Number its schema: a number, or an expression
 // string (protocol imports nothing but the standard library, so the schema
 // of its custom-encoded types lives here).
 func mapType(t reflect.Type) *jsonschema.Schema {
+	if t == axesType {
+		return axesSchema()
+	}
 	if t != numberType {
 		return nil
 	}
@@ -78,5 +84,19 @@ func mapType(t reflect.Type) *jsonschema.Schema {
 		Description: "A number, or an expression string over the model's parameters: arithmetic (+ - * / ^), parentheses, sqrt, sin, cos, tan, atan2, abs, min, max and pi; angles in radians.",
 		MinLength:   &minLength,
 		Extras:      map[string]any{"type": []string{"number", "string"}},
+	}
+}
+
+// axesSchema is a sweep's parameters: one axis object, or an array of one
+// or two. if/then/else rather than oneOf, so that a bad axis is reported
+// against the one form it was written in.
+func axesSchema() *jsonschema.Schema {
+	one, two := uint64(1), uint64(2)
+	axis := &jsonschema.Schema{Ref: "#/$defs/SweepAxis"}
+	return &jsonschema.Schema{
+		Description: "The swept parameters: one axis object (a line), or an array of one or two axes (a grid, the second varying fastest).",
+		If:          &jsonschema.Schema{Type: "array"},
+		Then:        &jsonschema.Schema{Type: "array", Items: axis, MinItems: &one, MaxItems: &two},
+		Else:        axis,
 	}
 }
