@@ -83,13 +83,18 @@ func (el *element) build(m *model.Model, nb *numbering, e int) {
 			set(3, p+3, -gj)
 		}
 	}
-	// t is block diagonal with the rotation λ (rows: local axes in global
-	// components) on each group of three (or Dim) components.
+	el.fillTransform(m.Dim, p, n)
+}
+
+// fillTransform writes t, which is block diagonal with the rotation λ
+// (rows: local axes in global components) on each group of three (or Dim)
+// components; p is the freedoms per node and n the element's size.
+func (el *element) fillTransform(dim, p, n int) {
 	for side := range 2 {
 		base := side * p
 		for g := 0; g < p; g += 3 {
 			width := min(3, p-g)
-			if m.Dim == 2 && g == 0 {
+			if dim == 2 && g == 0 {
 				width = 2
 			}
 			for i := range width {
@@ -97,7 +102,7 @@ func (el *element) build(m *model.Model, nb *numbering, e int) {
 					el.t[(base+g+i)*n+base+g+j] = el.axes[i][j]
 				}
 			}
-			if m.Dim == 2 && p == 3 {
+			if dim == 2 && p == 3 {
 				el.t[(base+2)*n+base+2] = 1
 				break
 			}

@@ -36,7 +36,9 @@ const (
 	linkBeam = 2 // a beam: every freedom × every freedom
 )
 
-// newPattern builds the pattern of K for m's members and numbering nb.
+// newPattern builds the pattern of K for m's members and numbering nb, in
+// phases: the equations of each node, the upper neighbours of each node
+// with the kind of their link, the column lengths, and the row indices.
 func newPattern(m *model.Model, nb *numbering) *pattern {
 	nn := m.NodeCount()
 	p := &pattern{
@@ -45,6 +47,18 @@ func newPattern(m *model.Model, nb *numbering) *pattern {
 		ownFull:  make([]bool, nn),
 		ownTrans: make([]bool, nn),
 	}
+	p.countEquations(m, nb)
+	links := p.neighbours(m)
+	colPtr := p.columnPointers(nb.equations, links)
+	rowIdx := p.rowIndices(colPtr, links)
+	p.k = &sparse.Matrix{N: nb.equations, ColPtr: colPtr, RowIdx: rowIdx, Val: make([]float64, len(rowIdx))}
+	return p
+}
+
+// countEquations sets each node's first equation and its count of
+// translational equations.
+func (p *pattern) countEquations(m *model.Model, nb *numbering) {
+	nn := m.NodeCount()
 	for n := range nn {
 		last := nb.total
 		if n+1 < nn {
@@ -64,9 +78,13 @@ func newPattern(m *model.Model, nb *numbering) *pattern {
 		p.eqStart[n+1] = p.eqStart[n] + eqs
 	}
 
-	// Upper neighbour lists, each entry packed as 4·node + link so that one
-	// integer sort orders them by node and merges duplicates next to each
-	// other.
+}
+
+// neighbours sets the upper neighbour lists and returns the link kind of
+// each entry. Entries are packed as 4·node + link so that one integer sort
+// orders them by node and merges duplicates next to each other.
+func (p *pattern) neighbours(m *model.Model) []int {
+	nn := m.NodeCount()
 	count := make([]int, nn+1)
 	for _, mem := range m.Members {
 		a, b := mem.Ends[0], mem.Ends[1]
@@ -117,7 +135,14 @@ func newPattern(m *model.Model, nb *numbering) *pattern {
 	p.offTrans = make([]int, len(p.nbr))
 	p.offRot = make([]int, len(p.nbr))
 
-	neq := nb.equations
+	return links
+}
+
+// columnPointers returns the column pointers of K: each column holds its
+// node's own run and a run per upper neighbour (all of a beam neighbour's
+// equations, a bar neighbour's translations in translational columns).
+func (p *pattern) columnPointers(neq int, links []int) []int {
+	nn := len(p.trans)
 	colPtr := make([]int, neq+1)
 	for a := range nn {
 		ta, tr := 0, 0 // run lengths of the neighbours in translational and rotational columns
@@ -143,7 +168,14 @@ func newPattern(m *model.Model, nb *numbering) *pattern {
 			colPtr[j+1] = colPtr[j] + size
 		}
 	}
-	rowIdx := make([]int, colPtr[neq])
+	return colPtr
+}
+
+// rowIndices fills the row indices of every column in the order of
+// columnPointers.
+func (p *pattern) rowIndices(colPtr, links []int) []int {
+	nn := len(p.trans)
+	rowIdx := make([]int, colPtr[len(colPtr)-1])
 	for a := range nn {
 		for j := p.eqStart[a]; j < p.eqStart[a+1]; j++ {
 			c := j - p.eqStart[a]
@@ -168,8 +200,7 @@ func newPattern(m *model.Model, nb *numbering) *pattern {
 			}
 		}
 	}
-	p.k = &sparse.Matrix{N: neq, ColPtr: colPtr, RowIdx: rowIdx, Val: make([]float64, len(rowIdx))}
-	return p
+	return rowIdx
 }
 
 // own returns the length of the run of node a's own equations in the

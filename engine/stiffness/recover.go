@@ -8,8 +8,26 @@ import (
 
 // recoverCase turns the displacements u (every global freedom) into the
 // case's results, sharing the members of a large model among up to workers
-// goroutines.
+// goroutines. Its phases: lay out the result, recover the members (their
+// forces on the freedoms gathered in member order), the reactions, the
+// external forces and balance, and the equilibrium residual.
 func recoverCase(m *model.Model, nb *numbering, sys *system, ls *loadSet, u []float64, workers, stations int) (*CaseResult, error) {
+	cr := newCaseResult(m, nb, u, stations)
+	nodeForce, equivalent := recoverMembers(m, nb, ls, u, cr, workers)
+	reactions(m, nb, ls, u, cr, nodeForce)
+	externalForces(m, nb, ls, cr, equivalent)
+	cr.Residual = residual(nb, sys, ls, u, nodeForce, equivalent)
+	summarise(m, cr)
+	if !cr.finite() {
+		return nil, overflowError(m)
+	}
+	return cr, nil
+}
+
+// newCaseResult allocates a case's result with its displacements copied
+// from u. The rows of the per-node and per-member arrays share one backing
+// array each: one allocation instead of one per node or member.
+func newCaseResult(m *model.Model, nb *numbering, u []float64, stations int) *CaseResult {
 	_, rotational := m.DOFsPerNode()
 	cr := &CaseResult{
 		Displacements: make([][]float64, m.NodeCount()),
@@ -23,8 +41,6 @@ func recoverCase(m *model.Model, nb *numbering, sys *system, ls *loadSet, u []fl
 		LoadSum:       make([]float64, m.Dim),
 		ReactionSum:   make([]float64, m.Dim),
 	}
-	// The rows of the per-node and per-member arrays share one backing
-	// array each: one allocation instead of one per node or member.
 	nodal := make([]float64, 0, nb.total)
 	for n := range cr.Displacements {
 		first := nb.first[n]
@@ -42,12 +58,17 @@ func recoverCase(m *model.Model, nb *numbering, sys *system, ls *loadSet, u []fl
 		cr.EndForces[e] = ends[endOff[e]:endOff[e+1]:endOff[e+1]]
 	}
 	layoutStations(m, cr, stations)
-	// nodeForce gathers Σ over members of the forces the members receive
-	// from each freedom (global axes); equivalent gathers the equivalent
-	// nodal loads of the member loads. Both are summed in member order
-	// whatever the workers, so the result does not depend on them.
-	nodeForce := make([]float64, nb.total)
-	equivalent := make([]float64, nb.total)
+	return cr
+}
+
+// recoverMembers recovers every member into cr and returns nodeForce, the
+// sum over members of the forces they receive from each freedom (global
+// axes), and equivalent, the equivalent nodal loads of the member loads.
+// Both are summed in member order whatever the workers, so the result does
+// not depend on them.
+func recoverMembers(m *model.Model, nb *numbering, ls *loadSet, u []float64, cr *CaseResult, workers int) (nodeForce, equivalent []float64) {
+	nodeForce = make([]float64, nb.total)
+	equivalent = make([]float64, nb.total)
 	if workers <= 1 || len(m.Members) < recoverParallel {
 		var el element
 		var sc memberScratch
@@ -87,8 +108,14 @@ func recoverCase(m *model.Model, nb *numbering, sys *system, ls *loadSet, u []fl
 			}
 		}
 	}
-	// A support holds a fixed freedom with whatever the members ask beyond
-	// the load applied there; a spring pulls back with −k·u.
+	return nodeForce, equivalent
+}
+
+// reactions sets each support's reaction: a support holds a fixed freedom
+// with whatever the members ask beyond the load applied there; a spring
+// pulls back with −k·u.
+func reactions(m *model.Model, nb *numbering, ls *loadSet, u []float64, cr *CaseResult, nodeForce []float64) {
+	_, rotational := m.DOFsPerNode()
 	for f := range nb.total {
 		si := nb.supportOf[f]
 		if si < 0 {
@@ -128,6 +155,12 @@ func recoverCase(m *model.Model, nb *numbering, sys *system, ls *loadSet, u []fl
 			cr.ReactionSum[c] += cr.Reactions[si].Force[c]
 		}
 	}
+}
+
+// externalForces sets the external force at each node (loads, equivalent
+// member loads and reactions), the load and reaction sums and the balance
+// error.
+func externalForces(m *model.Model, nb *numbering, ls *loadSet, cr *CaseResult, equivalent []float64) {
 	cr.External = make([][]float64, m.NodeCount())
 	external := make([]float64, m.Dim*m.NodeCount())
 	for n := range cr.External {
@@ -162,24 +195,22 @@ func recoverCase(m *model.Model, nb *numbering, sys *system, ls *loadSet, u []fl
 	if den := max(math.Sqrt(loadNorm), reactionScale); den > 0 {
 		cr.BalanceError = math.Sqrt(balance) / den
 	}
-	// Equilibrium of the unconstrained freedoms: what the members take
-	// (their fixed-end forces included) plus the springs equals the nodal
-	// loads; the scale is the right-hand side K·u = f of the solve.
+}
+
+// residual returns the scaled equilibrium residual of the unconstrained
+// freedoms: what the members take (their fixed-end forces included) plus
+// the springs equals the nodal loads; the scale is the right-hand side
+// K·u = f of the solve.
+func residual(nb *numbering, sys *system, ls *loadSet, u, nodeForce, equivalent []float64) float64 {
 	var resid, rhs float64
 	for eq, f := range nb.freedomOf {
 		resid += sq(nodeForce[f] + nb.spring[f]*u[f] - ls.nodal[f])
 		rhs += sq(ls.nodal[f] + equivalent[f] + sys.settle[eq])
 	}
 	if rhs > 0 {
-		cr.Residual = math.Sqrt(resid / rhs)
-	} else if resid > 0 {
-		cr.Residual = math.Sqrt(resid)
+		return math.Sqrt(resid / rhs)
 	}
-	summarise(m, cr)
-	if !cr.finite() {
-		return nil, overflowError(m)
-	}
-	return cr, nil
+	return math.Sqrt(resid)
 }
 
 // recoverParallel is the member count from which recoverCase shares the

@@ -49,158 +49,232 @@ func (opt Options) withDefaults() Options {
 
 // solve is Solve with opt's defaults filled in and, when an is not nil,
 // the numbering's structure, the pattern of K and its symbolic
-// factorisation taken from an (m must then have an's topology).
+// factorisation taken from an (m must then have an's topology). Its phases
+// are the methods of run: check the model, count its stability, assemble,
+// factorise (or explain a mechanism), solve the cases, recover the
+// results, finish with the condition estimate and warnings.
 func solve(ctx context.Context, m *model.Model, opt Options, an *Analysis) (*Result, error) {
-	rep := progress.Or(opt.Reporter)
-	requests, err := requested(m, opt.Cases)
-	if err != nil {
+	r := &run{ctx: ctx, m: m, opt: opt, an: an, rep: progress.Or(opt.Reporter), res: &Result{}}
+	if err := r.check(); err != nil {
 		return nil, err
 	}
-	var nb *numbering
-	if an != nil {
-		nb = an.numbering(m)
-	} else {
-		nb = newNumbering(m)
-	}
-	if err := validate(m, nb); err != nil {
+	if err := r.countStability(); err != nil {
 		return nil, err
 	}
-	res := &Result{}
-	warning, err := checkParts(m, nb)
-	if err != nil {
+	if err := r.assemble(); err != nil {
 		return nil, err
 	}
-	if warning != "" {
-		res.Warnings = append(res.Warnings, warning)
-	}
-	res.Warnings = append(res.Warnings, stiffnessRatio(m)...)
-
-	// The counts come first without the rank: when K factorises and no
-	// spring stiffens it, the equilibrium matrix has full row rank and the
-	// SVD (cubic in the model's size) is needed only for a mechanism or a
-	// model with springs.
-	start := time.Now()
-	svd := hasSprings(m)
-	limit := -1
-	if svd {
-		limit = opt.StabilityLimit
-	}
-	stability := an.stabilityCounts()
-	if svd || stability == nil {
-		var err error
-		if stability, err = statics.Analyse(ctx, m, statics.Options{DenseLimit: limit}); err != nil {
-			return nil, err
-		}
-	}
-	res.Stability = stability
-	res.Stats.Stability = time.Since(start)
-	// analyse replaces the counts by the full SVD report within the limit.
-	analyse := func() error {
-		if svd || opt.StabilityLimit < 0 {
-			return nil
-		}
-		start := time.Now()
-		full, err := statics.Analyse(ctx, m, statics.Options{DenseLimit: opt.StabilityLimit})
-		if err != nil {
-			return err
-		}
-		stability, res.Stability = full, full
-		res.Stats.Stability += time.Since(start)
-		return nil
-	}
-
-	start = time.Now()
-	var pat *pattern
-	if an != nil {
-		pat = an.pattern()
-	} else {
-		pat = newPattern(m, nb)
-	}
-	sys, err := assemble(ctx, m, nb, pat, opt.Workers, rep)
-	if err != nil {
-		return nil, err
-	}
-	res.Stats.Assemble = time.Since(start)
-	res.Stats.Freedoms = nb.total
-	res.Stats.Equations = nb.equations
-	res.Stats.NonzerosK = sys.k.Nonzeros()
-	path := opt.Path
-	if path == Auto {
-		path = Sparse
-		if nb.equations <= opt.DenseLimit {
-			path = Dense
-		}
-	}
-	res.Stats.Path = path
-	res.Stats.Order, res.Stats.Factor, err = sys.factorise(ctx, path, opt, an, rep)
+	err := r.factorise()
 	var deficient *errDeficient
 	if errors.As(err, &deficient) {
-		if err := analyse(); err != nil {
-			return nil, err
-		}
-		if opt.PivotTolerance != acceptAnyPivot {
-			if stable, err := geometryStable(ctx, m, nb, opt); err != nil {
-				return nil, err
-			} else if stable {
-				return solveIllConditioned(ctx, m, opt, an)
-			}
-		}
-		if held, ok := solveHeld(ctx, m, nb, deficient.equations, opt, stability, res.Warnings); ok {
-			return held, nil
-		}
-		if nb.equations <= opt.StabilityLimit {
-			return nil, mechanismError(m, nb, deficient.equations, denseModes(sys.dense(), sys.scale, len(deficient.equations)))
-		}
-		modes := sparseModes(ctx, sys, opt)
-		if err := ctx.Err(); err != nil {
-			return nil, err
-		}
-		return nil, mechanismError(m, nb, deficient.equations, modes)
+		return r.deficient(deficient)
 	}
 	if err != nil {
 		return nil, err
 	}
-	if !stability.Computed && !hasSprings(m) {
-		// A positive definite K = A·D·Aᵀ means the equilibrium matrix
-		// has full row rank, which fixes the count without an SVD.
-		stability.Computed = true
-		stability.CountedBy = "stiffness"
-		stability.Rank = stability.Freedoms
-		stability.SelfStress = stability.Columns - stability.Rank
+	r.markStable()
+	condition := r.startCondition()
+	start := time.Now()
+	solutions, err := solveCases(ctx, m, r.nb, r.sys, r.requests, opt.Workers, r.rep)
+	if err != nil {
+		return nil, err
 	}
-	res.Stats.NonzerosFactor = sys.fac.nonzeros()
-	// The condition estimate costs a dozen solves; with a second core it
-	// runs beside the load cases, and its warning still comes last.
+	r.res.Stats.Solve = time.Since(start)
+	if err := r.recoverAll(solutions); err != nil {
+		return nil, err
+	}
+	return r.finish(condition)
+}
+
+// run is one solve in progress: its inputs and what the phases have built.
+type run struct {
+	ctx       context.Context
+	m         *model.Model
+	opt       Options
+	an        *Analysis
+	rep       progress.Reporter
+	res       *Result
+	requests  []request
+	nb        *numbering
+	stability *statics.Report
+	svd       bool // the model has springs: the stability report needs the SVD
+	sys       *system
+	path      Path
+}
+
+// check resolves the requested cases, numbers the freedoms, validates the
+// model and warns of disconnected parts and extreme stiffness ratios.
+func (r *run) check() error {
+	var err error
+	if r.requests, err = requested(r.m, r.opt.Cases); err != nil {
+		return err
+	}
+	if r.an != nil {
+		r.nb = r.an.numbering(r.m)
+	} else {
+		r.nb = newNumbering(r.m)
+	}
+	if err := validate(r.m, r.nb); err != nil {
+		return err
+	}
+	warning, err := checkParts(r.m, r.nb)
+	if err != nil {
+		return err
+	}
+	if warning != "" {
+		r.res.Warnings = append(r.res.Warnings, warning)
+	}
+	r.res.Warnings = append(r.res.Warnings, stiffnessRatio(r.m)...)
+	return nil
+}
+
+// countStability makes the stability report. The counts come first without
+// the rank: when K factorises and no spring stiffens it, the equilibrium
+// matrix has full row rank and the SVD (cubic in the model's size) is
+// needed only for a mechanism or a model with springs.
+func (r *run) countStability() error {
+	start := time.Now()
+	r.svd = hasSprings(r.m)
+	limit := -1
+	if r.svd {
+		limit = r.opt.StabilityLimit
+	}
+	r.stability = r.an.stabilityCounts()
+	if r.svd || r.stability == nil {
+		var err error
+		if r.stability, err = statics.Analyse(r.ctx, r.m, statics.Options{DenseLimit: limit}); err != nil {
+			return err
+		}
+	}
+	r.res.Stability = r.stability
+	r.res.Stats.Stability = time.Since(start)
+	return nil
+}
+
+// fullStability replaces the counts by the full SVD report within the
+// limit.
+func (r *run) fullStability() error {
+	if r.svd || r.opt.StabilityLimit < 0 {
+		return nil
+	}
+	start := time.Now()
+	full, err := statics.Analyse(r.ctx, r.m, statics.Options{DenseLimit: r.opt.StabilityLimit})
+	if err != nil {
+		return err
+	}
+	r.stability, r.res.Stability = full, full
+	r.res.Stats.Stability += time.Since(start)
+	return nil
+}
+
+// assemble builds K (pattern from an when given) and chooses the solver.
+func (r *run) assemble() error {
+	start := time.Now()
+	var pat *pattern
+	if r.an != nil {
+		pat = r.an.pattern()
+	} else {
+		pat = newPattern(r.m, r.nb)
+	}
+	var err error
+	if r.sys, err = assemble(r.ctx, r.m, r.nb, pat, r.opt.Workers, r.rep); err != nil {
+		return err
+	}
+	st := &r.res.Stats
+	st.Assemble = time.Since(start)
+	st.Freedoms, st.Equations, st.NonzerosK = r.nb.total, r.nb.equations, r.sys.k.Nonzeros()
+	r.path = r.opt.Path
+	if r.path == Auto {
+		r.path = Sparse
+		if r.nb.equations <= r.opt.DenseLimit {
+			r.path = Dense
+		}
+	}
+	st.Path = r.path
+	return nil
+}
+
+// factorise orders and factorises K.
+func (r *run) factorise() error {
+	var err error
+	r.res.Stats.Order, r.res.Stats.Factor, err = r.sys.factorise(r.ctx, r.path, r.opt, r.an, r.rep)
+	return err
+}
+
+// deficient answers a K that failed the pivot test: an ill-conditioned
+// but stable geometry is solved accepting every positive pivot; a
+// mechanism that its loads do not set moving is solved as held; any other
+// is the mechanism error with its modes.
+func (r *run) deficient(d *errDeficient) (*Result, error) {
+	if err := r.fullStability(); err != nil {
+		return nil, err
+	}
+	if r.opt.PivotTolerance != acceptAnyPivot {
+		if stable, err := geometryStable(r.ctx, r.m, r.nb, r.opt); err != nil {
+			return nil, err
+		} else if stable {
+			return solveIllConditioned(r.ctx, r.m, r.opt, r.an)
+		}
+	}
+	if held, ok := solveHeld(r.ctx, r.m, r.nb, d.equations, r.opt, r.stability, r.res.Warnings); ok {
+		return held, nil
+	}
+	if r.nb.equations <= r.opt.StabilityLimit {
+		return nil, mechanismError(r.m, r.nb, d.equations, denseModes(r.sys.dense(), r.sys.scale, len(d.equations)))
+	}
+	modes := sparseModes(r.ctx, r.sys, r.opt)
+	if err := r.ctx.Err(); err != nil {
+		return nil, err
+	}
+	return nil, mechanismError(r.m, r.nb, d.equations, modes)
+}
+
+// markStable completes the counts: a positive definite K = A·D·Aᵀ means
+// the equilibrium matrix has full row rank, which fixes the count without
+// an SVD.
+func (r *run) markStable() {
+	if s := r.stability; !s.Computed && !hasSprings(r.m) {
+		s.Computed = true
+		s.CountedBy = "stiffness"
+		s.Rank = s.Freedoms
+		s.SelfStress = s.Columns - s.Rank
+	}
+	r.res.Stats.NonzerosFactor = r.sys.fac.nonzeros()
+}
+
+// startCondition starts the condition estimate, which costs a dozen
+// solves: with a second core it runs beside the load cases, and its
+// warning still comes last.
+func (r *run) startCondition() chan estimate {
 	condition := make(chan estimate, 1)
-	if opt.SkipCondition {
+	switch {
+	case r.opt.SkipCondition:
 		condition <- estimate{}
-	} else if workers(opt.Workers) > 1 && path == Sparse {
+	case workers(r.opt.Workers) > 1 && r.path == Sparse:
 		go func() {
 			defer func() {
-				if r := recover(); r != nil {
-					condition <- estimate{crash: &panicValue{r}}
+				if v := recover(); v != nil {
+					condition <- estimate{crash: &panicValue{v}}
 				}
 			}()
-			condition <- estimate{value: sys.fac.condition()}
+			condition <- estimate{value: r.sys.fac.condition()}
 		}()
-	} else {
-		condition <- estimate{value: sys.fac.condition()}
+	default:
+		condition <- estimate{value: r.sys.fac.condition()}
 	}
+	return condition
+}
 
-	start = time.Now()
-	solutions, err := solveCases(ctx, m, nb, sys, requests, opt.Workers, rep)
-	if err != nil {
-		return nil, err
-	}
-	res.Stats.Solve = time.Since(start)
-
-	start = time.Now()
-	res.Cases = make([]CaseResult, len(requests))
-	rep.Progress("recovering", 0, len(requests), nil)
-	// Cases run side by side; workers left over go inside each case.
-	inner := max(1, workers(opt.Workers)/max(1, len(requests)))
-	err = parallel(opt.Workers, len(requests), func(i int) error {
-		if err := ctx.Err(); err != nil {
+// recoverAll turns each request's displacements into its results, the
+// cases side by side and the workers left over inside each case.
+func (r *run) recoverAll(solutions *solutions) error {
+	start := time.Now()
+	requests, nb := r.requests, r.nb
+	r.res.Cases = make([]CaseResult, len(requests))
+	r.rep.Progress("recovering", 0, len(requests), nil)
+	inner := max(1, workers(r.opt.Workers)/max(1, len(requests)))
+	err := parallel(r.opt.Workers, len(requests), func(i int) error {
+		if err := r.ctx.Err(); err != nil {
 			return err
 		}
 		rq := requests[i]
@@ -215,28 +289,33 @@ func solve(ctx context.Context, m *model.Model, opt Options, an *Analysis) (*Res
 				u[f] = nb.prescribed[f]
 			}
 		}
-		cr, err := recoverCase(m, nb, sys, newLoadSet(m, nb, rq.terms), u, inner, stationCount(opt.Stations))
+		cr, err := recoverCase(r.m, nb, r.sys, newLoadSet(r.m, nb, rq.terms), u, inner, stationCount(r.opt.Stations))
 		if err != nil {
 			return err
 		}
 		cr.ID, cr.Combination = rq.id, rq.combination
-		res.Cases[i] = *cr
+		r.res.Cases[i] = *cr
 		return nil
-	}, func(done int) { rep.Progress("recovering", done, len(requests), nil) })
+	}, func(done int) { r.rep.Progress("recovering", done, len(requests), nil) })
 	if err != nil {
-		return nil, err
+		return err
 	}
-	rep.Progress("recovering", len(requests), len(requests), nil)
-	res.Stats.Recover = time.Since(start)
-	res.Unchecked = uncheckedNotes(m, res.Cases, maxUncheckedNotes)
-	res.Warnings = append(res.Warnings, bendingCaveat(m, res.Cases)...)
+	r.rep.Progress("recovering", len(requests), len(requests), nil)
+	r.res.Stats.Recover = time.Since(start)
+	r.res.Unchecked = uncheckedNotes(r.m, r.res.Cases, maxUncheckedNotes)
+	r.res.Warnings = append(r.res.Warnings, bendingCaveat(r.m, r.res.Cases)...)
+	return nil
+}
 
+// finish waits for the condition estimate and adds the closing warnings.
+func (r *run) finish(condition chan estimate) (*Result, error) {
+	res := r.res
 	est := <-condition
 	if est.crash != nil {
 		panic(est.crash.v)
 	}
 	res.Stats.ConditionNumber = est.value
-	if err := ctx.Err(); err != nil {
+	if err := r.ctx.Err(); err != nil {
 		return nil, err
 	}
 	if c := res.Stats.ConditionNumber; c >= illConditioned {
@@ -244,11 +323,11 @@ func solve(ctx context.Context, m *model.Model, opt Options, an *Analysis) (*Res
 			"the stiffness matrix is ill-conditioned (condition estimate %.2g after scaling to unit diagonal): about %d of 16 significant digits may be lost",
 			c, digitsLost(c)))
 	}
-	if an != nil {
-		an.release(sys)
+	if r.an != nil {
+		r.an.release(r.sys)
 	}
 	res.Warnings = append(res.Warnings, residualWarnings(res)...)
-	noteSelfWeight(m, requests, res)
+	noteSelfWeight(r.m, r.requests, res)
 	return res, nil
 }
 
