@@ -209,7 +209,11 @@ type MemberLoad struct {
 	// Kind is "uniform" (constant intensity over the member), "linear"
 	// (intensity from value at the first end to end_value at the second),
 	// "point" (force value at distance from the first end) or "thermal"
-	// (free axial strain).
+	// (free axial strain). On a bar (pin-jointed) the part of a load
+	// across the member goes to its two ends as nodal loads, which gives
+	// the joints and the rest of the structure the right forces, but the
+	// bar's own bending is not analysed: solve lists it in unchecked with
+	// the member's pointer. Make the member a beam to have its bending.
 	Kind string `json:"kind" jsonschema:"enum=uniform,enum=linear,enum=point,enum=thermal"`
 	// Axes is "global" (the default) or "local" (x along the member).
 	Axes string `json:"axes,omitempty" jsonschema:"enum=global,enum=local"`
