@@ -313,37 +313,39 @@ func TestDuplicateIDInFlight(t *testing.T) {
 // response, after all of its notifications.
 func TestManyRequestsOneAnswerEach(t *testing.T) {
 	for _, workers := range []int{1, 4} {
-		var in strings.Builder
-		const n = 2000
-		for i := 0; i < n; i++ {
-			switch i % 4 {
-			case 0, 1:
-				fmt.Fprintf(&in, `{"jsonrpc":"2.0","id":%d,"method":"echo","params":{"i":%d}}`+"\n", i, i)
-			case 2:
-				fmt.Fprintf(&in, `{"jsonrpc":"2.0","id":%d,"method":"nothing"}`+"\n", i)
-			case 3:
-				fmt.Fprintf(&in, `{"jsonrpc":"2.0","id":%d,"method":"echo","params":7}`+"\n", i)
-			}
-		}
-		msgs := serveLines(t, testServer(protocol.Limits{Workers: workers}), in.String())
-		seen := map[string]int{}
-		for _, m := range msgs {
-			if m.Method == "progress" {
-				if seen[string(m.Params.Request)] > 0 {
-					t.Fatalf("notification after final response of %s", m.Params.Request)
+		t.Run(fmt.Sprintf("workers=%d", workers), func(t *testing.T) {
+			var in strings.Builder
+			const n = 2000
+			for i := 0; i < n; i++ {
+				switch i % 4 {
+				case 0, 1:
+					fmt.Fprintf(&in, `{"jsonrpc":"2.0","id":%d,"method":"echo","params":{"i":%d}}`+"\n", i, i)
+				case 2:
+					fmt.Fprintf(&in, `{"jsonrpc":"2.0","id":%d,"method":"nothing"}`+"\n", i)
+				case 3:
+					fmt.Fprintf(&in, `{"jsonrpc":"2.0","id":%d,"method":"echo","params":7}`+"\n", i)
 				}
-				continue
 			}
-			seen[string(m.ID)]++
-		}
-		if len(seen) != n {
-			t.Errorf("workers=%d: %d distinct responses, want %d", workers, len(seen), n)
-		}
-		for id, c := range seen {
-			if c != 1 {
-				t.Errorf("id %s answered %d times", id, c)
+			msgs := serveLines(t, testServer(protocol.Limits{Workers: workers}), in.String())
+			seen := map[string]int{}
+			for _, m := range msgs {
+				if m.Method == "progress" {
+					if seen[string(m.Params.Request)] > 0 {
+						t.Fatalf("notification after final response of %s", m.Params.Request)
+					}
+					continue
+				}
+				seen[string(m.ID)]++
 			}
-		}
+			if len(seen) != n {
+				t.Errorf("workers=%d: %d distinct responses, want %d", workers, len(seen), n)
+			}
+			for id, c := range seen {
+				if c != 1 {
+					t.Errorf("id %s answered %d times", id, c)
+				}
+			}
+		})
 	}
 }
 

@@ -11,13 +11,15 @@ import (
 
 	"gusset/engine/fault"
 	"gusset/engine/model"
+	"gusset/engine/render"
 	"gusset/protocol"
 	"gusset/protocol/jsonrpc"
 	"gusset/schema"
 )
 
-// Caution is carried by every result a person might build from.
-const Caution = "Preliminary design aid: a qualified engineer must check the design against the local codes and standards."
+// Caution is carried by every result a person might build from: the one
+// sentence, engine/render's, which every drawing carries too.
+const Caution = render.Caution
 
 // Adapter holds the limits the handlers enforce and the schema validator.
 type Adapter struct {

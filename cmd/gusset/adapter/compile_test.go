@@ -49,9 +49,11 @@ func newSolveValidator(tb testing.TB) *schema.Validator {
 func TestPrepareGeneratedModels(t *testing.T) {
 	v := newSolveValidator(t)
 	for _, members := range []int{100, 2000} {
-		if err := prepare(v, solveRequestParams(members)); err != nil {
-			t.Fatalf("members=%d: %v", members, err)
-		}
+		t.Run(fmt.Sprintf("members=%d", members), func(t *testing.T) {
+			if err := prepare(v, solveRequestParams(members)); err != nil {
+				t.Fatal(err)
+			}
+		})
 	}
 }
 
