@@ -253,6 +253,12 @@ class Client:
     once and is kept; if it dies, the requests in flight fail with
     :class:`ProcessDied` and the next call starts a new one.
 
+    Every method also takes its whole params dict positionally, as it is
+    written on the wire: ``client.solve({"model": m, "cases": ["dead"]})``
+    is ``client.solve(m, cases=["dead"])``, and
+    ``client.optimise_layout({"supports": ..., "cases": ...})`` is the
+    call with those keywords; keywords given beside the dict add to it.
+
     A Client is safe to use from several threads at once: requests get
     increasing integer ids and the answers are paired by id, whatever order
     the server sends them in.
@@ -722,7 +728,7 @@ class Client:
         reactions, stresses and utilisation, aligned with the model's
         arrays, and the stability report. Tension is positive.
         """
-        return self.call("solve", _params(model=model, cases=cases, **options), timeout)  # type: ignore[no-any-return]
+        return self.call("solve", _whole(model, cases=cases, **options), timeout)  # type: ignore[no-any-return]
 
     def reciprocate(
         self,
@@ -743,8 +749,8 @@ class Client:
         runs the reverse direction: the form whose members are parallel to
         the edited force diagram.
         """
-        params = _params(model=model, case=case, forces=forces, self_stress=self_stress,
-                         perpendicular=perpendicular, picture=picture, edit=edit, **options)
+        params = _whole(model, case=case, forces=forces, self_stress=self_stress,
+                        perpendicular=perpendicular, picture=picture, edit=edit, **options)
         return self.call("reciprocate", params, timeout)  # type: ignore[no-any-return]
 
     def load_path(
@@ -759,13 +765,13 @@ class Client:
         **options: Any,
     ) -> Dict[str, Any]:
         """load_path computes Maxwell's load path and, with ``sizing``, volume, mass and carbon."""
-        params = _params(model=model, cases=cases, forces=forces, sizing=sizing, floor_area=floor_area, **options)
+        params = _whole(model, cases=cases, forces=forces, sizing=sizing, floor_area=floor_area, **options)
         return self.call("load-path", params, timeout)  # type: ignore[no-any-return]
 
     def sweep(
         self,
         model: Model,
-        parameters: Union[Mapping[str, Any], Sequence[Mapping[str, Any]]],
+        parameters: Optional[Union[Mapping[str, Any], Sequence[Mapping[str, Any]]]] = None,
         *,
         metrics: Optional[Sequence[str]] = None,
         cases: Optional[Sequence[str]] = None,
@@ -783,8 +789,8 @@ class Client:
         two. Iterate over the returned Sweep for the steps as they stream;
         call its result() for the final result.
         """
-        params = _params(model=model, parameters=_axes(parameters), metrics=metrics, cases=cases, sizing=sizing,
-                         objective=objective, shard=shard, steps=steps, **options)
+        params = _whole(model, parameters=_axes(parameters), metrics=metrics, cases=cases, sizing=sizing,
+                        objective=objective, shard=shard, steps=steps, **options)
         call = self.start("sweep-parameter", params, timeout=timeout, call_type=Sweep)
         assert isinstance(call, Sweep)
         return call
@@ -792,7 +798,7 @@ class Client:
     def sweep_parameter(
         self,
         model: Model,
-        parameters: Union[Mapping[str, Any], Sequence[Mapping[str, Any]]],
+        parameters: Optional[Union[Mapping[str, Any], Sequence[Mapping[str, Any]]]] = None,
         *,
         timeout: Optional[float] = None,
         on_step: Optional[Callable[[Any], None]] = None,
@@ -811,16 +817,17 @@ class Client:
                 if item.stage == "step" and item.partial is not None:
                     step_callback(item.partial)
 
-        params = _params(model=model, parameters=_axes(parameters), **options)
+        params = _whole(model, parameters=_axes(parameters), **options)
         return self.call("sweep-parameter", params, timeout, on_progress)  # type: ignore[no-any-return]
 
     def optimise_layout(
         self,
+        params: Optional[Mapping[str, Any]] = None,
         *,
-        supports: Sequence[Mapping[str, Any]],
-        cases: Sequence[Mapping[str, Any]],
-        tension_limit: float,
-        compression_limit: float,
+        supports: Optional[Sequence[Mapping[str, Any]]] = None,
+        cases: Optional[Sequence[Mapping[str, Any]]] = None,
+        tension_limit: Optional[float] = None,
+        compression_limit: Optional[float] = None,
         domain: Optional[Mapping[str, Any]] = None,
         divisions: Optional[Sequence[int]] = None,
         nodes: Optional[Sequence[Sequence[float]]] = None,
@@ -851,16 +858,17 @@ class Client:
                 if item.stage == "member adding" and item.partial is not None:
                     round_callback(item.partial)
 
-        params = _params(supports=supports, cases=cases, tension_limit=tension_limit,
-                         compression_limit=compression_limit, domain=domain, divisions=divisions, nodes=nodes,
-                         connectivity=connectivity, joint_cost=joint_cost, units=units, picture=picture,
-                         dimension=dimension, **options)
-        return self.call("optimise-layout", params, timeout, on_progress)  # type: ignore[no-any-return]
+        whole = dict(params or {})
+        whole.update(_params(supports=supports, cases=cases, tension_limit=tension_limit,
+                             compression_limit=compression_limit, domain=domain, divisions=divisions, nodes=nodes,
+                             connectivity=connectivity, joint_cost=joint_cost, units=units, picture=picture,
+                             dimension=dimension, **options))
+        return self.call("optimise-layout", whole, timeout, on_progress)  # type: ignore[no-any-return]
 
     def modes(
         self,
         model: Model,
-        kind: str,
+        kind: Optional[str] = None,
         *,
         case: Optional[str] = None,
         count: Optional[int] = None,
@@ -880,7 +888,7 @@ class Client:
         These are linear results of the perfect structure: imperfections,
         nonlinearity and the design codes govern real design.
         """
-        params = _params(model=model, kind=kind, case=case, count=count, shift=shift, picture=picture, **options)
+        params = _whole(model, kind=kind, case=case, count=count, shift=shift, picture=picture, **options)
         return self.call("modes", params, timeout)  # type: ignore[no-any-return]
 
     def find_form(
@@ -916,8 +924,8 @@ class Client:
                 if item.stage == "iterating" and item.partial is not None:
                     iteration_callback(item.partial)
 
-        params = _params(model=model, force_density=force_density, force_densities=force_densities, case=case,
-                         through=through, targets=targets, picture=picture, **options)
+        params = _whole(model, force_density=force_density, force_densities=force_densities, case=case,
+                        through=through, targets=targets, picture=picture, **options)
         return self.call("find-form", params, timeout, on_progress)  # type: ignore[no-any-return]
 
 
@@ -926,7 +934,24 @@ def _params(**fields: Any) -> Dict[str, Any]:
     return {name: value for name, value in fields.items() if value is not None}
 
 
-def _axes(parameters: Union[Mapping[str, Any], Sequence[Mapping[str, Any]]]) -> List[Mapping[str, Any]]:
+def _whole(first: Any, **fields: Any) -> Dict[str, Any]:
+    """_whole builds a model method's params from its first argument and keywords.
+
+    Every method takes its whole params dict positionally, as on the wire
+    (a mapping with a "model" key), or the model itself; the keywords given
+    (not None) are added to, or replace, the dict's entries.
+    """
+    if isinstance(first, Mapping) and "model" in first:
+        params = dict(first)
+    else:
+        params = {"model": first}
+    params.update(_params(**fields))
+    return params
+
+
+def _axes(parameters: Optional[Union[Mapping[str, Any], Sequence[Mapping[str, Any]]]]) -> Optional[List[Mapping[str, Any]]]:
+    if parameters is None:
+        return None
     if isinstance(parameters, Mapping):
         return [parameters]
     return list(parameters)

@@ -345,7 +345,8 @@ class GantryByForcesTest(unittest.TestCase):
 
 class ExamplesStayOutOfTheRepositoryTest(unittest.TestCase):
     def test_every_example_is_tested(self) -> None:
-        tested = {"walkway_variants.py", "bell_hanger_sweep.py", "gantry_by_forces.py"}
+        tested = {"walkway_variants.py", "bell_hanger_sweep.py", "gantry_by_forces.py",
+                  "dask_sharded_sweep.py"}  # the last in test_dask_example.py
         self.assertEqual({p.name for p in EXAMPLES.glob("*.py")}, tested)
 
     def test_missing_binary_says_how_to_build_it(self) -> None:
