@@ -255,6 +255,11 @@ class Process {
  * increasing integer ids and the answers are paired by id, whatever order the
  * server sends them in. While no request is in flight the process does not
  * keep Node's event loop alive, so a script that forgets close() still ends.
+ *
+ * Every method also takes its whole params object first, as it is written on
+ * the wire: `client.solve({ model, cases: ['dead'] })` is
+ * `client.solve(model, { cases: ['dead'] })`, and the options given second
+ * add to it; optimiseLayout's first argument is always its params object.
  */
 export class Client {
   /**
@@ -616,6 +621,53 @@ export class Client {
   }
 
   /**
+   * _isWhole reports whether a method's first argument is its whole params
+   * object, as on the wire (it has a "model" key), rather than the model.
+   * @param {any} first
+   * @returns {boolean}
+   */
+  static _isWhole(first) {
+    return first !== null && typeof first === 'object' && !Array.isArray(first) && 'model' in first;
+  }
+
+  /**
+   * _whole builds a model method's params: the whole params object given
+   * first, or {model}, with the other params added.
+   * @param {any} first
+   * @param {Record<string, any>} params
+   * @returns {Record<string, any>}
+   */
+  static _whole(first, params) {
+    return Client._isWhole(first) ? { ...first, ...params } : { model: first, ...params };
+  }
+
+  /**
+   * _shift reads sweep(params, options): with the whole params first, the
+   * second argument is the options.
+   * @param {any} first
+   * @param {any} parameters
+   * @param {Record<string, any>} options
+   * @returns {[any, Record<string, any>]}
+   */
+  static _shift(first, parameters, options) {
+    if (Client._isWhole(first) && parameters !== undefined && !Array.isArray(parameters) && !('name' in parameters)) {
+      return [undefined, { ...parameters, ...options }];
+    }
+    return [parameters, options];
+  }
+
+  /**
+   * _axes wraps one axis in a list; nothing when none is given (the whole
+   * params then hold them).
+   * @param {any} parameters
+   * @returns {Record<string, any>}
+   */
+  static _axes(parameters) {
+    if (parameters === undefined) return {};
+    return { parameters: Array.isArray(parameters) ? parameters : [parameters] };
+  }
+
+  /**
    * describe resolves with the server's name, versions, methods, limits and schema id.
    * @param {RequestOptions} [options]
    * @returns {Promise<any>}
@@ -648,7 +700,7 @@ export class Client {
    */
   solve(model, options = {}) {
     const [params, request] = Client._split(options);
-    return this.call('solve', { model, ...params }, request);
+    return this.call('solve', Client._whole(model, params), request);
   }
 
   /**
@@ -661,7 +713,7 @@ export class Client {
    */
   reciprocate(model, options = {}) {
     const [params, request] = Client._split(options);
-    return this.call('reciprocate', { model, ...params }, request);
+    return this.call('reciprocate', Client._whole(model, params), request);
   }
 
   /**
@@ -673,7 +725,7 @@ export class Client {
    */
   loadPath(model, options = {}) {
     const [params, request] = Client._split(options);
-    return this.call('load-path', { model, ...params }, request);
+    return this.call('load-path', Client._whole(model, params), request);
   }
 
   /**
@@ -687,9 +739,9 @@ export class Client {
    * @returns {Sweep}
    */
   sweep(model, parameters, options = {}) {
+    [parameters, options] = Client._shift(model, parameters, options);
     const [params, request] = Client._split(options);
-    const axes = Array.isArray(parameters) ? parameters : [parameters];
-    return /** @type {Sweep} */ (this.start('sweep-parameter', { model, parameters: axes, ...params }, request, Sweep));
+    return /** @type {Sweep} */ (this.start('sweep-parameter', Client._whole(model, { ...Client._axes(parameters), ...params }), request, Sweep));
   }
 
   /**
@@ -701,16 +753,16 @@ export class Client {
    * @returns {Promise<any>}
    */
   sweepParameter(model, parameters, options = {}) {
+    [parameters, options] = Client._shift(model, parameters, options);
     const { onStep, ...rest } = options;
     const [params, request] = Client._split(rest);
-    const axes = Array.isArray(parameters) ? parameters : [parameters];
     const onProgress = request.onProgress;
     /** @param {Progress} p */
     request.onProgress = (p) => {
       onProgress?.(p);
       if (onStep && p.stage === 'step' && p.partial !== undefined) onStep(p.partial);
     };
-    return this.call('sweep-parameter', { model, parameters: axes, ...params }, request);
+    return this.call('sweep-parameter', Client._whole(model, { ...Client._axes(parameters), ...params }), request);
   }
 
   /**
@@ -723,8 +775,8 @@ export class Client {
    *   onRound?: (round: any) => void} & RequestOptions & Record<string, any>} options
    * @returns {Promise<any>}
    */
-  optimiseLayout(options) {
-    const { onRound, ...rest } = options;
+  optimiseLayout(options, more = {}) {
+    const { onRound, ...rest } = { ...options, ...more };
     const [params, request] = Client._split(rest);
     const onProgress = request.onProgress;
     /** @param {Progress} p */
@@ -751,8 +803,9 @@ export class Client {
    * @returns {Promise<any>}
    */
   modes(model, kind, options = {}) {
+    if (Client._isWhole(model) && typeof kind === 'object' && kind !== null) [kind, options] = [undefined, kind];
     const [params, request] = Client._split(options);
-    return this.call('modes', { model, kind, ...params }, request);
+    return this.call('modes', Client._whole(model, { ...(kind === undefined ? {} : { kind }), ...params }), request);
   }
 
   /**
@@ -777,6 +830,6 @@ export class Client {
       onProgress?.(p);
       if (onIteration && p.stage === 'iterating' && p.partial !== undefined) onIteration(p.partial);
     };
-    return this.call('find-form', { model, ...params }, request);
+    return this.call('find-form', Client._whole(model, params), request);
   }
 }
