@@ -31,6 +31,11 @@ func StiffnessSolver(m *model.Model, cases []string) Solver {
 			u, _ := r.Cases[i].MaxUtilisation()
 			sol.MaxDisplacement = math.Max(sol.MaxDisplacement, r.Cases[i].MaxDisplacement.Value)
 			sol.MaxUtilisation = math.Max(sol.MaxUtilisation, u)
+			for e, v := range r.Cases[i].Utilisation {
+				if v < 0 && sol.UncheckedMember == "" {
+					sol.UncheckedMember = mm.Members[e].ID
+				}
+			}
 		}
 		return sol, nil
 	}

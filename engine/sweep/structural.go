@@ -37,6 +37,11 @@ type Solution struct {
 	MaxDisplacement float64
 	// MaxUtilisation is the largest member utilisation over the cases.
 	MaxUtilisation float64
+	// UncheckedMember names a member whose checks could not all be made
+	// (a missing limit or section property), empty when every member was
+	// checked: MaxUtilisation then covers the checked members only, and
+	// the max_utilisation metric fails rather than flatter.
+	UncheckedMember string
 }
 
 // Solver analyses one re-parametrised model. It returns a *fault.Error
@@ -137,6 +142,9 @@ func ModelEvaluatorModal(m *model.Model, names, metrics []string, solve Solver, 
 			set(out, want, MetricCarbon, res.Totals.All.Carbon)
 		}
 		set(out, want, MetricMaxDisplacement, sol.MaxDisplacement)
+		if want[MetricMaxUtilisation] && sol.UncheckedMember != "" {
+			return nil, fault.New(fault.MissingData, "max_utilisation is unknown: member %q could not be checked (solve's unchecked list says which data is missing)", sol.UncheckedMember)
+		}
 		set(out, want, MetricMaxUtilisation, sol.MaxUtilisation)
 		if err := modalMetrics(ctx, mm, want, modal, out); err != nil {
 			return nil, err
