@@ -59,6 +59,9 @@ func (st *setting) addMembers(ctx context.Context, opt Options, stats *Stats, re
 			return nil, nil, err
 		}
 		stats.OptimalityGap = max(0, pr.worst-1)
+		if pr.violators == 0 || iteration >= opt.MaxIterations {
+			pr.top = nil // near-violators alone are no reason to go on
+		}
 		rep.Progress("member adding", iteration, 0, Round{Iteration: iteration, Members: len(members), Added: len(pr.top),
 			Volume: res.objective, MaxViolation: pr.worst, Violators: pr.violators})
 		if pr.violators == 0 || iteration >= opt.MaxIterations {
@@ -199,7 +202,7 @@ func (st *setting) priceNode(a int, buf []int32, u [][]vec, inProgram map[uint64
 			ratio += max(st.tension*elongation, -st.compr*elongation, 0)
 		}
 		ratio /= length + st.jointCost
-		if ratio <= part.worst && ratio <= threshold {
+		if ratio <= part.worst && ratio <= st.nearBand*threshold {
 			continue
 		}
 		c := candidate{int32(a), b}
@@ -209,6 +212,8 @@ func (st *setting) priceNode(a int, buf []int32, u [][]vec, inProgram map[uint64
 		part.worst = max(part.worst, ratio)
 		if ratio > threshold {
 			part.violators++
+		}
+		if ratio > st.nearBand*threshold {
 			h.offer(violator{c, ratio}, limit)
 		}
 	}

@@ -35,6 +35,10 @@ type setting struct {
 	tension, compr float64
 	jointCost      float64
 	penalty        float64
+	// nearBand is the fraction of the adding threshold above which a
+	// candidate that does not violate yet is added with the violators
+	// while there is room (1: violators only).
+	nearBand float64
 }
 
 func (st *setting) cost(c candidate) float64 {

@@ -1,7 +1,9 @@
 // Package render draws structural diagrams and charts as SVG: the form and
 // force diagrams of a reciprocal pair side by side (FormAndForce), a form
 // diagram alone coloured by axial force (Form), a solved model's deflected
-// shape and member forces (Solved), and line charts of sweeps (Chart).
+// shape and member forces (Solved), least-volume layouts with line width
+// by area, in the plane or in space as an axonometric view, a plan and an
+// elevation (Layout), and line charts of sweeps (Chart).
 //
 // The visual language is our own and is defined once, in style.go, for
 // every picture: tension is a continuous deep-indigo line, compression a
