@@ -171,7 +171,7 @@ func (c *canvas) scaleBar(f frame, unit string) {
 	c.line(x0, y0, x0+px, y0, "bar", 2, "")
 	c.line(x0, y0-5, x0, y0+5, "bar", 1.5, "")
 	c.line(x0+px, y0-5, x0+px, y0+5, "bar", 1.5, "")
-	c.text(x0+px/2, y0-7, strconv.FormatFloat(l, 'g', 4, 64)+" "+unit, "small", "middle")
+	c.text(x0+px/2, y0-7, strconv.FormatFloat(l, 'g', 4, 64)+" "+unit, "small label", "middle")
 }
 
 // senseClass returns the CSS class and the sense word of an axial force.

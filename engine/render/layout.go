@@ -267,16 +267,18 @@ func (c *canvas) layoutLegend(x, y float64, l *layout.Layout, opt LayoutOptions)
 		items = append(items, struct{ class, text string }{"hole", "Hole (no member crosses)"})
 	}
 	for k, it := range items {
-		xx := x + float64(k)*200
+		// Three to a row, 260 px apart: room for the longest text at 0.62
+		// em a glyph within the narrowest picture (800 px).
+		xx, yy := x+float64(k%3)*260, y+float64(k/3)*20
 		if it.class == "tension" || it.class == "compression" {
-			c.line(xx, y, xx+36, y, it.class+"-band", 8, "")
-			c.line(xx, y, xx+36, y, it.class, 1.6, "")
+			c.line(xx, yy, xx+36, yy, it.class+"-band", 8, "")
+			c.line(xx, yy, xx+36, yy, it.class, 1.6, "")
 		} else {
-			c.line(xx, y, xx+36, y, it.class, 1.6, "")
+			c.line(xx, yy, xx+36, yy, it.class, 1.6, "")
 		}
-		c.text(xx+44, y+4, it.text, "small", "start")
+		c.text(xx+44, yy+4, it.text, "small", "start")
 	}
-	y += 20
+	y += 20 * float64((len(items)+2)/3)
 	c.line(x, y, x+36, y, "load", 2, ` marker-end="url(#arrow)"`)
 	c.text(x+44, y+4, "Load, with its magnitude in "+unitOr(opt.ForceUnit, "kN"), "small", "start")
 	y += 20

@@ -1,0 +1,96 @@
+package main
+
+import (
+	"os"
+	"os/exec"
+	"path/filepath"
+	"regexp"
+	"strings"
+	"testing"
+
+	"gusset/engine/render"
+)
+
+// TestPicturesHaveNoLabelCollisions counts label defects (a label's box
+// over another label or an arrowhead, or a label without a halo on a
+// drawn line; render.CheckLabels) in every picture the demo writes, every
+// picture inlined in its report, every picture the transcripts draw
+// through run --pictures, and the charts the Python and Node examples
+// write. The target is none.
+func TestPicturesHaveNoLabelCollisions(t *testing.T) {
+	dir := t.TempDir()
+	if code, _, errOut := runCapture([]string{"demo", "--out", dir}, ""); code != 0 {
+		t.Fatalf("demo: exit %d: %s", code, errOut)
+	}
+	pictures := filepath.Join(dir, "run")
+	var in strings.Builder
+	for _, name := range []string{"two-bar.in.jsonl", "triangle-reciprocal.in.jsonl", "layout-two-bar.in.jsonl"} {
+		in.WriteString(readTranscript(t, name) + "\n")
+	}
+	runCapture([]string{"run", "-", "--pictures", pictures}, in.String())
+	files, _ := filepath.Glob(filepath.Join(dir, "*.svg"))
+	more, _ := filepath.Glob(filepath.Join(pictures, "*.svg"))
+	files = append(files, more...)
+	files = append(files, exampleCharts(t)...)
+	if len(files) < 6 {
+		t.Fatalf("only %d pictures to check: %v", len(files), files)
+	}
+	docs := map[string][]byte{}
+	for _, f := range files {
+		b, err := os.ReadFile(f)
+		if err != nil {
+			t.Fatal(err)
+		}
+		docs[filepath.Base(filepath.Dir(f))+"/"+filepath.Base(f)] = b
+	}
+	report, err := os.ReadFile(filepath.Join(dir, "report.html"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i, svg := range regexp.MustCompile(`(?s)<svg.*?</svg>`).FindAll(report, -1) {
+		docs["report.html#"+string(rune('a'+i))] = svg
+	}
+	for name, doc := range docs {
+		rep, err := render.CheckLabels(doc)
+		if err != nil {
+			t.Errorf("%s: %v", name, err)
+			continue
+		}
+		if rep.Texts == 0 {
+			t.Errorf("%s: no text found to check", name)
+		}
+		if rep.Defects() > 0 {
+			t.Errorf("%s: %d label defects: %v %v %v", name, rep.Defects(), rep.TextOverlaps, rep.ArrowOverlaps, rep.UnhaloedOnLine)
+		}
+	}
+}
+
+// exampleCharts runs the clients' walkway examples, when their
+// interpreters are here, and returns the charts they write.
+func exampleCharts(t *testing.T) []string {
+	bin := filepath.Join(t.TempDir(), "gusset")
+	if out, err := exec.Command("go", "build", "-o", bin, ".").CombinedOutput(); err != nil {
+		t.Fatalf("go build: %v\n%s", err, out)
+	}
+	var files []string
+	for _, ex := range []struct{ interpreter, script string }{
+		{"python3", "../../clients/python/examples/walkway_variants.py"},
+		{"node", "../../clients/node/examples/walkway-variants.mjs"},
+	} {
+		if _, err := exec.LookPath(ex.interpreter); err != nil {
+			if os.Getenv("GUSSET_REQUIRE_CLIENTS") != "" {
+				t.Fatalf("%s is missing", ex.interpreter)
+			}
+			continue
+		}
+		out := t.TempDir()
+		cmd := exec.Command(ex.interpreter, ex.script, out)
+		cmd.Env = append(os.Environ(), "GUSSET_BINARY="+bin)
+		if b, err := cmd.CombinedOutput(); err != nil {
+			t.Fatalf("%s %s: %v\n%s", ex.interpreter, ex.script, err, b)
+		}
+		found, _ := filepath.Glob(filepath.Join(out, "*.svg"))
+		files = append(files, found...)
+	}
+	return files
+}
