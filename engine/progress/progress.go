@@ -11,6 +11,21 @@ type Reporter interface {
 	Progress(stage string, done, total int, partial any)
 }
 
+// Recorder receives long work's progress with a typed intermediate
+// result, as gonum's optimize.Recorder receives typed locations: Record is
+// called with the stage, done and total as for Reporter, and each partial
+// result of type T (a sweep's Step). Implementations must be safe for
+// concurrent use.
+type Recorder[T any] interface {
+	Record(stage string, done, total int, partial T)
+}
+
+// Drop is a Recorder that drops everything.
+type Drop[T any] struct{}
+
+// Record does nothing.
+func (Drop[T]) Record(string, int, int, T) {}
+
 // Discard is a Reporter that drops everything.
 var Discard Reporter = discard{}
 

@@ -60,7 +60,7 @@ type Refinement struct {
 // search stays in the feasible region and converges onto its boundary when
 // the optimum lies there; the constraints active at the end are then found
 // by probing a step of four tolerances along each axis.
-func refine(ctx context.Context, plan *Plan, eval Evaluator, steps []Step, rep progress.Reporter) (*Refinement, error) {
+func refine(ctx context.Context, plan *Plan, eval Evaluator, steps []Step, rep progress.Recorder[Step]) (*Refinement, error) {
 	r := newRefiner(ctx, plan, eval, rep)
 	start := r.bestStep(steps)
 	if start < 0 {
@@ -101,7 +101,7 @@ type refiner struct {
 	ctx     context.Context
 	plan    *Plan
 	eval    Evaluator
-	rep     progress.Reporter
+	rep     progress.Recorder[Step]
 	bounds  []Bound
 	sign    float64 // −1 when maximising
 	tau     float64
@@ -110,7 +110,7 @@ type refiner struct {
 	bestF   float64 // sign × the best feasible objective so far
 }
 
-func newRefiner(ctx context.Context, plan *Plan, eval Evaluator, rep progress.Reporter) *refiner {
+func newRefiner(ctx context.Context, plan *Plan, eval Evaluator, rep progress.Recorder[Step]) *refiner {
 	dim := len(plan.Axes)
 	r := &refiner{ctx: ctx, plan: plan, eval: eval, rep: rep, sign: 1, tau: plan.tolerance() / 3,
 		maxEval: plan.MaxEvaluations, bounds: make([]Bound, dim)}
@@ -195,7 +195,7 @@ func (r *refiner) evaluate(x []float64) ([]float64, map[string]float64, error) {
 	}
 	// Total 0 (unknown): the cap is a bound, not a forecast; Brent's
 	// method usually stops far below it.
-	r.rep.Progress(StageRefining, r.ref.Evaluations, 0, step)
+	r.rep.Record(StageRefining, r.ref.Evaluations, 0, step)
 	return values, metrics, err
 }
 

@@ -51,7 +51,7 @@ type Result struct {
 	Refinement *Refinement
 }
 
-// Stage names reported through progress.Reporter.
+// Stage names reported through the sweep's progress.Recorder.
 const (
 	StageStep     = "step"     // partial: a Step; done/total count this shard's steps
 	StageRefining = "refining" // partial: a Step (Index −1); done counts evaluations, total is 0 (unknown)
@@ -60,8 +60,8 @@ const (
 // Run evaluates the plan's steps with plan.Workers goroutines and, when the
 // plan names an objective, refines the best step (see Refinement).
 //
-// Each finished step goes at once to reporter.Progress(StageStep, done,
-// total, step), calls being serialised so that done increases by one each
+// Each finished step goes at once to recorder.Record(StageStep, done,
+// total, step) (a nil recorder drops them), calls being serialised so that done increases by one each
 // time; the steps' order among themselves depends on scheduling, but
 // Result.Steps is in index order and identical whatever the scheduling.
 // A failing step is kept in its place with its reason. When ctx is done,
@@ -69,14 +69,17 @@ const (
 // ctx.Err(). A panic in the evaluator stops the sweep and is raised again
 // in the caller's goroutine. Run returns a *PlanError for an invalid plan
 // and panics if eval is nil.
-func Run(ctx context.Context, plan Plan, eval Evaluator, reporter progress.Reporter) (*Result, error) {
+func Run(ctx context.Context, plan Plan, eval Evaluator, recorder progress.Recorder[Step]) (*Result, error) {
 	if eval == nil {
 		panic("sweep: nil evaluator")
 	}
 	if err := plan.Validate(); err != nil {
 		return nil, err
 	}
-	rep := progress.Or(reporter)
+	var rep progress.Recorder[Step] = progress.Drop[Step]{}
+	if recorder != nil {
+		rep = recorder
+	}
 	indices := plan.stepIndices()
 	steps := make([]Step, len(indices))
 
@@ -115,7 +118,7 @@ func Run(ctx context.Context, plan Plan, eval Evaluator, reporter progress.Repor
 				steps[k] = step
 				mu.Lock()
 				done++
-				rep.Progress(StageStep, done, len(indices), step)
+				rep.Record(StageStep, done, len(indices), step)
 				mu.Unlock()
 			}
 		}()

@@ -16,16 +16,16 @@ import (
 	"gonum.org/v1/gonum/floats/scalar"
 )
 
-// recorder is a progress.Reporter that keeps every report.
+// recorder is a progress.Recorder of steps that keeps every report.
 type recorder struct {
 	mu      sync.Mutex
 	stages  []string
 	done    []int
 	total   []int
-	partial []any
+	partial []Step
 }
 
-func (r *recorder) Progress(stage string, done, total int, partial any) {
+func (r *recorder) Record(stage string, done, total int, partial Step) {
 	r.mu.Lock()
 	defer r.mu.Unlock()
 	r.stages = append(r.stages, stage)

@@ -84,16 +84,12 @@ func (a *Adapter) sweep(ctx context.Context, r *request[protocol.SweepParams]) (
 	return out, nil
 }
 
-// stepReporter converts each streamed step to its wire form.
+// stepReporter streams each step the sweep records in its wire form.
 type stepReporter struct{ st progress.Reporter }
 
-func (r stepReporter) Progress(stage string, done, total int, partial any) {
-	if s, ok := partial.(sweep.Step); ok {
-		partial = wireStep(s)
-	} else if s, ok := partial.(*sweep.Step); ok {
-		partial = wireStep(*s)
-	}
-	r.st.Progress(stage, done, total, partial)
+// Record sends the step as the partial result of a progress notification.
+func (r stepReporter) Record(stage string, done, total int, s sweep.Step) {
+	r.st.Progress(stage, done, total, wireStep(s))
 }
 
 func wireStep(s sweep.Step) protocol.SweepStep {
