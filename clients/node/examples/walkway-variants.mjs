@@ -116,7 +116,7 @@ function chart(rows) {
   const px = (x) => (left + (x - xs[0]) / (xs.at(-1) - xs[0]) * (width - left - right)).toFixed(1);
   const py = (y) => (height - bottom - (y - ys[0]) / (ys.at(-1) - ys[0]) * (height - top - bottom)).toFixed(1);
   const out = [
-    `<svg xmlns="http://www.w3.org/2000/svg" width="${width}" height="${height}" font-family="sans-serif" font-size="12">`,
+    `<svg xmlns="http://www.w3.org/2000/svg" width="${width}" height="${height}" font-family="DejaVu Sans, Liberation Sans, Arial, sans-serif" font-size="12">`,
     '<rect width="100%" height="100%" fill="white"/>',
     `<text x="${left}" y="28" font-size="16">Ottery Pier walkway: steel volume of Pratt trusses, 18 m span</text>`,
     `<text x="${left}" y="48">6 kN/m on the bottom chord; members sized as steel tubes` +
@@ -134,15 +134,17 @@ function chart(rows) {
   out.push(`<text x="${(left + width - right) / 2}" y="${height - bottom + 40}" text-anchor="middle">depth (m)</text>`);
   out.push(`<text transform="translate(22 ${(top + height - bottom) / 2}) rotate(-90)" text-anchor="middle">` +
     'steel volume (m³)</text>');
-  const colours = ['#1f5fa8', '#c8452c', '#3b8f3b', '#8a4fb0'];
+  // Gusset's palette (engine/render/style.go), told apart by dash too.
+  const colours = ['#2b1d72', '#c96f00', '#007a6c', '#262626'];
+  const dashes = ['none', '9 3 2 3', '5 3', '1.5 3'];
   PANELS.forEach((panels, k) => {
     const line = rows.filter((r) => r.panels === panels);
     const points = line.map((r) => `${px(r.depth_m)},${py(r.volume_m3)}`).join(' ');
-    out.push(`<polyline points="${points}" fill="none" stroke="${colours[k]}" stroke-width="2"/>`);
+    out.push(`<polyline points="${points}" fill="none" stroke="${colours[k]}" stroke-dasharray="${dashes[k]}" stroke-width="2"/>`);
     for (const r of line) out.push(`<circle cx="${px(r.depth_m)}" cy="${py(r.volume_m3)}" r="3" fill="${colours[k]}"/>`);
     const ly = top + 20 + 22 * k; // the legend, right of the plot
     out.push(`<line x1="${width - right + 20}" y1="${ly}" x2="${width - right + 50}" y2="${ly}" ` +
-      `stroke="${colours[k]}" stroke-width="2"/>`);
+      `stroke="${colours[k]}" stroke-dasharray="${dashes[k]}" stroke-width="2"/>`);
     out.push(`<text x="${width - right + 58}" y="${ly + 4}">${panels} panels</text>`);
   });
   out.push(`<text x="${left}" y="${height - 20}" font-style="italic">${CAUTION}</text>`);

@@ -107,7 +107,7 @@ def chart(rows: list) -> str:
     ys = nice_ticks(0, max(r["volume_m3"] for r in rows))
     px = lambda x: left + (x - xs[0]) / (xs[-1] - xs[0]) * (width - left - right)  # noqa: E731
     py = lambda y: height - bottom - (y - ys[0]) / (ys[-1] - ys[0]) * (height - top - bottom)  # noqa: E731
-    out = ['<svg xmlns="http://www.w3.org/2000/svg" width="%d" height="%d" font-family="sans-serif" font-size="12">'
+    out = ['<svg xmlns="http://www.w3.org/2000/svg" width="%d" height="%d" font-family="DejaVu Sans, Liberation Sans, Arial, sans-serif" font-size="12">'
            % (width, height),
            '<rect width="100%" height="100%" fill="white"/>',
            '<text x="%d" y="28" font-size="16">Ottery Pier walkway: steel volume of Pratt trusses, 18 m span</text>'
@@ -125,17 +125,20 @@ def chart(rows: list) -> str:
                % ((left + width - right) / 2, height - bottom + 40))
     out.append('<text transform="translate(22 %.1f) rotate(-90)" text-anchor="middle">steel volume (m³)</text>'
                % ((top + height - bottom) / 2))
-    colours = ["#1f5fa8", "#c8452c", "#3b8f3b", "#8a4fb0"]
+    # Gusset's palette (engine/render/style.go), told apart by dash too.
+    colours = ["#2b1d72", "#c96f00", "#007a6c", "#262626"]
+    dashes = ["none", "9 3 2 3", "5 3", "1.5 3"]
     for k, panels in enumerate(PANELS):
         line = [r for r in rows if r["panels"] == panels]
         points = " ".join("%.1f,%.1f" % (px(r["depth_m"]), py(r["volume_m3"])) for r in line)
-        out.append('<polyline points="%s" fill="none" stroke="%s" stroke-width="2"/>' % (points, colours[k]))
+        out.append('<polyline points="%s" fill="none" stroke="%s" stroke-dasharray="%s" stroke-width="2"/>'
+                   % (points, colours[k], dashes[k]))
         for r in line:
             out.append('<circle cx="%.1f" cy="%.1f" r="3" fill="%s"/>'
                        % (px(r["depth_m"]), py(r["volume_m3"]), colours[k]))
         ly = top + 20 + 22 * k  # the legend, right of the plot
-        out.append('<line x1="%d" y1="%d" x2="%d" y2="%d" stroke="%s" stroke-width="2"/>'
-                   % (width - right + 20, ly, width - right + 50, ly, colours[k]))
+        out.append('<line x1="%d" y1="%d" x2="%d" y2="%d" stroke="%s" stroke-dasharray="%s" stroke-width="2"/>'
+                   % (width - right + 20, ly, width - right + 50, ly, colours[k], dashes[k]))
         out.append('<text x="%d" y="%d">%d panels</text>' % (width - right + 58, ly + 4, panels))
     out.append('<text x="%d" y="%d" font-style="italic">%s</text>' % (left, height - 20, CAUTION))
     out.append("</svg>")
