@@ -188,7 +188,12 @@ func (d *demo) run() error {
 	}
 
 	// 5. The least-material layout for the same span and loads.
-	return d.bestLayout(lp)
+	if err := d.bestLayout(lp); err != nil {
+		return err
+	}
+
+	// 6. A funicular arch for the same deck (demo_arch.go).
+	return d.archAlternative()
 }
 
 // bestLayout finds the least-volume layout that carries the ultimate deck
