@@ -85,7 +85,9 @@ type ModeResult struct {
 	// Rotations holds per node its rotations (one in 2D, three in 3D),
 	// empty at a node without rotational freedom.
 	Rotations [][]float64 `json:"rotations"`
-	// Residual is ‖K·φ − λ·B·φ‖ / (‖K·φ‖ + |λ|·‖B·φ‖), B being −K_G or M.
+	// Residual is the mode's backward error ‖K·φ − λ·B·φ‖ / ((‖K‖ +
+	// |λ|·‖B‖)·‖φ‖), B being −K_G or M, on the matrices scaled to K's unit
+	// diagonal: the relative change of the matrices that makes it exact.
 	Residual float64 `json:"residual"`
 	// Participation holds per direction the participation factor
 	// Γ = φᵀ·M·r (vibration).

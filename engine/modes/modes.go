@@ -46,8 +46,9 @@ type Options struct {
 	// shift beyond the first critical factor (or first frequency) is an
 	// error. 0 means none.
 	Shift float64
-	// Tolerance is the largest accepted relative residual
-	// ‖K·φ − λ·B·φ‖ / (‖K·φ‖ + |λ|·‖B·φ‖); 0 means DefaultTolerance.
+	// Tolerance is the largest accepted residual, the backward error
+	// ‖K·φ − λ·B·φ‖ / ((‖K‖ + |λ|·‖B‖)·‖φ‖) of each mode on the scaled
+	// matrices; 0 means DefaultTolerance.
 	Tolerance float64
 	// MaxBasis bounds the Lanczos basis (which holds 2·MaxBasis vectors
 	// of the freedoms' length); 0 means max(3·Count + 20, 40). A full
@@ -101,8 +102,9 @@ type Mode struct {
 	// so that the largest component is positive.
 	Displacements [][]float64
 	Rotations     [][]float64
-	// Residual is ‖K·φ − λ·B·φ‖ / (‖K·φ‖ + |λ|·‖B·φ‖) on the model's
-	// matrices (B = −K_G or M).
+	// Residual is the backward error ‖K·φ − λ·B·φ‖ / ((‖K‖ + |λ|·‖B‖)·‖φ‖)
+	// on the matrices scaled to K's unit diagonal (B = −K_G or M): the
+	// relative change of the matrices that makes the mode exact.
 	Residual float64
 	// Participation holds per direction (x, y, (z)) the participation
 	// factor Γ = φᵀ·M·r of the unit translation r of every free node, and
