@@ -103,8 +103,8 @@ func (f *finder) targetMisfit() float64 {
 }
 
 // newtonLimit is the most targets solved by Newton's method; above it the
-// Jacobian (one solve per target and axis, a dense square system) costs
-// more than the slower fixed-point steps it saves.
+// Jacobian (up to two solves per target and a dense square system of
+// their number) costs more than the slower fixed-point steps it saves.
 const newtonLimit = 64
 
 // updateTargets applies one step of the force density update for targets
@@ -115,8 +115,8 @@ const newtonLimit = 64
 // linearisation; from memory), with the Jacobian from ∂x/∂qₑ = −D⁻¹·Cₑᵀuₑ
 // (uₑ the member's vector) and the step at most ln 10 in any ln|qₑ| so no
 // force density changes sign. Loads that follow the form are held fixed in
-// the Jacobian. When the Jacobian is singular, or above newtonLimit, it
-// takes the fixed-point step of the iterative force density method: for a
+// the Jacobian (newtonStep says how it is formed). When the Jacobian is
+// singular, or above newtonLimit, it takes the fixed-point step of the iterative force density method: for a
 // target force N*, q ← N*/L; for a target length L*, q ← q·L/L* (K.
 // Linkwitz, "Force density method", in S. Adriaenssens et al. (eds.), Shell
 // Structures for Architecture, Routledge 2014, ch. 6; L. Veenendaal and P.
@@ -142,45 +142,50 @@ func (f *finder) updateTargets() bool {
 }
 
 // newtonStep takes the Newton step described at updateTargets and reports
-// whether it could.
+// whether it could. The Jacobian needs D⁻¹ only between the free ends of
+// the targeted members: with uₑ = x_a − x_b the member's vector, D·∂x/∂q_c
+// = −C_cᵀu_c has two entries, so ∂x/∂q_c = −u_c ⊗ (D⁻¹e_a − D⁻¹e_b) on every
+// axis, and ∂L_r/∂q_c = −(u_r·u_c)/L_r · (Z_aa − Z_ab − Z_ba + Z_bb) with
+// Z = D⁻¹ at (end of r, end of c). One solve per distinct end node serves
+// all axes and all targets.
 func (f *finder) newtonStep() bool {
 	m, nw, d := f.m, f.nw, f.m.Dim
 	T, nf := len(f.targets), len(nw.freeNodes)
-	// One right-hand side per target and axis: D·y = −Cₑᵀuₑ.
-	cols := make([][]float64, T*d)
-	for c, t := range f.targets {
-		a, b := m.Members[t.member].Ends[0], m.Members[t.member].Ends[1]
-		for k := 0; k < d; k++ {
-			col := make([]float64, nf)
-			u := f.coords[a*d+k] - f.coords[b*d+k]
-			if fa := nw.free[a]; fa >= 0 {
-				col[fa] = -nw.sign * u
+	slot := map[int]int{} // free index → column of D⁻¹ held
+	var cols [][]float64
+	for _, t := range f.targets {
+		for _, end := range m.Members[t.member].Ends {
+			if fi := nw.free[end]; fi >= 0 {
+				if _, ok := slot[fi]; !ok {
+					slot[fi] = len(cols)
+					col := make([]float64, nf)
+					col[fi] = nw.sign // (sign·D)⁻¹·sign·e = D⁻¹·e
+					cols = append(cols, col)
+				}
 			}
-			if fb := nw.free[b]; fb >= 0 {
-				col[fb] = nw.sign * u
-			}
-			cols[c*d+k] = col
 		}
 	}
 	nw.chol.SolveMany(cols, cols)
+	z := func(i, j int) float64 { // D⁻¹ between nodes i and j; 0 at a fixed one
+		fi, fj := nw.free[i], nw.free[j]
+		if fi < 0 || fj < 0 {
+			return 0
+		}
+		return cols[slot[fi]][fj]
+	}
 	jac := mat.NewDense(T, T, nil)
 	g := mat.NewVecDense(T, nil)
 	for r, t := range f.targets {
-		a, b := m.Members[t.member].Ends[0], m.Members[t.member].Ends[1]
+		ar, br := m.Members[t.member].Ends[0], m.Members[t.member].Ends[1]
 		L := f.lengths[t.member]
 		g.SetVec(r, f.achieved(t)-t.value)
 		for c, tc := range f.targets {
-			var dL float64 // ∂Lᵣ/∂q_c
+			ac, bc := m.Members[tc.member].Ends[0], m.Members[tc.member].Ends[1]
+			var dot float64
 			for k := 0; k < d; k++ {
-				var da, db float64
-				if fa := nw.free[a]; fa >= 0 {
-					da = cols[c*d+k][fa]
-				}
-				if fb := nw.free[b]; fb >= 0 {
-					db = cols[c*d+k][fb]
-				}
-				dL += (f.coords[a*d+k] - f.coords[b*d+k]) / L * (da - db)
+				dot += (f.coords[ar*d+k] - f.coords[br*d+k]) * (f.coords[ac*d+k] - f.coords[bc*d+k])
 			}
+			dL := -dot / L * (z(ar, ac) - z(ar, bc) - z(br, ac) + z(br, bc)) // ∂L_r/∂q_c
 			dg := dL
 			if !t.length {
 				dg = f.q[t.member] * dL
@@ -191,6 +196,12 @@ func (f *finder) newtonStep() bool {
 			jac.Set(r, c, dg*f.q[tc.member])
 		}
 	}
+	return f.applyNewton(jac, g)
+}
+
+// applyNewton solves J·Δ = g for the step in ln|q| of the targeted members
+// and applies −Δ, shortened so no entry exceeds ln 10.
+func (f *finder) applyNewton(jac *mat.Dense, g *mat.VecDense) bool {
 	var step mat.VecDense
 	if err := step.SolveVec(jac, g); err != nil {
 		return false

@@ -260,3 +260,24 @@ func TestBadInput(t *testing.T) {
 		})
 	}
 }
+
+// TestExpressionDensities gives per-member force densities as expressions
+// over the model's parameters and checks them against the chain's closed
+// form with the parameter's value: q = 2·k with k = 1.5 in every member
+// gives yᵢ = (P/2q)·i·(i − n).
+func TestExpressionDensities(t *testing.T) {
+	const n, P = 6, 3.0
+	b := chain(n, 1, P)
+	b.s.Parameters = []model.ParameterSpec{{Name: "k", Value: 1.5}}
+	var qs []model.Value
+	for range n {
+		qs = append(qs, model.Expr("2*k"))
+	}
+	m := b.compile(t)
+	r := find(t, m, Problem{ForceDensities: qs})
+	for i := 0; i <= n; i++ {
+		if want := P / (2 * 3) * float64(i*(i-n)); !scalar.EqualWithinAbsOrRel(r.Coords[2*i+1], want, 1e-13, 1e-13) {
+			t.Errorf("node %d at height %g, want %g", i, r.Coords[2*i+1], want)
+		}
+	}
+}
