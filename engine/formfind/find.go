@@ -78,9 +78,7 @@ func newFinder(m *model.Model, p *Problem, opt Options) (*finder, error) {
 	if err = f.prepareConstraints(fixed); err != nil {
 		return nil, err
 	}
-	f.opt.Reporter.Progress("analysing", 0, 1, nil)
-	f.nw = newNetwork(m, fixed, sparse.Options{Workers: opt.Workers})
-	f.opt.Reporter.Progress("analysing", 1, 1, nil)
+	f.nw = newNetwork(m, fixed, sparse.Options{Workers: opt.Workers, Reporter: f.opt.Reporter})
 	n := len(f.nw.freeNodes)
 	f.rhs, f.fixedRHS = make([][]float64, m.Dim), make([][]float64, m.Dim)
 	for k := range f.rhs {
@@ -124,7 +122,6 @@ func (f *finder) iterate(ctx context.Context) (int, float64, error) {
 			return 0, 0, err
 		}
 		if refactor {
-			f.opt.Reporter.Progress("factorising", it-1, f.opt.MaxIterations, nil)
 			if err := f.nw.factorise(ctx, f.q); err != nil {
 				return 0, 0, err
 			}

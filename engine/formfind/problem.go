@@ -74,9 +74,11 @@ type Options struct {
 	// Workers bounds the goroutines of the factorisation; 0 means
 	// GOMAXPROCS. Results do not depend on it.
 	Workers int
-	// Reporter receives the stages "analysing", "factorising" and
-	// "iterating" (done and total count iterations, partial is an
-	// Iteration); nil reports nothing.
+	// Reporter receives the sparse factorisation's stages "ordering",
+	// "symbolic" and "factorising" (done and total count supernodes; every
+	// factorisation of an iteration reports again) and, when iterating,
+	// "iterating" after each iteration (done counts iterations, total is
+	// MaxIterations, partial is an Iteration); nil reports nothing.
 	Reporter progress.Reporter
 }
 
