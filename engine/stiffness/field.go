@@ -236,8 +236,9 @@ func scan(c []float64, x0, h float64, update func(v, x float64)) {
 	update(polyEval(c, 0), x0)
 	update(polyEval(c, h), x0+h)
 	var d [maxDegree + 1]float64
-	var r [maxDegree]float64
-	for _, s := range realRoots(r[:0], polyDerivative(&d, c), 0, h) {
+	var r roots
+	realRoots(&r, polyDerivative(&d, c), 0, h)
+	for _, s := range r.list() {
 		update(polyEval(c, s), x0+s)
 	}
 }

@@ -34,7 +34,22 @@ func trimZeros(c []float64) []float64 {
 	return c
 }
 
-// realRoots appends to dst the real roots of Σ c[k]·s^k that lie strictly
+// roots holds up to maxDegree roots in increasing order, in place (no
+// allocation: the root finder runs for every stretch of every member).
+type roots struct {
+	x [maxDegree]float64
+	n int
+}
+
+func (r *roots) add(x float64) {
+	r.x[r.n] = x
+	r.n++
+}
+
+// list returns the roots found.
+func (r *roots) list() []float64 { return r.x[:r.n] }
+
+// realRoots adds to out the real roots of Σ c[k]·s^k that lie strictly
 // inside (lo, hi) and at which the polynomial changes sign, in increasing
 // order. The roots of p′ split the interval into pieces on which p is
 // monotone (found the same way, recursively); each piece whose ends differ
@@ -43,23 +58,25 @@ func trimZeros(c []float64) []float64 {
 // maxDegree); a root of even multiplicity (a touch, not a crossing) is not
 // reported, which is what extreme-value searches want: such a point of p′
 // is an inflection, not an extreme, of p.
-func realRoots(dst []float64, c []float64, lo, hi float64) []float64 {
+func realRoots(out *roots, c []float64, lo, hi float64) {
 	c = trimZeros(c)
 	switch len(c) {
 	case 0, 1:
-		return dst
+		return
 	case 2:
 		if s := -c[0] / c[1]; s > lo && s < hi {
-			dst = append(dst, s)
+			out.add(s)
 		}
-		return dst
+		return
 	case 3:
-		return quadraticRoots(dst, c[0], c[1], c[2], lo, hi)
+		quadraticRoots(out, c[0], c[1], c[2], lo, hi)
+		return
 	}
 	var d [maxDegree + 1]float64
 	deriv := polyDerivative(&d, c)
-	var cbuf [maxDegree]float64
-	critical := realRoots(cbuf[:0], deriv, lo, hi)
+	var crit roots
+	realRoots(&crit, deriv, lo, hi)
+	critical := crit.list()
 	a, fa := lo, polyEval(c, lo)
 	for i := 0; i <= len(critical); i++ {
 		b := hi
@@ -68,22 +85,21 @@ func realRoots(dst []float64, c []float64, lo, hi float64) []float64 {
 		}
 		fb := polyEval(c, b)
 		if fa != 0 && fb != 0 && (fa < 0) != (fb < 0) {
-			dst = append(dst, monotoneRoot(c, deriv, a, b, fa))
+			out.add(monotoneRoot(c, deriv, a, b, fa))
 		} else if fb == 0 && b < hi {
-			dst = append(dst, b)
+			out.add(b)
 		}
 		a, fa = b, fb
 	}
-	return dst
 }
 
 // quadraticRoots appends the roots of c0 + c1·s + c2·s² inside (lo, hi),
 // computed in the cancellation-free form (Press et al., Numerical Recipes,
 // 3rd ed., 2007, §5.6, eq. 5.6.4–5.6.5).
-func quadraticRoots(dst []float64, c0, c1, c2, lo, hi float64) []float64 {
+func quadraticRoots(out *roots, c0, c1, c2, lo, hi float64) {
 	disc := c1*c1 - 4*c2*c0
 	if disc <= 0 {
-		return dst // no roots, or a double root (a touch, no sign change)
+		return // no roots, or a double root (a touch, no sign change)
 	}
 	q := -0.5 * (c1 + math.Copysign(math.Sqrt(disc), c1))
 	r1, r2 := q/c2, c0/q
@@ -92,10 +108,9 @@ func quadraticRoots(dst []float64, c0, c1, c2, lo, hi float64) []float64 {
 	}
 	for _, r := range [2]float64{r1, r2} {
 		if r > lo && r < hi {
-			dst = append(dst, r)
+			out.add(r)
 		}
 	}
-	return dst
 }
 
 // monotoneRoot finds the one root of the polynomial c (derivative deriv) on

@@ -198,8 +198,7 @@ func beamExtremes(r *MemberResult, f *field) {
 		var force [3]float64
 		var stretch [4]float64
 		f.axialPolynomials(&force, &stretch)
-		scan(force[:], f.x0, h, maxN.largest)
-		scan(force[:], f.x0, h, minN.smallest)
+		scan(force[:], f.x0, h, func(v, x float64) { maxN.largest(v, x); minN.smallest(v, x) })
 		var momY, momZ [4]float64
 		var defY, defZ [6]float64
 		f.y.polynomials(f.x0, &momZ, &defY)

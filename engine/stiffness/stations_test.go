@@ -400,9 +400,9 @@ func TestStationsAgreeWithRefinedModel(t *testing.T) {
 // TestRealRoots checks the root finder against polynomials built from
 // known roots (a product of linear factors).
 func TestRealRoots(t *testing.T) {
-	roots := []float64{-0.7, 0.1, 0.35, 0.36, 1.9, 2.5, 3.25}
+	known := []float64{-0.7, 0.1, 0.35, 0.36, 1.9, 2.5, 3.25}
 	c := []float64{1}
-	for _, r := range roots {
+	for _, r := range known {
 		next := make([]float64, len(c)+1)
 		for k, ck := range c {
 			next[k+1] += ck
@@ -410,7 +410,9 @@ func TestRealRoots(t *testing.T) {
 		}
 		c = next
 	}
-	got := realRoots(nil, c, 0, 3)
+	var found roots
+	realRoots(&found, c, 0, 3)
+	got := found.list()
 	want := []float64{0.1, 0.35, 0.36, 1.9, 2.5}
 	if len(got) != len(want) {
 		t.Fatalf("roots %v, want %v", got, want)
