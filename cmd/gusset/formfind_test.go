@@ -4,6 +4,7 @@ import (
 	"encoding/json"
 	"fmt"
 	"math"
+	"os"
 	"strings"
 	"testing"
 )
@@ -65,5 +66,76 @@ func TestFindFormThenSweepRise(t *testing.T) {
 	got := swept.Result.Refinement
 	if swept.Result.Failed != 0 || math.Abs(got.Values[0]-want) > 1e-5*want || math.Abs(got.Objective-zWant) > 1e-9*zWant {
 		t.Errorf("least-material rise %.8g (load path %.10g), want %.8g (%.10g); %d steps failed", got.Values[0], got.Objective, want, zWant, swept.Result.Failed)
+	}
+}
+
+// TestFoundModelAsIs sends the model find-form returns for the thrust line
+// of testdata/transcripts/find-form (4 panels, P = 10 kN, crown 2 m) to
+// solve, reciprocate and load-path unchanged. The expected values are the
+// transcript's hand derivation: forces −√(10² + 15²) in the outer and
+// −√(10² + 5²) in the inner members, load path 90 kN·m; the force diagram
+// closes (Maxwell 1864) to round-off.
+func TestFoundModelAsIs(t *testing.T) {
+	input, err := os.ReadFile("../../testdata/transcripts/find-form.in.jsonl")
+	if err != nil {
+		t.Fatal(err)
+	}
+	first := strings.SplitN(string(input), "\n", 2)[0]
+	_, out, _ := runCapture([]string{"run", "-"}, first+"\n")
+	var found struct {
+		Result struct {
+			Model     json.RawMessage `json:"model"`
+			ModelCase string          `json:"model_case"`
+		} `json:"result"`
+	}
+	if err := json.Unmarshal([]byte(strings.TrimSpace(out)), &found); err != nil {
+		t.Fatal(err)
+	}
+	ask := func(method, extra string, v any) {
+		t.Helper()
+		req := `{"jsonrpc":"2.0","id":1,"method":"` + method + `","params":{"model":` + string(found.Result.Model) + extra + `}}`
+		_, out, _ := runCapture([]string{"run", "-"}, req+"\n")
+		lines := strings.Split(strings.TrimSpace(out), "\n")
+		if err := json.Unmarshal([]byte(lines[len(lines)-1]), v); err != nil {
+			t.Fatalf("%s: %v %s", method, err, out)
+		}
+	}
+	cases := `,"cases":["` + found.Result.ModelCase + `"]`
+	var solved struct {
+		Result struct {
+			Cases []struct {
+				AxialForces []float64 `json:"axial_forces"`
+			} `json:"cases"`
+		} `json:"result"`
+	}
+	ask("solve", cases, &solved)
+	outer, inner := -math.Sqrt(325), -math.Sqrt(125)
+	for e, want := range []float64{outer, inner, inner, outer} {
+		if len(solved.Result.Cases) != 1 || math.Abs(solved.Result.Cases[0].AxialForces[e]-want) > 1e-9*math.Abs(want) {
+			t.Fatalf("solve: %+v, want member %d at %g", solved.Result, e, want)
+		}
+	}
+	var lp struct {
+		Result struct {
+			Cases []struct {
+				LoadPath float64 `json:"load_path"`
+			} `json:"cases"`
+		} `json:"result"`
+	}
+	ask("load-path", cases, &lp)
+	if len(lp.Result.Cases) != 1 || math.Abs(lp.Result.Cases[0].LoadPath-90) > 1e-9 {
+		t.Errorf("load-path: %+v, want 90", lp.Result)
+	}
+	var rec struct {
+		Result struct {
+			Closure struct {
+				Max float64 `json:"max"`
+			} `json:"closure"`
+		} `json:"result"`
+		Error any `json:"error"`
+	}
+	ask("reciprocate", `,"case":"`+found.Result.ModelCase+`"`, &rec)
+	if rec.Error != nil || rec.Result.Closure.Max > 1e-9 {
+		t.Errorf("reciprocate: closure %g, error %v", rec.Result.Closure.Max, rec.Error)
 	}
 }
