@@ -173,9 +173,11 @@ func (f *finder) solve() (float64, error) {
 		num += l * (f.through.at[k] - h)
 		den += l * l
 	}
-	if den == 0 || num == 0 || math.IsNaN(num/den) {
-		return 0, fault.At(fault.NoSolution, "/through/node", "no scaling of the force densities moves node %q to the point: %s",
-			f.m.NodeIDs[f.through.node], map[bool]string{true: "no load moves it", false: "it is there only with infinite force densities"}[den == 0])
+	switch {
+	case den == 0:
+		return 0, fault.At(fault.NoSolution, "/through/node", "no scaling of the force densities moves node %q to the point: no load moves it", f.m.NodeIDs[f.through.node])
+	case num == 0 || math.IsNaN(num/den):
+		return 0, fault.At(fault.NoSolution, "/through/at", "node %q reaches the point only with infinite force densities (it lies where the unloaded network puts the node)", f.m.NodeIDs[f.through.node])
 	}
 	t := num / den
 	f.through.scale = 1 / t

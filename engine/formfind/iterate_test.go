@@ -195,3 +195,39 @@ func TestProgressAndCancel(t *testing.T) {
 		t.Errorf("cancelled: got %v", err)
 	}
 }
+
+// TestCatenaryThroughSag combines the two iterations: a chain under its own
+// weight w per length, sent through a sag f at midspan. The catenary
+// through (±l/2, 0) and (0, −f) has a·(cosh(l/(2a)) − 1) = f, and its
+// horizontal force is H = w·a (closed form; see TestCatenary), so the
+// found force density must give H = q·l/n within the chain's second-order
+// discretisation error.
+func TestCatenaryThroughSag(t *testing.T) {
+	const l, f, w, n = 10.0, 2.0, 2.0, 128
+	b := chain(n, l/float64(n), 0)
+	density := model.Num(w / 1e-3)
+	b.s.Materials[0].WeightDensity = &density
+	b.s.LoadCases[0].SelfWeight = true
+	m := b.compile(t)
+	r := find(t, m, Problem{ForceDensity: one(1), Through: &Through{Node: fmt.Sprintf("c%d", n/2), At: []float64{l / 2, -f}}})
+	if !r.Converged || r.ThroughMisfit > 1e-12 {
+		t.Fatalf("converged %v after %d iterations, misfit %g", r.Converged, r.Iterations, r.ThroughMisfit)
+	}
+	// Solve a·(cosh(l/(2a)) − 1) = f for a by bisection (the left side
+	// falls as a grows).
+	lo, hi := 0.1, 100.0
+	for range 200 {
+		a := (lo + hi) / 2
+		if a*(math.Cosh(l/(2*a))-1) > f {
+			lo = a
+		} else {
+			hi = a
+		}
+	}
+	H := w * (lo + hi) / 2
+	if got := r.ForceDensity[0] * l / n; !scalar.EqualWithinAbsOrRel(got, H, 1e-4, 1e-4) {
+		t.Errorf("horizontal force %.8g, want w·a = %.8g", got, H)
+	}
+	t.Logf("H = %.8g against the catenary's %.8g after %d iterations", r.ForceDensity[0]*l/n, H, r.Iterations)
+	checkResidual(t, r)
+}
