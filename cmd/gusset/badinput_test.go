@@ -158,7 +158,8 @@ func checkBadInput(t *testing.T, bin string, want badInputWant, line []byte) {
 // units), compacted, when the line is one UTF-8 JSON object whose id is a
 // string or a number; null otherwise.
 func expectedID(line []byte) string {
-	line = bytes.TrimRight(line, "\r\n")
+	// A byte-order mark before the first line is tolerated (README).
+	line = bytes.TrimPrefix(bytes.TrimRight(line, "\r\n"), []byte("\xef\xbb\xbf"))
 	if !utf8.Valid(line) || !json.Valid(line) {
 		return "null"
 	}

@@ -17,8 +17,10 @@ type call struct {
 	key    string          // the compacted id, the in-flight table's key
 	method string
 	params json.RawMessage
-	ctx    context.Context
-	cancel context.CancelCauseFunc
+	// refused says why a notification failed; it is logged, not answered.
+	refused string
+	ctx     context.Context
+	cancel  context.CancelCauseFunc
 
 	// sendMu orders the call's messages: a progress notification is
 	// written whole before the final response is queued.
@@ -113,11 +115,52 @@ func (c *conn) admit(cl *call) bool {
 	c.mu.Unlock()
 	if busy {
 		cl.cancel(nil)
-		c.respond(errorResponse(cl.id, protocol.NewError(protocol.CodeInvalidRequest, "invalid request",
-			"Another request with this id is still in flight; ids must be unique among requests in flight.",
-			protocol.Problem{Path: "/id", Message: "id already in use"})))
+		c.respond(errorResponse(cl.id, idInUse()))
 	}
 	return !busy
+}
+
+func idInUse() *protocol.Error {
+	return protocol.NewError(protocol.CodeInvalidRequest, "invalid request",
+		"Another request with this id is still in flight; ids must be unique among requests in flight.",
+		protocol.Problem{Path: "/id", Message: "id already in use"})
+}
+
+// duplicate answers a describe or cancel whose id is that of a request in
+// flight with -32600, as admit answers any other method, so that no two
+// responses share an id.
+func (c *conn) duplicate(cl *call) bool {
+	if cl.id == nil || (cl.method != protocol.MethodDescribe && cl.method != protocol.MethodCancel) {
+		return false
+	}
+	c.mu.Lock()
+	_, busy := c.inFlight[cl.key]
+	c.mu.Unlock()
+	if busy {
+		c.respond(errorResponse(cl.id, idInUse()))
+	}
+	return busy
+}
+
+// unanswered handles the notifications (requests without an id) that get
+// no response, as JSON-RPC 2.0 §4.1 requires of every notification: one
+// that failed, and one asking for work, which is not run (nothing could
+// stop it, and no one would see its result); both are logged on stderr.
+// A cancel notification still stops its target; a describe one does
+// nothing.
+func (c *conn) unanswered(cl *call) bool {
+	if cl.id != nil {
+		return false
+	}
+	switch {
+	case cl.refused != "":
+		c.s.logf("a notification (a request without an id) for %q was not answered: %s", cl.method, cl.refused)
+	case cl.method == protocol.MethodCancel:
+		return false
+	case cl.method != protocol.MethodDescribe:
+		c.s.logf("a notification (a request without an id) asks for %s: work runs only for requests with an id, so it was not run", cl.method)
+	}
+	return true
 }
 
 // finish marks a call done, removes it from the table and sends its final

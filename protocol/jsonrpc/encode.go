@@ -12,7 +12,7 @@ func errorResponse(id json.RawMessage, e *protocol.Error) *protocol.Response {
 	if id == nil {
 		id = json.RawMessage("null")
 	}
-	return &protocol.Response{JSONRPC: "2.0", ID: id, Error: e}
+	return &protocol.Response{JSONRPC: "2.0", ID: id, Error: shortened(e)}
 }
 
 // marshalResponse encodes a response; a result that cannot be encoded (a

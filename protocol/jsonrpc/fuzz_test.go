@@ -5,6 +5,8 @@ import (
 	"bytes"
 	"context"
 	"encoding/json"
+	"regexp"
+	"strconv"
 	"strings"
 	"testing"
 	"time"
@@ -46,6 +48,10 @@ func FuzzServe(f *testing.F) {
 		`{"jsonrpc":"2.0","id":8,"method":"boom"}` + "\n" + `{"jsonrpc":"2.0","id":8,"method":"echo"}`,
 		`{"jsonrpc":"2.0","id":9,"method":"wait"}` + "\n" + `{"jsonrpc":"2.0","id":10,"method":"cancel","params":{"request":9}}` + "\n" + `{"jsonrpc":"2.0","id":9,"method":"fail"}`,
 		strings.Repeat("[", 300),
+		"\xef\xbb\xbf" + `{"jsonrpc":"2.0","id":"bom","method":"echo"}` + "\n" + "\xef\xbb\xbf" + `{"jsonrpc":"2.0","id":"bom2","method":"echo"}`,
+		`{"jsonrpc":"2.0","id":"\ud800","method":"echo"}` + "\n" + `{"jsonrpc":"2.0","id":"\ud83d\ude00","method":"echo"}`,
+		`{"jsonrpc":"2.0","method":"nope"}` + "\n" + `{"jsonrpc":"2.0","method":"echo","params":[1]}`,
+		`{"jsonrpc":"2.0","id":null,"method":"wait"}` + "\n" + `{"jsonrpc":"2.0","id":null,"method":"describe"}`,
 	}
 	for _, s := range seeds {
 		f.Add([]byte(s))
@@ -163,7 +169,11 @@ func expectedResponses(input []byte, limit int) (ids map[string]int, minNull, ma
 	if len(lines) > 0 && len(lines[len(lines)-1]) == 0 {
 		lines = lines[:len(lines)-1]
 	}
-	for _, raw := range lines {
+	for i, raw := range lines {
+		if i == 0 {
+			// A byte-order mark before the first line is ignored (README).
+			raw = bytes.TrimPrefix(raw, []byte("\xef\xbb\xbf"))
+		}
 		content := bytes.TrimRight(raw, "\r")
 		if len(raw) > limit+1 || len(content) > limit {
 			// Oversize, or close enough that framing details decide: at
@@ -233,8 +243,36 @@ func requestID(line []byte) (string, idKind) {
 		return "", idBad
 	}
 	c := compact.Bytes()
+	if c[0] == '"' && hasLoneSurrogate(c) {
+		return "", idBad // not Unicode text (RFC 8259 §8.2): answered as a parse error
+	}
 	if c[0] == '"' || c[0] == '-' || (c[0] >= '0' && c[0] <= '9') {
 		return string(c), idValid
 	}
 	return "", idBad
+}
+
+// hasLoneSurrogate reports a \u escape of a UTF-16 surrogate (D800–DFFF)
+// that is not a high one (D800–DBFF) followed at once by a low one
+// (DC00–DFFF), after removing escaped backslashes (RFC 8259 §7).
+func hasLoneSurrogate(s []byte) bool {
+	t := strings.ReplaceAll(string(s), `\\`, "")
+	escapes := regexp.MustCompile(`\\u[0-9a-fA-F]{4}`).FindAllStringIndex(t, -1)
+	value := func(k int) int64 {
+		v, _ := strconv.ParseInt(t[escapes[k][0]+2:escapes[k][1]], 16, 32)
+		return v
+	}
+	for k := 0; k < len(escapes); k++ {
+		switch v := value(k); {
+		case v >= 0xD800 && v <= 0xDBFF:
+			if k+1 < len(escapes) && escapes[k+1][0] == escapes[k][1] && value(k+1) >= 0xDC00 && value(k+1) <= 0xDFFF {
+				k++
+				continue
+			}
+			return true
+		case v >= 0xDC00 && v <= 0xDFFF:
+			return true
+		}
+	}
+	return false
 }

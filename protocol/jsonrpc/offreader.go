@@ -79,10 +79,9 @@ func (c *conn) dispatch(cl *call, resp *protocol.Response) bool {
 	switch {
 	case resp != nil:
 		c.respond(resp)
+	case c.unanswered(cl), c.duplicate(cl):
 	case cl.method == protocol.MethodDescribe:
-		if cl.id != nil {
-			c.respond(&protocol.Response{JSONRPC: "2.0", ID: cl.id, Result: c.s.describeResult(c.limits)})
-		}
+		c.respond(&protocol.Response{JSONRPC: "2.0", ID: cl.id, Result: c.s.describeResult(c.limits)})
 	case cl.method == protocol.MethodCancel:
 		if resp, _ := c.cancel(cl); cl.id != nil {
 			c.respond(resp)

@@ -20,8 +20,13 @@ const bigLine = 1 << 20
 // read reads lines until end of input and hands each to handle.
 func (c *conn) read(in io.Reader) {
 	reader := bufio.NewReaderSize(in, 64<<10)
-	for {
+	for first := true; ; first = false {
 		line, tooLong, err := readLine(reader, c.limits.MaxLineBytes)
+		if first {
+			// A byte-order mark before the first line (files saved by some
+			// editors) is not part of the JSON text (RFC 8259 §8.1).
+			line = bytes.TrimPrefix(line, []byte("\xef\xbb\xbf"))
+		}
 		if tooLong {
 			c.respond(errorResponse(nil, protocol.NewError(protocol.CodeParseError, "parse error",
 				fmt.Sprintf("The line is longer than the line size limit of %d bytes; it was skipped. Send smaller requests or start the server with a larger --max-line-bytes.", c.limits.MaxLineBytes))))
@@ -51,10 +56,9 @@ func (c *conn) handle(line []byte) {
 	switch {
 	case resp != nil:
 		c.respond(resp)
+	case c.unanswered(cl), c.duplicate(cl):
 	case cl.method == protocol.MethodDescribe:
-		if cl.id != nil { // a notification gets no response
-			c.respond(&protocol.Response{JSONRPC: "2.0", ID: cl.id, Result: c.s.describeResult(c.limits)})
-		}
+		c.respond(&protocol.Response{JSONRPC: "2.0", ID: cl.id, Result: c.s.describeResult(c.limits)})
 	case cl.method == protocol.MethodCancel:
 		resp, found := c.cancel(cl)
 		if !found && !c.idle() {
@@ -110,16 +114,24 @@ func (s *Server) parse(line []byte) (*call, *protocol.Response) {
 	// Members are taken by their exact names (RFC 8259 §4): decoding into a
 	// struct would also accept "ID" or "Method". The params stay raw.
 	var members map[string]json.RawMessage
-	if err := json.Unmarshal(line, &members); err != nil {
-		var syntax *json.SyntaxError
-		if errors.As(err, &syntax) {
-			return nil, errorResponse(nil, protocol.NewError(protocol.CodeParseError, "parse error",
-				"The line is not valid JSON: "+err.Error()+". Send one JSON-RPC request object per line."))
+	err := json.Unmarshal(line, &members)
+	if err == nil {
+		cl, resp := s.request(members)
+		if _, hasID := members["id"]; !hasID && resp != nil && resp.Error.Code != protocol.CodeInvalidRequest {
+			// A well-formed notification that fails is not answered.
+			var method string
+			_ = json.Unmarshal(members["method"], &method)
+			return &call{method: method, refused: resp.Error.Message}, nil
 		}
-		return nil, errorResponse(nil, protocol.NewError(protocol.CodeInvalidRequest, "invalid request",
-			"The message is not a JSON object. Send one JSON-RPC 2.0 request object per line.", protocol.Problem{Path: "", Message: "expected an object"}))
+		return cl, resp
 	}
-	return s.request(members)
+	var syntax *json.SyntaxError
+	if errors.As(err, &syntax) {
+		return nil, errorResponse(nil, protocol.NewError(protocol.CodeParseError, "parse error",
+			"The line is not valid JSON: "+err.Error()+". Send one JSON-RPC request object per line."))
+	}
+	return nil, errorResponse(nil, protocol.NewError(protocol.CodeInvalidRequest, "invalid request",
+		"The message is not a JSON object. Send one JSON-RPC 2.0 request object per line.", protocol.Problem{Path: "", Message: "expected an object"}))
 }
 
 // request checks the envelope's members and builds the call.
@@ -127,9 +139,19 @@ func (s *Server) request(members map[string]json.RawMessage) (*call, *protocol.R
 	var id json.RawMessage
 	if raw, has := members["id"]; has {
 		id = json.RawMessage(compactID(raw))
-		if c := id[0]; c != '"' && c != '-' && (c < '0' || c > '9') {
+		switch c := id[0]; {
+		case string(id) == "null":
+			// Allowed, if discouraged (JSON-RPC 2.0 §4): answered with id
+			// null, and one such request in flight at a time.
+		case c != '"' && c != '-' && (c < '0' || c > '9'):
 			return nil, errorResponse(nil, protocol.NewError(protocol.CodeInvalidRequest, "invalid request",
-				"The id must be a string or a number.", protocol.Problem{Path: "/id", Message: "expected a string or a number"}))
+				"The id must be a string, a number or null.", protocol.Problem{Path: "/id", Message: "expected a string, a number or null"}))
+		case c == '"' && loneSurrogate(id):
+			// Answered as the parse layer answers other text that is not
+			// Unicode (RFC 8259 §8.2): the id cannot be echoed.
+			return nil, errorResponse(nil, protocol.NewError(protocol.CodeParseError, "parse error",
+				`The id holds a lone UTF-16 surrogate escape (such as "\ud800" alone), which is not Unicode text. Send ids as valid strings.`,
+				protocol.Problem{Path: "/id", Message: "lone surrogate escape"}))
 		}
 	}
 	var version, method string
@@ -158,6 +180,52 @@ func (s *Server) request(members map[string]json.RawMessage) (*call, *protocol.R
 		}
 	}
 	return &call{id: id, key: string(id), method: method, params: params}, nil
+}
+
+// loneSurrogate reports whether a JSON string's text holds a \u escape of
+// a UTF-16 surrogate that is not part of a high-low pair.
+func loneSurrogate(s []byte) bool {
+	hex := func(i int) (rune, bool) {
+		if i+6 > len(s) || s[i] != '\\' || s[i+1] != 'u' {
+			return 0, false
+		}
+		var r rune
+		for _, h := range s[i+2 : i+6] {
+			switch {
+			case h >= '0' && h <= '9':
+				r = r<<4 | rune(h-'0')
+			case h >= 'a' && h <= 'f':
+				r = r<<4 | rune(h-'a'+10)
+			case h >= 'A' && h <= 'F':
+				r = r<<4 | rune(h-'A'+10)
+			default:
+				return 0, false
+			}
+		}
+		return r, true
+	}
+	for i := 0; i < len(s); i++ {
+		if s[i] != '\\' {
+			continue
+		}
+		r, ok := hex(i)
+		if !ok {
+			i++ // another escape: skip its letter
+			continue
+		}
+		switch {
+		case r >= 0xD800 && r <= 0xDBFF:
+			if low, ok := hex(i + 6); ok && low >= 0xDC00 && low <= 0xDFFF {
+				i += 11
+				continue
+			}
+			return true
+		case r >= 0xDC00 && r <= 0xDFFF:
+			return true
+		}
+		i += 5
+	}
+	return false
 }
 
 // compactID returns an id's JSON text without insignificant space, the

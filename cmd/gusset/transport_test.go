@@ -1,0 +1,153 @@
+package main
+
+import (
+	"encoding/json"
+	"strings"
+	"sync"
+	"testing"
+	"time"
+)
+
+// transcriptOf runs lines through a fresh `gusset serve` and returns the
+// final responses by id (as raw JSON text), the raw output lines and
+// stderr. onLine, when set, sees every line as it arrives and may send
+// more input.
+func transcriptOf(t *testing.T, args []string, lines []string, onLine func(p *process, raw []byte, m *wireMessage)) (map[string][]*wireMessage, []string, string) {
+	t.Helper()
+	bin := buildGusset(t)
+	var mu sync.Mutex
+	finals := map[string][]*wireMessage{}
+	var raws []string
+	var p *process
+	ready := make(chan struct{})
+	p = startGusset(t, bin, append([]string{"serve"}, args...), func(raw []byte, m *wireMessage) {
+		<-ready
+		mu.Lock()
+		raws = append(raws, string(raw))
+		if m.isFinal() {
+			mm := *m
+			finals[string(m.ID)] = append(finals[string(m.ID)], &mm)
+		}
+		mu.Unlock()
+		if onLine != nil {
+			onLine(p, raw, m)
+		}
+	})
+	close(ready)
+	for _, l := range lines {
+		if err := p.send([]byte(l)); err != nil {
+			t.Fatal(err)
+		}
+	}
+	if onLine == nil {
+		p.closeInput()
+	}
+	if err, exited := p.waitWithin(60 * time.Second); !exited || err != nil {
+		t.Fatalf("exit: %v (exited %v); stderr: %s", err, exited, p.stderr.String())
+	}
+	for _, b := range p.bad {
+		t.Errorf("bad output line: %s", b)
+	}
+	return finals, raws, p.stderr.String()
+}
+
+// TestNotificationsAreNeverAnswered: JSON-RPC 2.0 §4.1 says a notification
+// (a request without an id) is never answered. One that asks for work (a
+// 100,000-step sweep) is not run, so it cannot hold the only worker; one
+// naming an unknown method, or with bad params, gets no -32601/-32602 with
+// id null; each is logged on stderr. A cancel notification still works,
+// and a describe notification does nothing (issue 18 item 4).
+func TestNotificationsAreNeverAnswered(t *testing.T) {
+	sweep := string(request(nil, "sweep-parameter", map[string]any{"model": twoBar("h"),
+		"parameters": []any{map[string]any{"name": "h", "from": 1, "to": 5, "count": 100000}}}))
+	sweep = strings.Replace(sweep, `"id":null,`, ``, 1)
+	lines := []string{
+		sweep,
+		`{"jsonrpc":"2.0","method":"no-such-method"}`,
+		`{"jsonrpc":"2.0","method":"solve","params":{"model":{}}}`,
+		`{"jsonrpc":"2.0","method":"describe"}`,
+		`{"jsonrpc":"2.0","method":"cancel","params":{"request":"nothing"}}`,
+		`{"jsonrpc":"2.0","id":"after","method":"solve","params":{"model":` + mustJSON(twoBar(3)) + `}}`,
+	}
+	start := time.Now()
+	finals, raws, stderr := transcriptOf(t, []string{"--jobs", "1"}, lines, nil)
+	if len(finals) != 1 || len(finals[`"after"`]) != 1 || finals[`"after"`][0].Error != nil {
+		t.Fatalf("want exactly one answer, the solve's; got %q", raws)
+	}
+	if d := time.Since(start); d > 20*time.Second {
+		t.Errorf("the request after the sweep notification took %v: the notification ran", d)
+	}
+	for _, want := range []string{"asks for sweep-parameter", `"no-such-method"`, "asks for solve"} {
+		if !strings.Contains(stderr, want) {
+			t.Errorf("stderr lacks %q: %s", want, stderr)
+		}
+	}
+}
+
+// TestDuplicateIDForEveryMethod: a describe or cancel carrying the id of a
+// request still in flight is refused with -32600 at /id, as any other
+// method is, so no two responses share an id (issue 18 item 8).
+func TestDuplicateIDForEveryMethod(t *testing.T) {
+	sweep := string(request("x", "sweep-parameter", map[string]any{"model": twoBar("h"),
+		"parameters": []any{map[string]any{"name": "h", "from": 1, "to": 5, "count": 100000}}}))
+	var once sync.Once
+	finals, _, _ := transcriptOf(t, []string{"--jobs", "1"}, []string{sweep}, func(p *process, raw []byte, m *wireMessage) {
+		if m.Method == "progress" && string(m.Params.Request) == `"x"` {
+			once.Do(func() {
+				p.send([]byte(`{"jsonrpc":"2.0","id":"x","method":"describe"}`))
+				p.send([]byte(`{"jsonrpc":"2.0","id":"x","method":"cancel","params":{"request":"x"}}`))
+				p.send([]byte(`{"jsonrpc":"2.0","id":"c","method":"cancel","params":{"request":"x"}}`))
+				p.closeInput()
+			})
+		}
+	})
+	got := finals[`"x"`]
+	if len(got) != 3 {
+		t.Fatalf("%d answers with id x, want 3 (two refusals and the cancelled sweep)", len(got))
+	}
+	refused := 0
+	for _, m := range got {
+		switch {
+		case m.Error != nil && m.Error.Code == -32600 && len(m.Error.Data.Problems) > 0 && m.Error.Data.Problems[0].Path == "/id":
+			refused++
+		case m.Error != nil && m.Error.Code == -32000:
+		default:
+			t.Errorf("unexpected answer %+v", m)
+		}
+	}
+	if refused != 2 {
+		t.Errorf("%d refusals with -32600 at /id, want 2", refused)
+	}
+	if c := finals[`"c"`]; len(c) != 1 || string(c[0].Result) != `{"cancelled":true}` {
+		t.Errorf("cancel: %+v", c)
+	}
+}
+
+// TestShortErrorExcerpts: an error about a 100 kB name quotes a short
+// excerpt, not the whole name (issue 22 item 4): a member whose end names
+// a node that does not exist, the name 100,000 characters long.
+func TestShortErrorExcerpts(t *testing.T) {
+	name := strings.Repeat("n", 100000)
+	model := twoBar(3)
+	model["members"] = []any{map[string]any{"id": "AC", "ends": []string{"A", name}, "material": "steel", "section": "tube"}}
+	line := string(request("long", "solve", map[string]any{"model": model}))
+	finals, raws, _ := transcriptOf(t, nil, []string{line}, nil)
+	got := finals[`"long"`]
+	if len(got) != 1 || got[0].Error == nil || got[0].Error.Code != 1000 {
+		t.Fatalf("want one invalid-model error (1000), got %.300q", raws)
+	}
+	if n := len(raws[len(raws)-1]); n > 2000 {
+		t.Errorf("the error answer is %d bytes for a %d-character name; want a short excerpt", n, len(name))
+	}
+	if !strings.Contains(raws[len(raws)-1], "99947 characters]") { // 100,000 n, the quotes and comma, less the 56 kept
+		t.Errorf("the answer does not say how much was left out: %.500s", raws[len(raws)-1])
+	}
+}
+
+func mustJSON(v any) string {
+	b, err := json.Marshal(v)
+	if err != nil {
+		panic(err)
+	}
+	return string(b)
+}
