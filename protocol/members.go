@@ -1,6 +1,6 @@
 package protocol
 
-// MemberResult is one member's results along its length for one case, in
+// MemberResult is one beam's results along its length for one case, in
 // the member's local axes (x from its first end to its second). Internal
 // forces act on the face of a cut whose outward normal is local +x:
 // tension positive; moments as right-handed vectors, so that a 2D beam
@@ -8,9 +8,8 @@ package protocol
 // dM_y/dx = V_z (the shear of the beam tables, with dM/dx = V, is
 // −shear_y). In 2D, shear_y and moment_z are the member's shear and
 // moment in the plane; shear_z, torsion and moment_y are 3D only. Station
-// arrays are empty for bars (axial force only, constant along a bar
-// without loads along it) and when stations were not asked for. At a point
-// load a station reports the value just past it (towards the second end).
+// arrays are empty when stations were not asked for. At a point load a
+// station reports the value just past it (towards the second end).
 type MemberResult struct {
 	// ID is the member's id.
 	ID string `json:"id"`

@@ -67,8 +67,9 @@ type CaseResult struct {
 	// member when the model has no beams.
 	MaxMoment Extreme `json:"max_moment"`
 	// Members holds per member (aligned with model.members) its results
-	// along its length.
-	Members []MemberResult `json:"members"`
+	// along its length; null for a bar, whose axial force is constant
+	// along it (axial_forces) and whose check is in utilisation.
+	Members []*MemberResult `json:"members"`
 	// MaxUtilisation is the largest utilisation and its member, over the
 	// members whose checks were all made (value 0 and no member when
 	// none); unchecked_members counts the others.

@@ -1,7 +1,7 @@
 // Helpers that read a solve result's results along members by member id.
 //
 // A solve result holds, per case, `members`: one entry per model member,
-// aligned with model.members, each with its `id`, the internal forces and
+// aligned with model.members (null for a bar), each beam's with its `id`, the internal forces and
 // displacements at its stations and the exact extremes along it (see the
 // schema's MemberResult). These helpers find them by id so that a host need
 // not keep the member order.
@@ -15,9 +15,9 @@
  */
 export function memberResult(caseResult, memberId) {
   for (const entry of caseResult.members ?? []) {
-    if (entry.id === memberId) return entry;
+    if (entry && entry.id === memberId) return entry;
   }
-  throw new RangeError(`no member ${JSON.stringify(memberId)} in case ${JSON.stringify(caseResult.id)}`);
+  throw new RangeError(`no beam ${JSON.stringify(memberId)} in case ${JSON.stringify(caseResult.id)} (bars have no results along them)`);
 }
 
 /**

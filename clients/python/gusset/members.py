@@ -1,7 +1,7 @@
 """Helpers that read a solve result's results along members by member id.
 
 A solve result holds, per case, ``members``: one entry per model member,
-aligned with ``model["members"]``, each with its ``id``, the internal forces
+aligned with ``model["members"]`` (None for a bar), each beam's with its ``id``, the internal forces
 and displacements at its stations, and the exact extremes along it (see the
 schema's MemberResult). These helpers find them by id so that a host need
 not keep the member order.
@@ -19,9 +19,9 @@ def member_result(case: Dict[str, Any], member_id: str) -> Dict[str, Any]:
     the case has no member of that id.
     """
     for entry in case.get("members", []):
-        if entry.get("id") == member_id:
+        if entry is not None and entry.get("id") == member_id:
             return entry
-    raise KeyError("no member %r in case %r" % (member_id, case.get("id")))
+    raise KeyError("no beam %r in case %r (bars have no results along them)" % (member_id, case.get("id")))
 
 
 def member_results(result: Dict[str, Any], member_id: str) -> Iterator[Tuple[str, Dict[str, Any]]]:

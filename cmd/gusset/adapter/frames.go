@@ -1,8 +1,11 @@
 package adapter
 
 import (
+	"bytes"
+
 	"gusset/engine/fault"
 	"gusset/engine/model"
+	"gusset/engine/render"
 	"gusset/engine/stiffness"
 	"gusset/protocol"
 )
@@ -74,9 +77,11 @@ func caseSummaries(m *model.Model, c *stiffness.CaseResult, cr *protocol.CaseRes
 	}
 	cr.MaxDisplacement = wirePeak(m, c.MaxDisplacement)
 	cr.MaxMoment = wirePeak(m, c.MaxMoment)
-	cr.Members = make([]protocol.MemberResult, len(c.Members))
+	cr.Members = make([]*protocol.MemberResult, len(c.Members))
 	for e := range c.Members {
-		cr.Members[e] = wireMember(m, e, &c.Members[e])
+		if m.Members[e].Kind == model.Beam {
+			cr.Members[e] = wireMember(m, e, &c.Members[e])
+		}
 	}
 }
 
@@ -93,8 +98,8 @@ func wirePeak(m *model.Model, p stiffness.Peak) protocol.Extreme {
 	return protocol.Extreme{}
 }
 
-// wireMember converts one member's results along it.
-func wireMember(m *model.Model, e int, r *stiffness.MemberResult) protocol.MemberResult {
+// wireMember converts one beam's results along it.
+func wireMember(m *model.Model, e int, r *stiffness.MemberResult) *protocol.MemberResult {
 	along := func(x stiffness.Extreme) protocol.Along { return protocol.Along{Value: x.Value, At: x.At} }
 	check := func(u float64) *float64 {
 		if u < 0 {
@@ -102,7 +107,7 @@ func wireMember(m *model.Model, e int, r *stiffness.MemberResult) protocol.Membe
 		}
 		return &u
 	}
-	out := protocol.MemberResult{ID: m.Members[e].ID, Stations: r.Stations, Axial: r.Axial, ShearY: r.ShearY, ShearZ: r.ShearZ,
+	out := &protocol.MemberResult{ID: m.Members[e].ID, Stations: r.Stations, Axial: r.Axial, ShearY: r.ShearY, ShearZ: r.ShearZ,
 		Torsion: r.Torsion, MomentY: r.MomentY, MomentZ: r.MomentZ, Displacements: r.Displacements,
 		MaxAxial: along(r.MaxAxial), MinAxial: along(r.MinAxial), PeakMomentZ: along(r.PeakMomentZ),
 		PeakDeflectionY: along(r.PeakDeflectionY), PeakDisplacement: along(r.PeakDisplacement),
@@ -112,7 +117,7 @@ func wireMember(m *model.Model, e int, r *stiffness.MemberResult) protocol.Membe
 	if r.MinAxial.Value < 0 {
 		out.BucklingReduction = r.BucklingReduction
 	}
-	if m.Dim == 3 && m.Members[e].Kind == model.Beam {
+	if m.Dim == 3 {
 		my, wz := along(r.PeakMomentY), along(r.PeakDeflectionZ)
 		out.PeakMomentY, out.PeakDeflectionZ = &my, &wz
 	}
@@ -139,4 +144,32 @@ func loadPathCaveats(m *model.Model, r *stiffness.Result) []string {
 		}
 	}
 	return out
+}
+
+// solvePicture draws the first reported case: for a 2D model with beams,
+// the bending-moment diagram and the deflected shape along the members
+// (render.Beams, from the stations); otherwise, or without stations, the
+// deflected shape with the members styled by their axial force
+// (render.Solved).
+func solvePicture(m *model.Model, res *stiffness.Result) (string, error) {
+	c := &res.Cases[0]
+	var svg bytes.Buffer
+	var curves []render.BeamCurve
+	if m.Dim == 2 {
+		for e := range c.Members {
+			r := &c.Members[e]
+			if len(r.Stations) == 0 {
+				continue
+			}
+			curves = append(curves, render.BeamCurve{Member: e, Stations: r.Stations, Moment: r.MomentZ, Displacements: r.Displacements,
+				PeakMoment: [2]float64{r.PeakMomentZ.Value, r.PeakMomentZ.At}, PeakDisplacement: [2]float64{r.PeakDisplacement.Value, r.PeakDisplacement.At}})
+		}
+	}
+	if len(curves) > 0 {
+		err := render.Beams(&svg, m, c.Displacements, curves, render.Options{Title: "Moments and deflections along the members: " + c.ID})
+		return svg.String(), err
+	}
+	title := "Deflected shape and axial forces: " + c.ID
+	err := render.Solved(&svg, m, c.Displacements, c.AxialForce, render.Options{Title: title, ForceLabels: len(m.Members) <= 12})
+	return svg.String(), err
 }
