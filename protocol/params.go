@@ -102,8 +102,11 @@ type SweepParams struct {
 	// an array of one or two (a grid, the second varying fastest).
 	Parameters SweepAxes `json:"parameters"`
 	// Metrics lists what to evaluate at each step: load_path, volume,
-	// mass, carbon, max_displacement, max_utilisation. Default load_path
-	// and volume when the materials have limits, load_path otherwise.
+	// mass, carbon, max_displacement, max_utilisation,
+	// critical_load_factor (the least positive linear buckling factor over
+	// the cases, by modes), first_frequency (the lowest natural frequency
+	// in Hz, by modes; needs mass). Default load_path and volume when the
+	// materials have limits, load_path otherwise.
 	Metrics []string `json:"metrics,omitempty" jsonschema:"uniqueItems=true"`
 	// Cases lists the load cases and combinations evaluated at each step
 	// (metrics take the envelope); default every one.
@@ -112,6 +115,11 @@ type SweepParams struct {
 	Sizing *Sizing `json:"sizing,omitempty"`
 	// Objective, when given, refines the best step to an optimum.
 	Objective *Objective `json:"objective,omitempty"`
+	// Constraints bound metrics during refinement: it starts from the
+	// best step that meets them all and optimises the objective over the
+	// points that do, reporting the constraints active at the optimum.
+	// Their metrics are evaluated at every step.
+	Constraints []SweepConstraint `json:"constraints,omitempty"`
 	// Shard computes only one shard of the steps, with global indices.
 	Shard *Shard `json:"shard,omitempty"`
 	// Steps is "full" (the default: the final result lists every step) or
@@ -137,11 +145,22 @@ type SweepAxis struct {
 // Objective asks for the optimum of one metric.
 type Objective struct {
 	// Metric is the metric to optimise.
-	Metric string `json:"metric" jsonschema:"enum=load_path,enum=volume,enum=mass,enum=carbon,enum=max_displacement,enum=max_utilisation"`
+	Metric string `json:"metric" jsonschema:"enum=load_path,enum=volume,enum=mass,enum=carbon,enum=max_displacement,enum=max_utilisation,enum=critical_load_factor,enum=first_frequency"`
 	// Goal is "minimise" (the default) or "maximise".
 	Goal string `json:"goal,omitempty" jsonschema:"enum=minimise,enum=maximise"`
 	// Tolerance is the relative tolerance on the parameter; default 1e-6.
 	Tolerance float64 `json:"tolerance,omitempty" jsonschema:"exclusiveMinimum=0"`
+}
+
+// SweepConstraint bounds one metric: a point is feasible when min ≤
+// metric ≤ max; give min, max or both.
+type SweepConstraint struct {
+	// Metric is a metric name, as in metrics.
+	Metric string `json:"metric" jsonschema:"enum=load_path,enum=volume,enum=mass,enum=carbon,enum=max_displacement,enum=max_utilisation,enum=critical_load_factor,enum=first_frequency"`
+	// Min is the least allowed value.
+	Min *float64 `json:"min,omitempty"`
+	// Max is the greatest allowed value.
+	Max *float64 `json:"max,omitempty"`
 }
 
 // Shard selects one of count interleaved shards: steps whose global index

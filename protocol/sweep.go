@@ -54,4 +54,11 @@ type Refinement struct {
 	AtEdge bool `json:"at_edge"`
 	// Message says why refinement could not run, when it could not.
 	Message string `json:"message,omitempty"`
+	// Feasible is true when the optimum meets every constraint (always
+	// once refinement has run).
+	Feasible bool `json:"feasible"`
+	// ActiveConstraints lists the constraints (indices into the request's
+	// constraints) whose boundary the optimum lies on; empty when the
+	// optimum is interior.
+	ActiveConstraints []int `json:"active_constraints"`
 }

@@ -299,7 +299,7 @@ func (d *demo) depthStudy(depth, volume float64, sizing map[string]any) error {
 		return err
 	}
 	d.say("   Curve: %s\n", file)
-	return nil
+	return d.modalStudy(sizing, best, r.Objective)
 }
 
 // extremes returns the indices of the largest and smallest values.

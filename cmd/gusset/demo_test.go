@@ -55,7 +55,17 @@ func TestDemo(t *testing.T) {
 	if math.Abs(mm) > 0.05 || math.Abs(zt-zc) > 0.1 || math.Abs(zt+zc-z) > 0.15 || z <= 0 {
 		t.Errorf("crowd case: Z = %g, Z_T = %g, Z_C = %g, M = %g; want M = 0 and Z_T = Z_C = Z/2", z, zt, zc, mm)
 	}
-	for _, file := range []string{"depth-study.svg", "form-and-force.svg", "least-material-layout.svg"} {
+	// The depth study under the demo brief's limits: the least steel with
+	// a buckling factor of at least 200 lies deeper than the free optimum,
+	// on the boundary of that constraint (the factor grows with the depth
+	// in this truss, the steel falls and then rises).
+	modal := regexp.MustCompile(`unconstrained:\s+depth ([0-9.]+) m[^\n]*\n[^\n]*Least steel with λ ≥ 200 and f₁ ≥ 5 Hz:\s+depth ([0-9.]+) m, [0-9.]+ m³ \(λ = ([0-9.]+),[^\n]*active: critical_load_factor ≥ 200`).FindStringSubmatch(out)
+	if modal == nil {
+		t.Errorf("demo output lacks the constrained depth study:\n%s", out)
+	} else if free, held, factor := atof(modal[1]), atof(modal[2]), atof(modal[3]); !(held > free) || math.Abs(factor-200) > 0.05 {
+		t.Errorf("constrained depth %g (factor %g) against the free %g: want deeper, at a factor of 200", held, factor, free)
+	}
+	for _, file := range []string{"depth-study.svg", "form-and-force.svg", "least-material-layout.svg", "buckling-mode.svg", "vibration-mode.svg"} {
 		b, err := os.ReadFile(filepath.Join(dir, file))
 		if err != nil {
 			t.Fatal(err)
@@ -64,4 +74,13 @@ func TestDemo(t *testing.T) {
 			t.Errorf("%s is not an SVG with the caution", file)
 		}
 	}
+}
+
+// atof parses a number the demo printed, NaN when it is not one.
+func atof(s string) float64 {
+	v, err := strconv.ParseFloat(s, 64)
+	if err != nil {
+		return math.NaN()
+	}
+	return v
 }

@@ -80,7 +80,7 @@ func Mode(w io.Writer, m *model.Model, shape ModeShape, opt Options) error {
 	c.text(56, y, "undeformed form", "small", "start")
 	c.line(180, y-4, 210, y-4, "", 2, fmt.Sprintf(` stroke="%s" fill="none"`, DeflectedColour))
 	c.text(216, y, "mode shape (scale arbitrary)", "small", "start")
-	c.caption(20, y+24, shape.Heading, shape.Notes...)
+	c.caption(20, y+24, "Linear modal analysis", shape.Notes...)
 	return c.close()
 }
 

@@ -4,6 +4,7 @@ import (
 	"context"
 	"errors"
 	"fmt"
+	"slices"
 
 	"gusset/engine/progress"
 	"gusset/engine/sweep"
@@ -55,8 +56,14 @@ func (a *Adapter) sweep(ctx context.Context, r *request[protocol.SweepParams]) (
 		objective = p.Objective.Metric
 	}
 	metrics := sweep.Metrics(m, p.Metrics, p.Sizing != nil, objective)
+	for _, c := range p.Constraints {
+		plan.Constraints = append(plan.Constraints, sweep.Constraint{Metric: c.Metric, Min: c.Min, Max: c.Max})
+		if !slices.Contains(metrics, c.Metric) {
+			metrics = append(metrics, c.Metric)
+		}
+	}
 	solver := sweep.StiffnessSolver(m, p.Cases)
-	eval, err := sweep.ModelEvaluator(m, names, metrics, solver, opt)
+	eval, err := sweep.ModelEvaluatorModal(m, names, metrics, solver, opt, sweep.Modal{Cases: p.Cases})
 	if err != nil {
 		return nil, sweepError(err)
 	}
@@ -73,7 +80,8 @@ func (a *Adapter) sweep(ctx context.Context, r *request[protocol.SweepParams]) (
 	if r := res.Refinement; r != nil {
 		out.Best = r.StartIndex
 		out.Refinement = &protocol.Refinement{Method: r.Method, StartIndex: r.StartIndex, Values: r.Values, Objective: r.Objective,
-			Metrics: r.Metrics, Evaluations: r.Evaluations, Converged: r.Converged, AtEdge: r.AtEdge, Message: r.Message}
+			Metrics: r.Metrics, Evaluations: r.Evaluations, Converged: r.Converged, AtEdge: r.AtEdge, Message: r.Message,
+			Feasible: r.Feasible, ActiveConstraints: append([]int{}, r.Active...)}
 		if out.Refinement.Values == nil {
 			out.Refinement.Values = []float64{}
 		}
