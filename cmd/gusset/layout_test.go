@@ -159,6 +159,32 @@ func TestSpaceLayoutGoesOn(t *testing.T) {
 	if c := lp.Cases[0]; math.Abs(c.LoadPath-lay.Volume) > 1e-9 || c.RelativeResidual > 1e-12 {
 		t.Errorf("load path %v (residual %v), want the volume %v", c.LoadPath, c.RelativeResidual, lay.Volume)
 	}
+	// The host makes the load a parameter p and sweeps it: the forces of a
+	// statically admissible truss scale with its load, so the load path is
+	// p times the layout's (common practice: linear statics).
+	var m map[string]any
+	if err := json.Unmarshal(lay.Model, &m); err != nil {
+		t.Fatal(err)
+	}
+	m["parameters"] = map[string]any{"p": 1}
+	load := m["load_cases"].([]any)[0].(map[string]any)["loads"].([]any)[0].(map[string]any)
+	load["force"] = []any{0, 0, "-p"}
+	edited, _ := json.Marshal(m)
+	var sw struct {
+		Steps []struct {
+			Values  []float64          `json:"values"`
+			Metrics map[string]float64 `json:"metrics"`
+		} `json:"steps"`
+	}
+	final(t, fmt.Sprintf(`{"jsonrpc":"2.0","id":4,"method":"sweep-parameter","params":{"model":%s,"parameters":[{"name":"p","values":[1,2.5]}],"metrics":["load_path"]}}`, edited), &sw)
+	if len(sw.Steps) != 2 {
+		t.Fatalf("%d sweep steps, want 2", len(sw.Steps))
+	}
+	for _, st := range sw.Steps {
+		if got, want := st.Metrics["load_path"], st.Values[0]*lay.Volume; math.Abs(got-want) > 1e-9*want {
+			t.Errorf("p = %v: load path %v, want %v", st.Values[0], got, want)
+		}
+	}
 }
 
 // TestLayoutRefusals checks the layout errors a host meets first, each

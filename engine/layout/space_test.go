@@ -2,6 +2,7 @@ package layout
 
 import (
 	"context"
+	"errors"
 	"math"
 	"strings"
 	"testing"
@@ -401,5 +402,24 @@ func TestSpaceBadInput(t *testing.T) {
 				t.Errorf("error %q (%+v), want %q at %s", fe.Error(), fe.Problems, tc.text, tc.path)
 			}
 		})
+	}
+}
+
+// TestSpaceProgressAndCancel checks that a space layout reports each
+// member-adding round (the last adding nothing) and stops with the
+// context's error when cancelled at the first round.
+func TestSpaceProgressAndCancel(t *testing.T) {
+	rec := &recorder{stages: map[string]int{}}
+	l, err := Optimise(context.Background(), spaceBridge(4), Options{}, rec)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(rec.rounds) != l.Stats.Iterations || rec.rounds[len(rec.rounds)-1].Added != 0 {
+		t.Errorf("%d rounds reported for %d iterations: %+v", len(rec.rounds), l.Stats.Iterations, rec.rounds)
+	}
+	ctx, cancel := context.WithCancel(context.Background())
+	rec = &recorder{stages: map[string]int{}, cancel: cancel}
+	if _, err := Optimise(ctx, spaceBridge(8), Options{}, rec); !errors.Is(err, context.Canceled) {
+		t.Errorf("error %v, want cancellation", err)
 	}
 }
