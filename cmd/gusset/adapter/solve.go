@@ -18,7 +18,13 @@ func (a *Adapter) solve(ctx context.Context, r *request[protocol.SolveParams]) (
 	if err != nil {
 		return nil, err
 	}
-	return solveResult(r.Model, res), nil
+	out := solveResult(r.Model, res)
+	if r.Params.Picture && len(res.Cases) > 0 {
+		if out.Picture, err = solvePicture(r.Model, res); err != nil {
+			return nil, err
+		}
+	}
+	return out, nil
 }
 
 // analyse runs the stiffness solve and locates its errors in the request.
