@@ -16,6 +16,10 @@ type SweepResult struct {
 	Best int `json:"best"`
 	// Refinement is the refined optimum, when an objective was given.
 	Refinement *Refinement `json:"refinement,omitempty"`
+	// Warnings locate what the sweep cannot vary: a swept parameter that
+	// no expression of the model reads (its steps are all one model), with
+	// the pointer of its axis.
+	Warnings []Problem `json:"warnings,omitempty"`
 	// Caution: results are for preliminary design.
 	Caution string `json:"caution"`
 }

@@ -169,3 +169,36 @@ func TestBarAcrossLoadThroughProcess(t *testing.T) {
 		t.Errorf("unchecked %+v, want a note at /params/model/members/1", resp.Result.Unchecked)
 	}
 }
+
+// TestSweepUnusedParameterThroughProcess sweeps a parameter that no
+// expression reads and checks that the answer warns with the axis's
+// pointer (the sweep once ran and "refined" to an arbitrary value without
+// a word), while its steps still come back.
+func TestSweepUnusedParameterThroughProcess(t *testing.T) {
+	bin := buildGusset(t)
+	model := twoBar("h")
+	model["parameters"] = map[string]any{"h": 3, "spare": 1}
+	line := request(1, "sweep-parameter", map[string]any{"model": model,
+		"parameters": []any{map[string]any{"name": "spare", "from": 1, "to": 2, "count": 3}}})
+	cmd := exec.Command(bin, "run", "-")
+	cmd.Stdin = strings.NewReader(string(line) + "\n")
+	out, err := cmd.Output()
+	if err != nil {
+		t.Fatalf("run: %v", err)
+	}
+	var resp struct {
+		Result struct {
+			Total    int `json:"total"`
+			Warnings []struct {
+				Path string `json:"path"`
+			} `json:"warnings"`
+		} `json:"result"`
+	}
+	lines := strings.Split(strings.TrimSpace(string(out)), "\n")
+	if err := json.Unmarshal([]byte(lines[len(lines)-1]), &resp); err != nil { // the answer follows the progress lines
+		t.Fatalf("%v: %s", err, out)
+	}
+	if resp.Result.Total != 3 || len(resp.Result.Warnings) != 1 || resp.Result.Warnings[0].Path != "/params/parameters/0/name" {
+		t.Errorf("total %d, warnings %+v; want 3 steps and one warning at /params/parameters/0/name", resp.Result.Total, resp.Result.Warnings)
+	}
+}

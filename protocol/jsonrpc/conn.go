@@ -186,6 +186,9 @@ func (c *conn) finish(cl *call, resp *protocol.Response) {
 
 // respond counts a failure and sends a final response.
 func (c *conn) respond(resp *protocol.Response) {
+	// Encoded first: a result that cannot be encoded becomes an internal
+	// error, which counts and is what OnResponse sees.
+	line := marshalResponse(resp)
 	if resp.Error != nil {
 		c.mu.Lock()
 		c.failures++
@@ -194,7 +197,7 @@ func (c *conn) respond(resp *protocol.Response) {
 	if c.s.OnResponse != nil {
 		c.s.OnResponse(resp)
 	}
-	c.w.send(marshalResponse(resp))
+	c.w.send(line)
 }
 
 // cancel answers a cancel request: it stops the target if it is in flight.

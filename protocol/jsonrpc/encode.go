@@ -16,15 +16,18 @@ func errorResponse(id json.RawMessage, e *protocol.Error) *protocol.Response {
 }
 
 // marshalResponse encodes a response; a result that cannot be encoded (a
-// NaN slipped through) becomes an internal error rather than a broken line.
+// NaN slipped through) becomes an internal error rather than a broken line,
+// and r is changed to that error so that callers count and report what
+// was written.
 func marshalResponse(r *protocol.Response) []byte {
 	if r.ID == nil {
 		r.ID = json.RawMessage("null")
 	}
 	b, err := encode(r)
 	if err != nil {
-		b, _ = encode(errorResponse(r.ID, protocol.NewError(protocol.CodeInternal, "internal error",
-			fmt.Sprintf("The result could not be encoded as JSON (%v). This is a bug: please report it with the request.", err))))
+		*r = *errorResponse(r.ID, protocol.NewError(protocol.CodeInternal, "internal error",
+			fmt.Sprintf("The result could not be encoded as JSON (%v). This is a bug: please report it with the request.", err)))
+		b, _ = encode(r)
 	}
 	return b
 }

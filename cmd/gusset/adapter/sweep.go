@@ -16,6 +16,7 @@ func (a *Adapter) sweep(ctx context.Context, r *request[protocol.SweepParams]) (
 	p, m, st := r.Params, r.Model, r.Stream
 	plan := sweep.Plan{Workers: a.Limits.Workers, MaxSteps: a.Limits.MaxSweepSteps}
 	names := make([]string, len(p.Parameters))
+	var warnings []protocol.Problem
 	for i, axis := range p.Parameters {
 		values, err := axisValues(axis, fmt.Sprintf("/params/parameters/%d", i))
 		if err != nil {
@@ -27,9 +28,8 @@ func (a *Adapter) sweep(ctx context.Context, r *request[protocol.SweepParams]) (
 				protocol.Problem{Path: fmt.Sprintf("/params/parameters/%d/name", i), Message: "not a model parameter"})
 		}
 		if !m.ParamUsed(m.ParamIndex(axis.Name)) {
-			return nil, protocol.NewError(protocol.CodeInvalidParams, "invalid params",
-				fmt.Sprintf("No expression of the model reads parameter %q, so sweeping it changes nothing; write it into a coordinate, load, section or material expression.", axis.Name),
-				protocol.Problem{Path: fmt.Sprintf("/params/parameters/%d/name", i), Message: "no expression of the model reads this parameter"})
+			warnings = append(warnings, protocol.Problem{Path: fmt.Sprintf("/params/parameters/%d/name", i),
+				Message: fmt.Sprintf("no expression of the model reads parameter %q, so every step along this axis is the same model and a refinement along it finds nothing; write it into a coordinate, load, section or material expression", axis.Name)})
 		}
 		names[i] = axis.Name
 		plan.Axes = append(plan.Axes, sweep.Axis{Name: axis.Name, Values: values})
@@ -71,7 +71,8 @@ func (a *Adapter) sweep(ctx context.Context, r *request[protocol.SweepParams]) (
 	if err != nil {
 		return nil, sweepError(err)
 	}
-	out := &protocol.SweepResult{Parameters: names, Total: res.Total, Failed: res.Failed, Best: -1, Steps: []protocol.SweepStep{}, Caution: Caution}
+	out := &protocol.SweepResult{Parameters: names, Total: res.Total, Failed: res.Failed, Best: -1, Steps: []protocol.SweepStep{}, Caution: Caution,
+		Warnings: warnings}
 	if p.Steps != "summary" {
 		for _, s := range res.Steps {
 			out.Steps = append(out.Steps, wireStep(s))
