@@ -23,6 +23,10 @@ type minimum1D struct {
 // evaluations of f, or when f reports stop. f may return +Inf for a point
 // it cannot evaluate; parabolic steps are then skipped until the three
 // points are finite again.
+//
+// The loop is kept whole, as Brent wrote it: its eight state variables
+// (bracket, three best points, last two steps) change together in every
+// branch, and splitting it would pass them all around.
 func brent(f func(x float64) (fx float64, stop bool), lo, hi, x0, f0 float64, tol func(x float64) float64, maxEval int) minimum1D {
 	a, b := lo, hi
 	x, w, v := x0, x0, x0
@@ -41,24 +45,10 @@ func brent(f func(x float64) (fx float64, stop bool), lo, hi, x0, f0 float64, to
 		}
 		golden := true
 		if math.Abs(e) > tol1 && !math.IsInf(fx, 0) && !math.IsInf(fw, 0) && !math.IsInf(fv, 0) {
-			// Vertex of the parabola through (v, fv), (w, fw), (x, fx),
-			// as x + p/q.
-			r := (x - w) * (fx - fv)
-			q := (x - v) * (fx - fw)
-			p := (x-v)*q - (x-w)*r
-			q = 2 * (q - r)
-			if q > 0 {
-				p = -p
-			} else {
-				q = -q
-			}
 			previous := e
 			e = d
-			// Accept the parabolic step only if it stays inside the
-			// bracket and is less than half the step before last, which
-			// guarantees convergence at least as fast as bisection.
-			if math.Abs(p) < math.Abs(q*previous/2) && p > q*(a-x) && p < q*(b-x) {
-				d = p / q
+			if step, ok := parabolicStep(x, w, v, fx, fw, fv, a, b, previous); ok {
+				d = step
 				if u := x + d; u-a < tol2 || b-u < tol2 {
 					d = tol1
 					if x >= m {
@@ -116,4 +106,25 @@ func brent(f func(x float64) (fx float64, stop bool), lo, hi, x0, f0 float64, to
 			v, fv = u, fu
 		}
 	}
+}
+
+// parabolicStep returns the step from x to the vertex of the parabola
+// through (v, fv), (w, fw), (x, fx), and whether Brent's method accepts
+// it: only if it stays inside the bracket [a, b] and is less than half
+// the step before last (previous), which guarantees convergence at least
+// as fast as bisection.
+func parabolicStep(x, w, v, fx, fw, fv, a, b, previous float64) (float64, bool) {
+	r := (x - w) * (fx - fv)
+	q := (x - v) * (fx - fw)
+	p := (x-v)*q - (x-w)*r
+	q = 2 * (q - r)
+	if q > 0 {
+		p = -p
+	} else {
+		q = -q
+	}
+	if math.Abs(p) < math.Abs(q*previous/2) && p > q*(a-x) && p < q*(b-x) {
+		return p / q, true
+	}
+	return 0, false
 }

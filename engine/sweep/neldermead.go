@@ -28,6 +28,18 @@ const (
 	nmShrink   = 0.5
 )
 
+// This package keeps its own Nelder–Mead rather than gonum's
+// optimize.NelderMead (issue 13 item 9), for two measured reasons. First,
+// gonum.org/v1/gonum/optimize imports gonum/stat/distmv (for CMA-ES),
+// which imports golang.org/x/tools/container/intsets: `go list -deps
+// gonum.org/v1/gonum/optimize` here fails for the missing module, so using
+// it would add a module outside gonum and the standard library to the
+// engine's graph, which the layering rule forbids. Second, gonum's method
+// stops by a Converger on function values, sees no bounds and never
+// restarts, where a refinement must stop when the optimum's location is
+// known to a tolerance along each axis, stay within the bounds (points
+// projected onto them) and restart a collapsed simplex once.
+//
 // nelderMead minimises f within the box [lower, upper] from x0 (value f0
 // known) with an initial simplex of x0 and x0 + step_i·e_i, each point
 // projected onto the box, by the Nelder–Mead simplex method (Nelder & Mead,
@@ -55,126 +67,165 @@ func nelderMead(f func(x []float64) (float64, bool), x0 []float64, f0 float64, s
 	return best
 }
 
+// vertex is a point of the simplex with its value.
+type vertex struct {
+	x []float64
+	f float64
+}
+
+// simplexRun is the state of one Nelder–Mead run within a box.
+type simplexRun struct {
+	f            func(x []float64) (float64, bool)
+	lower, upper []float64
+	tol          func(i int, x float64) float64
+	maxEval      int
+	evals        int
+	stopped      bool
+	simplex      []vertex // n + 1 vertices, best first after sort
+	centroid     []float64
+}
+
+func (r *simplexRun) eval(x []float64) float64 {
+	fx, stop := r.f(x)
+	r.evals++
+	r.stopped = r.stopped || stop
+	return fx
+}
+
+// exhausted reports that the run may evaluate no more.
+func (r *simplexRun) exhausted() bool { return r.stopped || r.evals >= r.maxEval }
+
+func (r *simplexRun) project(x []float64) {
+	for i := range x {
+		x[i] = math.Max(r.lower[i], math.Min(r.upper[i], x[i]))
+	}
+}
+
+func (r *simplexRun) sort() {
+	sort.SliceStable(r.simplex, func(a, b int) bool { return r.simplex[a].f < r.simplex[b].f })
+}
+
+// result returns the best vertex; converged only when the simplex was
+// built.
+func (r *simplexRun) result(converged bool) minimumND {
+	r.sort()
+	n := len(r.simplex) - 1
+	best := r.simplex[0]
+	return minimumND{x: best.x, fx: best.f, evaluations: r.evals, converged: converged && r.simplex[n].x != nil}
+}
+
+// converged reports that every vertex lies within the tolerance of the
+// best along every axis, or that all have the same value to round-off:
+// then no move can tell them apart (the function is flat at this scale,
+// as near a minimum once |Δx| is below about sqrt(ε)·|x|).
+func (r *simplexRun) converged() bool {
+	best := r.simplex[0]
+	small, flat := true, true
+	for _, v := range r.simplex[1:] {
+		for i := range v.x {
+			if math.Abs(v.x[i]-best.x[i]) > r.tol(i, best.x[i]) {
+				small = false
+			}
+		}
+		if math.Abs(v.f-best.f) > 2*epsilon*math.Abs(best.f) {
+			flat = false
+		}
+	}
+	return small || flat
+}
+
+// along returns centroid + t·(centroid − worst), projected onto the box.
+func (r *simplexRun) along(t float64) []float64 {
+	n := len(r.centroid)
+	x := make([]float64, n)
+	for i := range x {
+		x[i] = r.centroid[i] + t*(r.centroid[i]-r.simplex[n].x[i])
+	}
+	r.project(x)
+	return x
+}
+
+// move makes one Nelder–Mead step on the sorted simplex: reflect the
+// worst vertex through the centroid of the others, expand a reflection
+// that beats the best, contract outside or inside when it does not beat
+// the second worst, and shrink towards the best when that fails too.
+func (r *simplexRun) move() {
+	n := len(r.centroid)
+	for i := range r.centroid {
+		r.centroid[i] = 0
+		for _, v := range r.simplex[:n] {
+			r.centroid[i] += v.x[i]
+		}
+		r.centroid[i] /= float64(n)
+	}
+	xr := r.along(nmReflect)
+	fr := r.eval(xr)
+	switch {
+	case fr < r.simplex[0].f:
+		if r.exhausted() {
+			r.simplex[n] = vertex{xr, fr}
+			return
+		}
+		xe := r.along(nmReflect * nmExpand)
+		if fe := r.eval(xe); fe < fr {
+			r.simplex[n] = vertex{xe, fe}
+		} else {
+			r.simplex[n] = vertex{xr, fr}
+		}
+		return
+	case fr < r.simplex[n-1].f:
+		r.simplex[n] = vertex{xr, fr}
+		return
+	}
+	t, limit := -nmContract, r.simplex[n].f
+	if fr < r.simplex[n].f {
+		t, limit = nmReflect*nmContract, fr
+	}
+	if r.exhausted() {
+		return
+	}
+	xc := r.along(t)
+	if fc := r.eval(xc); fc <= limit {
+		r.simplex[n] = vertex{xc, fc}
+		return
+	}
+	for k := 1; k <= n && !r.exhausted(); k++ {
+		for i := range r.simplex[k].x {
+			r.simplex[k].x[i] = r.simplex[0].x[i] + nmShrink*(r.simplex[k].x[i]-r.simplex[0].x[i])
+		}
+		r.simplex[k].f = r.eval(r.simplex[k].x)
+	}
+}
+
+// nelderMeadOnce runs the simplex method from x0 (value f0) with the
+// initial simplex of x0 and x0 + step_i·e_i (−step_i where that leaves the
+// box), each point projected onto the box.
 func nelderMeadOnce(f func(x []float64) (float64, bool), x0 []float64, f0 float64, step, lower, upper []float64,
 	tol func(i int, x float64) float64, maxEval int) minimumND {
 	n := len(x0)
-	project := func(x []float64) {
-		for i := range x {
-			x[i] = math.Max(lower[i], math.Min(upper[i], x[i]))
-		}
-	}
-	type vertex struct {
-		x []float64
-		f float64
-	}
-	evals := 0
-	stopped := false
-	eval := func(x []float64) float64 {
-		fx, stop := f(x)
-		evals++
-		stopped = stopped || stop
-		return fx
-	}
-	simplex := make([]vertex, n+1)
-	simplex[0] = vertex{append([]float64(nil), x0...), f0}
-	for i := 0; i < n && evals < maxEval && !stopped; i++ {
+	r := &simplexRun{f: f, lower: lower, upper: upper, tol: tol, maxEval: maxEval,
+		simplex: make([]vertex, n+1), centroid: make([]float64, n)}
+	r.simplex[0] = vertex{append([]float64(nil), x0...), f0}
+	for i := 0; i < n && !r.exhausted(); i++ {
 		x := append([]float64(nil), x0...)
 		x[i] += step[i]
 		if x[i] > upper[i] {
 			x[i] = x0[i] - step[i]
 		}
-		project(x)
-		simplex[i+1] = vertex{x, eval(x)}
+		r.project(x)
+		r.simplex[i+1] = vertex{x, r.eval(x)}
 	}
-	result := func(converged bool) minimumND {
-		sort.SliceStable(simplex, func(a, b int) bool { return simplex[a].f < simplex[b].f })
-		if simplex[n].x == nil { // stopped before the simplex was built
-			return minimumND{x: simplex[0].x, fx: simplex[0].f, evaluations: evals}
-		}
-		return minimumND{x: simplex[0].x, fx: simplex[0].f, evaluations: evals, converged: converged}
-	}
-	if stopped || evals >= maxEval {
-		return result(false)
-	}
-	centroid := make([]float64, n)
-	along := func(t float64) []float64 { // centroid + t·(centroid − worst)
-		x := make([]float64, n)
-		for i := range x {
-			x[i] = centroid[i] + t*(centroid[i]-simplex[n].x[i])
-		}
-		project(x)
-		return x
+	if r.exhausted() {
+		return r.result(false)
 	}
 	for {
-		sort.SliceStable(simplex, func(a, b int) bool { return simplex[a].f < simplex[b].f })
-		small := true
-		for _, v := range simplex[1:] {
-			for i := range v.x {
-				if math.Abs(v.x[i]-simplex[0].x[i]) > tol(i, simplex[0].x[i]) {
-					small = false
-				}
-			}
+		r.sort()
+		if r.converged() {
+			return r.result(true)
 		}
-		// When every vertex has the same value to round-off, no move can
-		// tell them apart (the function is flat at this scale, as near a
-		// minimum once |Δx| is below about sqrt(ε)·|x|), so stop there too.
-		flat := true
-		for _, v := range simplex[1:] {
-			if math.Abs(v.f-simplex[0].f) > 2*epsilon*math.Abs(simplex[0].f) {
-				flat = false
-			}
+		if r.exhausted() {
+			return r.result(false)
 		}
-		if small || flat {
-			return result(true)
-		}
-		if stopped || evals >= maxEval {
-			return result(false)
-		}
-		for i := range centroid {
-			centroid[i] = 0
-			for _, v := range simplex[:n] {
-				centroid[i] += v.x[i]
-			}
-			centroid[i] /= float64(n)
-		}
-		xr := along(nmReflect)
-		fr := eval(xr)
-		switch {
-		case fr < simplex[0].f:
-			if evals >= maxEval || stopped {
-				simplex[n] = vertex{xr, fr}
-				continue
-			}
-			xe := along(nmReflect * nmExpand)
-			if fe := eval(xe); fe < fr {
-				simplex[n] = vertex{xe, fe}
-			} else {
-				simplex[n] = vertex{xr, fr}
-			}
-			continue
-		case fr < simplex[n-1].f:
-			simplex[n] = vertex{xr, fr}
-			continue
-		}
-		// Contract outside when the reflected point beats the worst,
-		// inside otherwise; shrink towards the best if that fails too.
-		t, limit := -nmContract, simplex[n].f
-		if fr < simplex[n].f {
-			t, limit = nmReflect*nmContract, fr
-		}
-		if evals >= maxEval || stopped {
-			continue
-		}
-		xc := along(t)
-		if fc := eval(xc); fc <= limit {
-			simplex[n] = vertex{xc, fc}
-			continue
-		}
-		for k := 1; k <= n && evals < maxEval && !stopped; k++ {
-			for i := range simplex[k].x {
-				simplex[k].x[i] = simplex[0].x[i] + nmShrink*(simplex[k].x[i]-simplex[0].x[i])
-			}
-			simplex[k].f = eval(simplex[k].x)
-		}
+		r.move()
 	}
 }

@@ -4,6 +4,7 @@ import (
 	"context"
 	"fmt"
 	"math"
+	"slices"
 	"strconv"
 	"strings"
 
@@ -82,17 +83,9 @@ func ModelEvaluatorModal(m *model.Model, names, metrics []string, solve Solver, 
 				Message: fmt.Sprintf("the model has no parameter %q (it has %q)", name, m.ParamNames)}
 		}
 	}
-	want := map[string]bool{}
-	for i, name := range metrics {
-		known := false
-		for _, k := range knownMetrics {
-			known = known || k == name
-		}
-		if !known {
-			return nil, &PlanError{Path: fmt.Sprintf("/metrics/%d", i),
-				Message: fmt.Sprintf("unknown metric %q (known: %s)", name, quotedList(knownMetrics))}
-		}
-		want[name] = true
+	want, err := wanted(metrics)
+	if err != nil {
+		return nil, err
 	}
 	if want[MetricCarbon] {
 		var problems []fault.Problem
@@ -166,4 +159,18 @@ func quotedList(names []string) string {
 		quoted[i] = strconv.Quote(n)
 	}
 	return strings.Join(quoted, ", ")
+}
+
+// wanted returns the set of metrics asked for, or a *PlanError for an
+// unknown one.
+func wanted(metrics []string) (map[string]bool, error) {
+	want := map[string]bool{}
+	for i, name := range metrics {
+		if !slices.Contains(knownMetrics, name) {
+			return nil, &PlanError{Path: fmt.Sprintf("/metrics/%d", i),
+				Message: fmt.Sprintf("unknown metric %q (known: %s)", name, quotedList(knownMetrics))}
+		}
+		want[name] = true
+	}
+	return want, nil
 }
