@@ -45,6 +45,10 @@ func (a *Adapter) modes(ctx context.Context, r *request[protocol.ModesParams]) (
 		return nil, modesError(err, p.Shift != nil)
 	}
 	out := modesResult(m, res)
+	if p.Kind == string(modes.KindVibration) && p.Case != "" {
+		out.Warnings = append(out.Warnings, protocol.Problem{Path: "/params/case",
+			Message: "vibration does not use a load case: the structure vibrates about its unloaded form, without the stiffening or softening of the case's axial forces"})
+	}
 	if p.Picture && len(res.Modes) > 0 {
 		var svg bytes.Buffer
 		if err := render.Mode(&svg, m, modePicture(res), render.Options{}); err != nil {
