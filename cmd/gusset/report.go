@@ -202,14 +202,18 @@ func reportTable(b *bytes.Buffer, t table) {
 		fmt.Fprintf(b, "<th>%s</th>", html.EscapeString(c))
 	}
 	b.WriteString("</tr></thead>\n<tbody>\n")
+	scale := columnScales(t)
 	for r, row := range t.Rows {
 		if r == reportRowLimit {
 			break
 		}
 		b.WriteString("<tr>")
-		for _, v := range row {
+		for c, v := range row {
 			switch x := v.(type) {
 			case float64:
+				if c < len(scale) && math.Abs(x) < 1e-9*scale[c] {
+					x = 0 // round-off beside the column's figures (a reaction of 3e-12 kN)
+				}
 				fmt.Fprintf(b, "<td class=\"g-num\">%s</td>", html.EscapeString(shortNumber(x)))
 			case *float64:
 				if x == nil {
@@ -227,6 +231,19 @@ func reportTable(b *bytes.Buffer, t table) {
 	if len(t.Rows) > reportRowLimit {
 		fmt.Fprintf(b, "<p class=\"g-meta\">The first %d of %d rows; gusset run --csv DIR writes them all.</p>\n", reportRowLimit, len(t.Rows))
 	}
+}
+
+// columnScales returns the largest magnitude in each column of a table.
+func columnScales(t table) []float64 {
+	scale := make([]float64, len(t.Columns))
+	for _, row := range t.Rows {
+		for c, v := range row {
+			if x, ok := v.(float64); ok && c < len(scale) {
+				scale[c] = math.Max(scale[c], math.Abs(x))
+			}
+		}
+	}
+	return scale
 }
 
 // shortNumber prints four significant figures, without a negative zero.
