@@ -32,6 +32,13 @@ type Limits struct {
 	// reached the server stops reading until a worker takes a request
 	// (back-pressure); default 16 MiB.
 	ReadAheadBytes int `json:"read_ahead_bytes"`
+	// MaxQueuedBytes bounds the bytes of the request lines waiting for a
+	// worker, whatever their number: when the next line would pass it,
+	// the server stops taking requests into the queue; lines read meanwhile
+	// (up to read_ahead_bytes more) still let cancel and describe through,
+	// and then reading stops until a worker takes a request
+	// (back-pressure); default 256 MiB.
+	MaxQueuedBytes int `json:"max_queued_bytes"`
 	// TimeLimitSeconds is the wall time allowed per request, 0 for none.
 	TimeLimitSeconds float64 `json:"time_limit_seconds"`
 }
@@ -61,6 +68,9 @@ func (l Limits) WithDefaults() Limits {
 	}
 	if l.ReadAheadBytes <= 0 {
 		l.ReadAheadBytes = 16 << 20
+	}
+	if l.MaxQueuedBytes <= 0 {
+		l.MaxQueuedBytes = 256 << 20
 	}
 	return l
 }

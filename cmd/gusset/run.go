@@ -103,6 +103,7 @@ func newFlags(out io.Writer) *flags {
 	f.fs.IntVar(&f.limits.MaxCandidates, "max-candidates", d.MaxCandidates, "most candidate members in one layout optimisation")
 	f.fs.IntVar(&f.limits.MaxQueued, "max-queued", d.MaxQueued, "requests that may wait for a worker whatever their size")
 	f.fs.IntVar(&f.limits.ReadAheadBytes, "read-ahead-bytes", d.ReadAheadBytes, "bytes of further waiting requests read ahead beyond --max-queued, so cancel is never held up behind small requests")
+	f.fs.IntVar(&f.limits.MaxQueuedBytes, "max-queued-bytes", d.MaxQueuedBytes, "bytes of request lines that may wait for a worker, whatever their number; beyond them reading stops (back-pressure)")
 	f.fs.Float64Var(&f.limits.TimeLimitSeconds, "time-limit", 0, "wall time allowed per request in seconds (0: none)")
 	f.fs.StringVar(&f.pictures, "pictures", "", "run only: ask every request that can draw a picture for one, and write them into this folder as ID.svg")
 	f.fs.StringVar(&f.report, "report", "", "run only: write one self-contained report.html of every answer into this folder")

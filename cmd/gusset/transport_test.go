@@ -4,6 +4,7 @@ import (
 	"encoding/json"
 	"strings"
 	"sync"
+	"sync/atomic"
 	"testing"
 	"time"
 )
@@ -150,4 +151,71 @@ func mustJSON(v any) string {
 		panic(err)
 	}
 	return string(b)
+}
+
+// TestQueuedBytesBounded: requests waiting for a busy worker are bounded by
+// bytes, not only by count (issue 18 item 2). With --jobs 1 busy on a
+// sweep and --max-queued-bytes 8 MiB, 40 request lines of 4 MiB each are
+// not all read: reading stops once the queue holds 8 MiB and the read-ahead
+// path 16 MiB more (back-pressure through the pipe), so the host's writes
+// block; every request is answered once the worker is free. Before the
+// bound all 40 lines (160 MiB) were read into memory at once.
+func TestQueuedBytesBounded(t *testing.T) {
+	bin := buildGusset(t)
+	var mu sync.Mutex
+	answered := map[string]bool{}
+	started := make(chan struct{})
+	var once sync.Once
+	p := startGusset(t, bin, []string{"serve", "--jobs", "1", "--max-queued-bytes", "8388608"}, func(raw []byte, m *wireMessage) {
+		if m.Method == "progress" && string(m.Params.Request) == `"busy"` {
+			once.Do(func() { close(started) })
+		}
+		if m.isFinal() {
+			mu.Lock()
+			answered[string(m.ID)] = true
+			mu.Unlock()
+		}
+	})
+	for _, id := range []string{"busy", "busy2"} {
+		p.send(request(id, "sweep-parameter", map[string]any{"model": twoBar("h"), "steps": "summary",
+			"parameters": []any{map[string]any{"name": "h", "from": 1, "to": 5, "count": 100000}}}))
+	}
+	<-started
+	var sent atomic.Int32
+	pad := strings.Repeat("p", 4<<20)
+	go func() {
+		for i := range 40 {
+			p.send(request(i, "solve", map[string]any{"model": twoBar(3), "cases": []string{pad}}))
+			sent.Add(1)
+		}
+		p.closeInput()
+	}()
+	// Wait until the writes stop getting through (no change for 2 s) or
+	// all are through; the two 100,000-step sweeps keep the worker busy
+	// meanwhile.
+	n, last := sent.Load(), time.Now()
+	for n < 40 && time.Since(last) < 2*time.Second {
+		time.Sleep(100 * time.Millisecond)
+		if m := sent.Load(); m != n {
+			n, last = m, time.Now()
+		}
+	}
+	mu.Lock()
+	busyDone := answered[`"busy2"`]
+	mu.Unlock()
+	if busyDone {
+		t.Fatal("the sweeps ended before the writes stopped; the test needs a longer busy worker")
+	}
+	t.Logf("lines of 4 MiB written while the worker was busy: %d of 40; peak RSS so far %.0f MiB", n, float64(p.peakRSS())/(1<<20))
+	if n >= 40 || n > 10 {
+		t.Errorf("%d lines of 4 MiB were read behind a busy worker; want reading to stop near 8 + 16 MiB", n)
+	}
+	if err, exited := p.waitWithin(180 * time.Second); !exited || err != nil {
+		t.Fatalf("exit: %v (exited %v); stderr: %s", err, exited, p.stderr.String())
+	}
+	mu.Lock()
+	defer mu.Unlock()
+	if len(answered) != 42 {
+		t.Errorf("%d requests answered, want 42", len(answered))
+	}
 }

@@ -67,7 +67,7 @@ func newConn(ctx context.Context, s *Server, out io.Writer) *conn {
 	c.room.L = &c.mu
 	c.w = newWriter(out, func(err error) { c.stopAll(fmt.Errorf("output failed: %w", err)) })
 	go c.w.loop()
-	c.queue = newWaitQueue(c.limits.MaxQueued, c.limits.ReadAheadBytes)
+	c.queue = newWaitQueue(c.limits.MaxQueued, c.limits.ReadAheadBytes, c.limits.MaxQueuedBytes)
 	return c
 }
 

@@ -22,27 +22,42 @@ type waitQueue struct {
 	closed   bool
 	maxCount int
 	maxBytes int
+	maxTotal int // bytes waiting, whatever their count (max_queued_bytes)
 }
 
-func newWaitQueue(maxCount, maxBytes int) *waitQueue {
-	q := &waitQueue{maxCount: maxCount, maxBytes: maxBytes}
+func newWaitQueue(maxCount, maxBytes, maxTotal int) *waitQueue {
+	q := &waitQueue{maxCount: maxCount, maxBytes: maxBytes, maxTotal: maxTotal}
 	q.changed.L = &q.mu
 	return q
 }
 
 // put appends c, whose line was size bytes, waiting while the queue is
-// full.
+// full: by count and read-ahead bytes together, or by its total bytes
+// (unless it is empty, so that any one line fits).
 func (q *waitQueue) put(c *call, size int) {
 	size += callOverhead
 	q.mu.Lock()
 	defer q.mu.Unlock()
-	for len(q.calls)-q.head >= q.maxCount && q.bytes+size > q.maxBytes {
+	for q.full(size) {
 		q.changed.Wait()
 	}
 	q.calls = append(q.calls, c)
 	q.sizes = append(q.sizes, size)
 	q.bytes += size
 	q.changed.Broadcast()
+}
+
+// full reports whether a line of size bytes (overhead included) must wait.
+func (q *waitQueue) full(size int) bool {
+	waiting := len(q.calls) - q.head
+	return (waiting >= q.maxCount && q.bytes+size > q.maxBytes) || (waiting > 0 && q.bytes+size > q.maxTotal)
+}
+
+// fits reports whether a line of size bytes would be queued at once.
+func (q *waitQueue) fits(size int) bool {
+	q.mu.Lock()
+	defer q.mu.Unlock()
+	return !q.full(size + callOverhead)
 }
 
 // take removes and returns the oldest request, waiting for one; it returns

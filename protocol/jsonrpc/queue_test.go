@@ -9,7 +9,7 @@ import (
 )
 
 func TestWaitQueueOrderAndBackPressure(t *testing.T) {
-	q := newWaitQueue(2, 3*callOverhead)
+	q := newWaitQueue(2, 3*callOverhead, 1<<30)
 	calls := make([]*call, 4)
 	for i := range calls {
 		calls[i] = &call{key: fmt.Sprint(i)}
@@ -79,4 +79,32 @@ func TestCancelNotHeldUpBehindQueue(t *testing.T) {
 	if err := <-p.done; err != nil {
 		t.Fatal(err)
 	}
+}
+
+// TestWaitQueueBoundsBytes: below max_queued requests, the queue still
+// stops at max_queued_bytes of lines; an empty queue takes any one line.
+func TestWaitQueueBoundsBytes(t *testing.T) {
+	q := newWaitQueue(1000, 0, 10*callOverhead)
+	big := &call{key: "big"}
+	if !q.fits(50 * callOverhead) {
+		t.Fatal("an empty queue refuses a line")
+	}
+	q.put(big, 50*callOverhead)
+	if q.fits(0) {
+		t.Fatal("a queue over its byte bound takes more")
+	}
+	put := make(chan struct{})
+	go func() {
+		q.put(&call{key: "small"}, 0)
+		close(put)
+	}()
+	select {
+	case <-put:
+		t.Fatal("put did not wait with the byte bound reached")
+	case <-time.After(20 * time.Millisecond):
+	}
+	if got := q.take(); got != big {
+		t.Fatalf("took %v", got.key)
+	}
+	<-put
 }

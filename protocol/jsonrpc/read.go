@@ -68,7 +68,7 @@ func (c *conn) handle(line []byte) {
 		} else if cl.id != nil {
 			c.respond(resp)
 		}
-	case c.idle():
+	case c.idle() && c.queue.fits(len(line)):
 		if c.admit(cl) {
 			c.queue.put(cl, len(line))
 		}
