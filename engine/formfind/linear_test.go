@@ -281,3 +281,18 @@ func TestExpressionDensities(t *testing.T) {
 		}
 	}
 }
+
+// TestThroughUnreachable asks the chain's middle node to pass through a
+// point off its vertical: with vertical loads the free nodes keep their
+// abscissae (TestHangingChain), so only the height is met, and the
+// horizontal distance left must be reported with a warning at /through/at.
+func TestThroughUnreachable(t *testing.T) {
+	m := chain(4, 1, 10).compile(t)
+	r := find(t, m, Problem{ForceDensity: one(1), Through: &Through{Node: "c2", At: []float64{2.5, 2}}})
+	if !scalar.EqualWithinAbsOrRel(r.ThroughMisfit, 0.5, 1e-12, 1e-12) || !scalar.EqualWithinAbsOrRel(r.Coords[5], 2, 1e-12, 1e-12) {
+		t.Errorf("misfit %g, crown height %g; want 0.5 and 2", r.ThroughMisfit, r.Coords[5])
+	}
+	if len(r.Warnings) != 1 || r.Warnings[0].Path != "/through/at" {
+		t.Errorf("warnings %v, want one at /through/at", r.Warnings)
+	}
+}

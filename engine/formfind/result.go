@@ -1,6 +1,7 @@
 package formfind
 
 import (
+	"fmt"
 	"math"
 	"slices"
 
@@ -112,6 +113,11 @@ func (f *finder) result(iterations int, change float64) *Result {
 			s += dx * dx
 		}
 		r.ThroughMisfit = math.Sqrt(s)
+		if r.ThroughMisfit > 1e-9*f.size {
+			r.Warnings = append(r.Warnings, fault.Problem{Path: "/through/at",
+				Message: fmt.Sprintf("no single scale of the force densities puts node %q on the point: it passes %.4g from it (the nearest by least squares); with vertical loads only its height can be met",
+					f.m.NodeIDs[f.through.node], r.ThroughMisfit)})
+		}
 		if !f.load.follows {
 			r.family = &family{node: f.through.node, free: f.nw.free, h: f.fixedRHS, l: f.rhs}
 		}
