@@ -131,6 +131,9 @@ func (f *finder) iterate(ctx context.Context) (int, float64, error) {
 		if change, err = f.solve(); err != nil {
 			return 0, 0, err
 		}
+		if math.IsNaN(change) || math.IsInf(change, 0) {
+			return 0, 0, fault.New(fault.NoSolution, "the force densities give no finite form: their matrix is too near singular; join every free node firmly to a support")
+		}
 		f.measure()
 		misfit := f.targetMisfit()
 		if iterative {
