@@ -233,15 +233,29 @@ func reportTable(b *bytes.Buffer, t table) {
 	}
 }
 
-// columnScales returns the largest magnitude in each column of a table.
+// columnScales returns, for each column of a table, the largest
+// magnitude among the columns in the same unit (the text in the header's
+// parentheses: Rx and Ry of a reaction table share "kN"), so that
+// round-off is judged against the figures it sits beside.
 func columnScales(t table) []float64 {
-	scale := make([]float64, len(t.Columns))
+	unit := func(c int) string {
+		name := t.Columns[c]
+		if i, j := strings.Index(name, "("), strings.LastIndex(name, ")"); i >= 0 && j > i {
+			return name[i:j]
+		}
+		return name
+	}
+	byUnit := map[string]float64{}
 	for _, row := range t.Rows {
 		for c, v := range row {
-			if x, ok := v.(float64); ok && c < len(scale) {
-				scale[c] = math.Max(scale[c], math.Abs(x))
+			if x, ok := v.(float64); ok && c < len(t.Columns) {
+				byUnit[unit(c)] = math.Max(byUnit[unit(c)], math.Abs(x))
 			}
 		}
+	}
+	scale := make([]float64, len(t.Columns))
+	for c := range scale {
+		scale[c] = byUnit[unit(c)]
 	}
 	return scale
 }
