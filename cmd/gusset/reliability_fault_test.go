@@ -2,6 +2,7 @@ package main
 
 import (
 	"fmt"
+	"slices"
 	"sync"
 	"syscall"
 	"testing"
@@ -66,7 +67,7 @@ func (c *collector) checkStream(t *testing.T, p *process) {
 // sweepRequest is a sweep of the two-bar truss's apex height over count
 // steps, reporting only a summary at the end.
 func sweepRequest(id string, count int) []byte {
-	return request(id, "sweep-parameter", map[string]any{"model": twoBar(3), "steps": "summary",
+	return request(id, "sweep-parameter", map[string]any{"model": twoBar("h"), "steps": "summary",
 		"parameters": []any{map[string]any{"name": "h", "from": 1, "to": 5, "count": count}}})
 }
 
@@ -248,7 +249,11 @@ func TestFaults(t *testing.T) {
 			withModel := func(m protocol.Model) any {
 				p := map[string]any{"model": m}
 				if method == "sweep-parameter" {
+					// The swept parameter scales the elastic modulus: a
+					// parameter no expression reads is refused.
 					m.Parameters = map[string]float64{"k": 1}
+					m.Materials = slices.Clone(m.Materials)
+					m.Materials[0].ElasticModulus = protocol.Number{Expr: fmt.Sprintf("%g*k", m.Materials[0].ElasticModulus.Value), IsExpr: true}
 					p["model"] = m
 					p["parameters"] = []any{map[string]any{"name": "k", "values": []float64{1, 2}}}
 				}
