@@ -11,6 +11,8 @@ import (
 	"runtime/debug"
 	"strings"
 	"sync"
+	"sync/atomic"
+	"syscall"
 
 	"gusset/cmd/gusset/adapter"
 	"gusset/protocol"
@@ -182,17 +184,67 @@ func serve(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		router = newOutputRouter(out, notify, nil)
 		out = router
 	}
-	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt)
-	defer stop()
+	ctx, signalled, release := stopOnSignals(stderr)
+	defer release()
 	_, err = s.Serve(ctx, stdin, out)
 	if router != nil && err == nil {
 		err = router.Close()
+	}
+	if code := signalled(); code != 0 {
+		return code
+	}
+	if errors.Is(err, syscall.EPIPE) {
+		// The reader of the answers went away: the session is over.
+		fmt.Fprintln(stderr, "gusset: the output was closed (broken pipe); work in flight was stopped")
+		return 0
 	}
 	if err != nil {
 		fmt.Fprintf(stderr, "gusset: writing output: %v\n", err)
 		return 1
 	}
 	return 0
+}
+
+// stopOnSignals returns a context that SIGINT or SIGTERM cancels (the
+// server then stops reading, answers the requests in flight with the
+// cancelled error and flushes), and a function giving the conventional
+// exit status of the signal received, 128 + its number (130, 143), or 0;
+// release stops listening. A second signal exits at once. A broken output
+// pipe is a write error (EPIPE), not a fatal SIGPIPE.
+func stopOnSignals(stderr io.Writer) (ctx context.Context, signalled func() int, release func()) {
+	signal.Notify(make(chan os.Signal, 1), syscall.SIGPIPE)
+	ctx, cancel := context.WithCancelCause(context.Background())
+	sigs, done := make(chan os.Signal, 2), make(chan struct{})
+	signal.Notify(sigs, os.Interrupt, syscall.SIGTERM)
+	var code atomic.Int32
+	status := func(sig os.Signal) int32 {
+		if n, ok := sig.(syscall.Signal); ok {
+			return 128 + int32(n)
+		}
+		return 130
+	}
+	go func() {
+		var sig os.Signal
+		select {
+		case sig = <-sigs:
+		case <-done:
+			return
+		}
+		code.Store(status(sig))
+		fmt.Fprintf(stderr, "gusset: %v: stopping; requests in flight are answered as cancelled\n", sig)
+		cancel(fmt.Errorf("%w by %v", jsonrpc.ErrInterrupted, sig))
+		select {
+		case sig = <-sigs:
+			os.Exit(int(status(sig)))
+		case <-done:
+		}
+	}()
+	release = func() {
+		signal.Stop(sigs)
+		close(done)
+		cancel(nil)
+	}
+	return ctx, func() int { return int(code.Load()) }, release
 }
 
 // outputs returns where answers and notifications go.

@@ -2,9 +2,13 @@ package main
 
 import (
 	"encoding/json"
+	"errors"
+	"io"
+	"os/exec"
 	"strings"
 	"sync"
 	"sync/atomic"
+	"syscall"
 	"testing"
 	"time"
 )
@@ -218,4 +222,89 @@ func TestQueuedBytesBounded(t *testing.T) {
 	if len(answered) != 42 {
 		t.Errorf("%d requests answered, want 42", len(answered))
 	}
+}
+
+// TestSignalsStopServing: SIGINT and SIGTERM stop the process promptly
+// although its input stays open: the request in flight (a 100,000-step
+// sweep) is answered with the cancelled error (-32000), the output ends
+// with whole lines, and the exit status is the conventional 128 + the
+// signal's number, 130 and 143 (issue 18 item 3).
+func TestSignalsStopServing(t *testing.T) {
+	for _, c := range []struct {
+		sig  syscall.Signal
+		code int
+	}{{syscall.SIGINT, 130}, {syscall.SIGTERM, 143}} {
+		t.Run(c.sig.String(), func(t *testing.T) {
+			bin := buildGusset(t)
+			started := make(chan struct{})
+			var once sync.Once
+			var final *wireMessage
+			p := startGusset(t, bin, []string{"serve", "--jobs", "1"}, func(raw []byte, m *wireMessage) {
+				if m.Method == "progress" {
+					once.Do(func() { close(started) })
+				}
+				if m.isFinal() {
+					mm := *m
+					final = &mm
+				}
+			})
+			p.send(request("long", "sweep-parameter", map[string]any{"model": twoBar("h"), "steps": "summary",
+				"parameters": []any{map[string]any{"name": "h", "from": 1, "to": 5, "count": 100000}}}))
+			<-started
+			sent := time.Now()
+			p.cmd.Process.Signal(c.sig)
+			err, exited := p.waitWithin(20 * time.Second)
+			if !exited {
+				t.Fatal("the process did not exit after the signal")
+			}
+			var exit *exec.ExitError
+			if !errors.As(err, &exit) || exit.ExitCode() != c.code {
+				t.Errorf("exit %v, want status %d; stderr: %s", err, c.code, p.stderr.String())
+			}
+			if final == nil || final.Error == nil || final.Error.Code != -32000 {
+				t.Errorf("the request in flight was answered %+v, want -32000", final)
+			}
+			for _, b := range p.bad {
+				t.Errorf("bad output line: %s", b)
+			}
+			t.Logf("%v: exited %v after the signal", c.sig, time.Since(sent))
+		})
+	}
+}
+
+// TestBrokenOutputEndsSession: when the reader of the answers goes away
+// during a streaming sweep, the process ends quietly (no death by
+// SIGPIPE, exit status 0) with a clear line on stderr (issue 18 item 11).
+func TestBrokenOutputEndsSession(t *testing.T) {
+	bin := buildGusset(t)
+	cmd := exec.Command(bin, "serve", "--jobs", "1")
+	stdin, _ := cmd.StdinPipe()
+	stdout, _ := cmd.StdoutPipe()
+	var stderr strings.Builder
+	cmd.Stderr = &stderr
+	if err := cmd.Start(); err != nil {
+		t.Fatal(err)
+	}
+	stdin.Write(append(request("long", "sweep-parameter", map[string]any{"model": twoBar("h"),
+		"parameters": []any{map[string]any{"name": "h", "from": 1, "to": 5, "count": 100000}}}), '\n'))
+	buf := make([]byte, 4096)
+	if _, err := io.ReadAtLeast(stdout, buf, 1); err != nil {
+		t.Fatal(err)
+	}
+	stdout.Close() // the host stops reading
+	done := make(chan error, 1)
+	go func() { done <- cmd.Wait() }()
+	select {
+	case err := <-done:
+		if err != nil {
+			t.Errorf("exit: %v (want status 0, not death by SIGPIPE); stderr: %s", err, stderr.String())
+		}
+	case <-time.After(20 * time.Second):
+		cmd.Process.Kill()
+		t.Fatal("the process went on after its output was closed")
+	}
+	if !strings.Contains(stderr.String(), "the output was closed") {
+		t.Errorf("stderr: %q", stderr.String())
+	}
+	stdin.Close()
 }

@@ -52,6 +52,10 @@ type conn struct {
 	// tail is the last line admitted off the reader, nil when none; only
 	// the reader goroutine touches it.
 	tail *link
+	// inMu is held while the reader handles a line; inputClosed, set under
+	// it, makes the reader stop before its next line.
+	inMu        sync.Mutex
+	inputClosed bool
 
 	// mu is the state lock; room is signalled when off-reader lines finish.
 	mu       sync.Mutex
@@ -82,6 +86,14 @@ func (c *conn) startWorkers() {
 			}
 		}()
 	}
+}
+
+// closeInput stops the reader before its next line, waiting for the line
+// it handles now, if any.
+func (c *conn) closeInput() {
+	c.inMu.Lock()
+	c.inputClosed = true
+	c.inMu.Unlock()
 }
 
 // close waits for every line read to be answered and the output flushed.

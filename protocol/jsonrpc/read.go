@@ -30,8 +30,8 @@ func (c *conn) read(in io.Reader) {
 		if tooLong {
 			c.respond(errorResponse(nil, protocol.NewError(protocol.CodeParseError, "parse error",
 				fmt.Sprintf("The line is longer than the line size limit of %d bytes; it was skipped. Send smaller requests or start the server with a larger --max-line-bytes.", c.limits.MaxLineBytes))))
-		} else if len(bytes.TrimSpace(line)) > 0 {
-			c.handle(line)
+		} else if len(bytes.TrimSpace(line)) > 0 && !c.handleOpen(line) {
+			return
 		}
 		if err != nil {
 			if !errors.Is(err, io.EOF) {
@@ -75,6 +75,18 @@ func (c *conn) handle(line []byte) {
 	default:
 		c.later(len(line), func() (*call, *protocol.Response) { return cl, nil })
 	}
+}
+
+// handleOpen handles a line unless the input was closed meanwhile, and
+// reports whether it was open.
+func (c *conn) handleOpen(line []byte) bool {
+	c.inMu.Lock()
+	defer c.inMu.Unlock()
+	if c.inputClosed {
+		return false
+	}
+	c.handle(line)
+	return true
 }
 
 // readLine reads one line without its newline. A line longer than limit is

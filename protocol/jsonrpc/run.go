@@ -70,6 +70,8 @@ func (c *conn) contextError(ctx context.Context) *protocol.Error {
 		return protocol.NewError(protocol.CodeTimeLimit, "time limit", fmt.Sprintf("The request ran longer than the time limit of %g s and was stopped. Start the server with a larger --time-limit or send a smaller model.", c.limits.TimeLimitSeconds))
 	case errors.Is(cause, errCancelledByHost):
 		return protocol.NewError(protocol.CodeCancelled, "cancelled", "The request was cancelled by a cancel request.")
+	case errors.Is(cause, ErrInterrupted):
+		return protocol.NewError(protocol.CodeCancelled, "cancelled", fmt.Sprintf("The request was cancelled: the server was told to stop (%v).", cause))
 	default:
 		return protocol.NewError(protocol.CodeShuttingDown, "shutting down", fmt.Sprintf("The request was stopped because the server is stopping (%v).", cause))
 	}

@@ -71,15 +71,33 @@ func (s *Server) Handle(m protocol.Method, h Handler) {
 // Serve reads requests from in until end of input, answers them on out, and
 // returns once every request read has been answered and the output flushed.
 // It returns the number of error responses written and the first write
-// error, if any. Cancelling ctx stops all work; requests in flight are still
-// answered (with the cancelled error).
+// error, if any. Cancelling ctx (a signal: cancel it with a cause wrapping
+// ErrInterrupted), or a failed write, stops reading at once, even while a
+// read waits for input, and stops all work; requests in flight are still
+// answered (with the cancelled error, or the shutting-down one).
 func (s *Server) Serve(ctx context.Context, in io.Reader, out io.Writer) (failures int, err error) {
 	c := newConn(ctx, s, out)
 	defer c.stopAll(nil)
 	c.startWorkers()
-	c.read(in)
+	read := make(chan struct{})
+	go func() {
+		defer close(read)
+		c.read(in)
+	}()
+	select {
+	case <-read:
+	case <-c.ctx.Done():
+		// The reading goroutine may wait in a read for good (a terminal,
+		// an idle pipe): it is left there, and handles no further line.
+		c.closeInput()
+	}
 	return c.close()
 }
+
+// ErrInterrupted is the cause to cancel Serve's context with when the
+// process is told to stop (SIGINT, SIGTERM): requests in flight are then
+// answered with the cancelled error (-32000).
+var ErrInterrupted = errors.New("interrupted")
 
 // own are the transport's own methods, listed first by describe.
 var own = []protocol.Method{
