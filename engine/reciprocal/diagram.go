@@ -192,59 +192,19 @@ type Diagram struct {
 // forces that cannot balance and fails this way. Build panics if slices
 // are misaligned.
 func Build(ctx context.Context, in Input) (*Diagram, error) {
+	if err := checkInput(in); err != nil {
+		return nil, err
+	}
 	m := in.Model
-	if m == nil {
-		panic("reciprocal: nil model")
-	}
-	if m.Dim != 2 {
-		return nil, fault.New(fault.WrongDimension, "a reciprocal diagram is drawn for a plane (2D) network; this model is %dD", m.Dim)
-	}
-	n := m.NodeCount()
-	if len(in.AxialForce) != len(m.Members) {
-		panic(fmt.Sprintf("reciprocal: %d axial forces for %d members", len(in.AxialForce), len(m.Members)))
-	}
-	if in.External != nil && len(in.External) != n {
-		panic(fmt.Sprintf("reciprocal: %d external forces for %d nodes", len(in.External), n))
-	}
-	if len(m.Members) == 0 {
-		return nil, fault.New(fault.InvalidModel, "the network has no members")
-	}
 	rep := progress.Or(in.Progress)
 	xy, ends, err := geometry(m)
 	if err != nil {
 		return nil, err
 	}
-	var forces []extForce
-	for v, f := range in.External {
-		if f != [2]float64{} {
-			forces = append(forces, extForce{node: v, force: f, index: len(forces)})
-		}
-	}
-	for k, f := range in.Separate {
-		if f.Node < 0 || f.Node >= n {
-			panic(fmt.Sprintf("reciprocal: separate force %d at node %d of %d", k, f.Node, n))
-		}
-		if f.Force != [2]float64{} {
-			forces = append(forces, extForce{node: f.Node, force: f.Force, index: len(forces)})
-		}
-	}
-	scale := 0.0
-	for e, t := range in.AxialForce {
-		if math.IsNaN(t) || math.IsInf(t, 0) {
-			return nil, fault.At(fault.InvalidModel, fmt.Sprintf("/members/%d", e), "the axial force of member %q is not a finite number", m.Members[e].ID)
-		}
-		scale = math.Max(scale, math.Abs(t))
-	}
-	for _, f := range forces {
-		l := math.Hypot(f.force[0], f.force[1])
-		if math.IsNaN(l) || math.IsInf(l, 0) {
-			return nil, fault.At(fault.InvalidModel, fmt.Sprintf("/nodes/%d", f.node), "an external force at node %q is not finite", m.NodeIDs[f.node])
-		}
-		scale = math.Max(scale, l)
-	}
-	tol := in.Tolerance
-	if tol <= 0 {
-		tol = 1e-6 * scale
+	forces := externalForces(in)
+	tol, err := tolerance(in, forces)
+	if err != nil {
+		return nil, err
 	}
 
 	rep.Progress("checking planarity", 0, 4, nil)
@@ -261,142 +221,25 @@ func Build(ctx context.Context, in Input) (*Diagram, error) {
 	}
 
 	d := &Diagram{Perpendicular: in.Perpendicular, SpaceCount: g.spaces, Tolerance: tol}
-	unit := make([][2]float64, len(ends))
-	closure := make([][2]float64, n)
-	for e, en := range ends {
-		p, q := xy[en[0]], xy[en[1]]
-		l := math.Hypot(q[0]-p[0], q[1]-p[1])
-		unit[e] = [2]float64{(q[0] - p[0]) / l, (q[1] - p[1]) / l}
-		t := in.AxialForce[e]
-		closure[en[0]][0] += t * unit[e][0]
-		closure[en[0]][1] += t * unit[e][1]
-		closure[en[1]][0] -= t * unit[e][0]
-		closure[en[1]][1] -= t * unit[e][1]
+	unit := unitVectors(xy, ends)
+	if err := d.close(m, in.AxialForce, ends, unit, forces); err != nil {
+		return nil, err
 	}
-	for _, f := range forces {
-		closure[f.node][0] += f.force[0]
-		closure[f.node][1] += f.force[1]
-	}
-	d.NodeClosure = make([]float64, n)
-	var bad []fault.Problem
-	unbalanced := 0
-	for v, c := range closure {
-		d.NodeClosure[v] = math.Hypot(c[0], c[1])
-		d.TotalClosure += d.NodeClosure[v] * d.NodeClosure[v]
-		d.MaxClosure = math.Max(d.MaxClosure, d.NodeClosure[v])
-		if d.NodeClosure[v] > tol {
-			unbalanced++
-			if len(bad) == maxClosureProblems {
-				continue
-			}
-			bad = append(bad, fault.Problem{Path: fmt.Sprintf("/nodes/%d", v),
-				Message: fmt.Sprintf("the forces on node %q do not balance: closure error %.6g %s", m.NodeIDs[v], d.NodeClosure[v], forceUnit(m))})
-		}
-	}
-	d.TotalClosure = math.Sqrt(d.TotalClosure)
-	if len(bad) > 0 {
-		return nil, &fault.Error{
-			Kind: fault.NotInEquilibrium,
-			Message: fmt.Sprintf("the forces are not in equilibrium at %d nodes (largest closure error %.6g %s, total %.6g, tolerance %.3g): the force polygons cannot close; check the loads, reactions and axial forces, or whether the network is a mechanism",
-				unbalanced, d.MaxClosure, forceUnit(m), d.TotalClosure, tol),
-			Problems: bad,
-			Detail:   ClosureDetail{NodeClosure: d.NodeClosure, Total: d.TotalClosure},
-		}
-	}
-
 	if err := ctx.Err(); err != nil {
 		return nil, err
 	}
 	rep.Progress("placing points", 2, 4, nil)
-	edges := len(ends) + len(g.rays)
-	left, right := make([]int32, edges), make([]int32, edges)
-	vec := make([][2]float64, edges)
-	for e := range ends {
-		left[e], right[e] = g.faceOf[2*e], g.faceOf[2*e+1]
-		t := in.AxialForce[e]
-		vec[e] = turn(in.Perpendicular, [2]float64{t * unit[e][0], t * unit[e][1]})
-	}
-	for k, r := range g.rays {
-		left[len(ends)+k], right[len(ends)+k] = int32(r.left), int32(r.right)
-		vec[len(ends)+k] = turn(in.Perpendicular, r.force)
-	}
-	dl := newDual(g.faces, left, right)
-	points, iters, err := dl.place(ctx, vec)
-	if err != nil {
+	eq := segmentEquations(in, g, ends, unit)
+	dl := newDual(g.faces, eq.left, eq.right)
+	if d.Points, d.Iterations, err = dl.place(ctx, eq.vec); err != nil {
 		return nil, err
 	}
-	d.Points = points
-	d.Iterations = iters
-
-	lab := &labeller{spaces: g.spaces}
-	for f := range g.faces {
-		lab.name(f)
-	}
-	for e := range ends {
-		lab.pair(int(min(left[e], right[e])), int(max(left[e], right[e])))
-	}
-	for _, r := range g.rays {
-		lab.pair(r.left, r.right)
-	}
-	labels := lab.strings()
-	d.Spaces = make([]Space, g.faces)
-	for f := range d.Spaces {
-		d.Spaces[f] = Space{Label: labels[f], Outer: f < g.spaces, Anchor: g.anchor[f], Boundary: g.boundary[f]}
-	}
-	misfit := func(e int) float64 {
-		p, q := points[left[e]], points[right[e]]
-		return math.Hypot(q[0]-p[0]-vec[e][0], q[1]-p[1]-vec[e][1])
-	}
-	d.Members = make([]Segment, len(ends))
-	for e, en := range ends {
-		t := in.AxialForce[e]
-		s := Segment{
-			Label: labels[g.faces+e],
-			Left:  int(left[e]), Right: int(right[e]),
-			Node: en[0], Force: t, Index: e,
-			Vector: [2]float64{t * unit[e][0], t * unit[e][1]},
-			Zero:   math.Abs(t) <= tol,
-			Misfit: misfit(e),
-		}
-		// Bow's reading: from the space before to the space after,
-		// clockwise round node Ends[0], i.e. from Left to Right.
-		p, q := points[s.Left], points[s.Right]
-		read := unturn(in.Perpendicular, [2]float64{q[0] - p[0], q[1] - p[1]})
-		along := read[0]*unit[e][0] + read[1]*unit[e][1]
-		switch {
-		case math.Hypot(read[0], read[1]) <= tol:
-			s.Sense = Zero
-		case along > 0:
-			s.Sense = Tension
-		default:
-			s.Sense = Compression
-		}
-		if !s.Zero && s.Sense != Zero && (s.Sense == Tension) != (t > 0) {
-			d.Disagreements = append(d.Disagreements, e)
-		}
-		d.MaxMisfit = math.Max(d.MaxMisfit, s.Misfit)
-		d.Members[e] = s
-	}
-	d.Forces = make([]Segment, len(g.rays))
-	for k, r := range g.rays {
-		e := len(ends) + k
-		d.Forces[k] = Segment{
-			Label: labels[g.faces+len(ends)+k],
-			Left:  r.left, Right: r.right, Node: r.node,
-			Force: math.Hypot(r.force[0], r.force[1]), Vector: r.force,
-			Direction: r.dir, Index: r.index,
-			Misfit: misfit(e),
-		}
-		d.MaxMisfit = math.Max(d.MaxMisfit, d.Forces[k].Misfit)
-		d.LoadLine = append(d.LoadLine, r.left)
-	}
-	if len(d.LoadLine) > 0 {
-		// Start the load line at A: force k runs from space k−1 to k.
-		d.LoadLine = append(d.LoadLine[1:], d.LoadLine[0])
-	}
+	labels := d.label(g, ends, eq)
+	d.readMembers(in, ends, unit, labels[g.faces:], eq)
+	d.readForces(g, labels[g.faces+len(ends):], eq, len(ends))
 
 	rep.Progress("lifting", 3, 4, nil)
-	d.Lift = newLift(xy, ends, unit, d, dl, left, right)
+	d.Lift = newLift(xy, ends, unit, d, dl, eq.left, eq.right)
 	rep.Progress("done", 4, 4, nil)
 	return d, nil
 }
