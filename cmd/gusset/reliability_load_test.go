@@ -63,7 +63,7 @@ func loadMix(t *testing.T, methods map[string]bool, n int) []plannedRequest {
 		{"solve", twoBarSolve, 0},
 		{"load-path", params(map[string]any{"model": twoBar(3), "sizing": map[string]any{"shape": "tube", "diameter_to_thickness": 30}}), 0},
 		{"solve", twoBarSolve, 0},
-		{"sweep-parameter", params(map[string]any{"model": twoBar(3), "parameters": []any{map[string]any{"name": "h", "values": []float64{2, 3, 4}}}}), 0},
+		{"sweep-parameter", params(map[string]any{"model": twoBar("h"), "parameters": []any{map[string]any{"name": "h", "values": []float64{2, 3, 4}}}}), 0},
 		{"solve", twoBarSolve, 0},
 		{"describe", "{}", 0},
 	}
@@ -77,7 +77,7 @@ func loadMix(t *testing.T, methods map[string]bool, n int) []plannedRequest {
 		{"solve", params(protocol.SolveParams{Model: wireModel(modelgen.GridTruss2D(40, 40))}), 0},
 		{"solve", params(protocol.SolveParams{Model: wireModel(modelgen.SpaceTruss3D(10, 10))}), 0},
 		{"load-path", params(protocol.LoadPathParams{Model: wireModel(modelgen.RandomPlanarTruss(rng, 1500))}), 0},
-		{"sweep-parameter", params(map[string]any{"model": twoBar(3), "parameters": []any{map[string]any{"name": "h", "from": 1, "to": 5, "count": 400}},
+		{"sweep-parameter", params(map[string]any{"model": twoBar("h"), "parameters": []any{map[string]any{"name": "h", "from": 1, "to": 5, "count": 400}},
 			"objective": map[string]any{"metric": "load_path"}}), 0},
 	}
 	if methods["reciprocate"] {
@@ -97,10 +97,10 @@ func loadMix(t *testing.T, methods map[string]bool, n int) []plannedRequest {
 		{"solve", params(map[string]any{"model": twoBar(3), "cases": []string{"wind"}}), 1009},
 		{"solve", params(map[string]any{"model": twoBar(true)}), protocol.CodeInvalidParams},
 		{"load-path", params(map[string]any{"model": twoBar(3), "forces": []float64{1}}), protocol.CodeInvalidParams},
-		{"sweep-parameter", params(map[string]any{"model": twoBar(3), "parameters": []any{map[string]any{"name": "h", "from": 1, "to": 5, "count": 1_000_000}}}), protocol.CodeLimitExceeded},
+		{"sweep-parameter", params(map[string]any{"model": twoBar("h"), "parameters": []any{map[string]any{"name": "h", "from": 1, "to": 5, "count": 1_000_000}}}), protocol.CodeLimitExceeded},
 		{"analyse", "{}", protocol.CodeMethodNotFound},
 	}
-	longSweep := params(map[string]any{"model": twoBar(3), "parameters": []any{map[string]any{"name": "h", "from": 1, "to": 5, "count": 100_000}},
+	longSweep := params(map[string]any{"model": twoBar("h"), "parameters": []any{map[string]any{"name": "h", "from": 1, "to": 5, "count": 100_000}},
 		"steps": "summary"})
 
 	line := func(id, method, params string) []byte {
