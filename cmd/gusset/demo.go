@@ -167,6 +167,10 @@ func (d *demo) run() error {
 		return err
 	}
 
+	if err := d.crossBeam(); err != nil {
+		return err
+	}
+
 	// 3. Material quantities.
 	sizing := map[string]any{"shape": "tube", "diameter_to_thickness": 30}
 	var lp protocol.LoadPathResult
