@@ -32,25 +32,7 @@ func (c *compiler) members() {
 		mem := &m.Members[i]
 		mem.ID = ms.ID
 		mem.BucklingFactor = 1
-		for k, end := range ms.Ends {
-			j, ok := c.nodeIndex[end]
-			if !ok {
-				mem.Ends[k] = -1
-				c.problem("members/"+strconv.Itoa(i)+"/ends/"+strconv.Itoa(k),
-					"member %q names node %q, which does not exist", ms.ID, end)
-				continue
-			}
-			mem.Ends[k] = j
-		}
-		if mem.Ends[0] >= 0 && mem.Ends[0] == mem.Ends[1] {
-			c.problem("members/"+strconv.Itoa(i)+"/ends/1",
-				"member %q has zero length: both ends are at node %q", ms.ID, ms.Ends[0])
-		} else if mem.Ends[0] >= 0 && mem.Ends[1] >= 0 && c.dim > 0 {
-			if L := m.Length(i); L <= c.tol {
-				c.problem("members/"+strconv.Itoa(i)+"/ends/1",
-					"member %q has zero length: its ends %q and %q are at the same point", ms.ID, ms.Ends[0], ms.Ends[1])
-			}
-		}
+		c.memberEnds(i)
 		if j, ok := materials.find(ms.Material); ok {
 			mem.Material = j
 		} else {
@@ -65,17 +47,7 @@ func (c *compiler) members() {
 			c.problem("members/"+strconv.Itoa(i)+"/section", "member %q names section %q, which does not exist%s",
 				ms.ID, ms.Section, listIDs("; sections are: ", len(s.Sections), func(i int) string { return s.Sections[i].ID }))
 		}
-		switch ms.Type {
-		case "", "bar":
-			mem.Kind = Bar
-		case "beam":
-			mem.Kind = Beam
-			if mem.Section >= 0 && c.beamOnSection[mem.Section] < 0 {
-				c.beamOnSection[mem.Section] = i
-			}
-		default:
-			c.problem("members/"+strconv.Itoa(i)+"/type", "member %q has type %q; use \"bar\" or \"beam\"", ms.ID, ms.Type)
-		}
+		c.memberKind(i)
 		if ms.Orientation != nil {
 			c.orientation(i)
 		}
@@ -97,6 +69,49 @@ func (c *compiler) members() {
 			c.problem("sections/"+strconv.Itoa(j)+"/second_moment",
 				"section %q is used by beam %q and so needs a positive second_moment", s.Sections[j].ID, s.Members[e].ID)
 		}
+	}
+}
+
+// memberEnds resolves member i's end ids to node indices (−1 for an id
+// that names no node) and reports a member whose ends coincide.
+func (c *compiler) memberEnds(i int) {
+	ms, mem := &c.spec.Members[i], &c.m.Members[i]
+	for k, end := range ms.Ends {
+		j, ok := c.nodeIndex[end]
+		if !ok {
+			mem.Ends[k] = -1
+			c.problem("members/"+strconv.Itoa(i)+"/ends/"+strconv.Itoa(k),
+				"member %q names node %q, which does not exist", ms.ID, end)
+			continue
+		}
+		mem.Ends[k] = j
+	}
+	if mem.Ends[0] >= 0 && mem.Ends[0] == mem.Ends[1] {
+		c.problem("members/"+strconv.Itoa(i)+"/ends/1",
+			"member %q has zero length: both ends are at node %q", ms.ID, ms.Ends[0])
+	} else if mem.Ends[0] >= 0 && mem.Ends[1] >= 0 && c.dim > 0 {
+		if L := c.m.Length(i); L <= c.tol {
+			c.problem("members/"+strconv.Itoa(i)+"/ends/1",
+				"member %q has zero length: its ends %q and %q are at the same point", ms.ID, ms.Ends[0], ms.Ends[1])
+		}
+	}
+}
+
+// memberKind sets member i's kind from its type (bar by default) and
+// records the first beam on each section, whose second moment is then
+// required.
+func (c *compiler) memberKind(i int) {
+	ms, mem := &c.spec.Members[i], &c.m.Members[i]
+	switch ms.Type {
+	case "", "bar":
+		mem.Kind = Bar
+	case "beam":
+		mem.Kind = Beam
+		if mem.Section >= 0 && c.beamOnSection[mem.Section] < 0 {
+			c.beamOnSection[mem.Section] = i
+		}
+	default:
+		c.problem("members/"+strconv.Itoa(i)+"/type", "member %q has type %q; use \"bar\" or \"beam\"", ms.ID, ms.Type)
 	}
 }
 

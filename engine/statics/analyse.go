@@ -94,16 +94,54 @@ func Analyse(ctx context.Context, m *model.Model, opt Options) (*Report, error) 
 	if opt.RankTolerance <= 0 {
 		opt.RankTolerance = DefaultRankTolerance
 	}
+	if err := checkOrientations(m); err != nil {
+		return nil, err
+	}
+	l := NewLayout(m)
+	r := newReport(m, l)
+	if r.Freedoms > opt.DenseLimit || r.Columns > opt.DenseLimit {
+		return r, nil
+	}
+	lc := meanLength(m)
+	var u, v *mat.Dense
+	if a := equilibrium(m, l, lc); a != nil {
+		var ok bool
+		if r.Rank, u, v, ok = rankBySVD(a, opt.RankTolerance); !ok {
+			// Dgesvd failed to converge: leave the count uncomputed
+			// rather than guess.
+			return r, nil
+		}
+	}
+	if err := ctx.Err(); err != nil {
+		return nil, err
+	}
+	r.Computed = true
+	r.CountedBy = "svd"
+	r.SelfStress = r.Columns - r.Rank
+	r.Mechanisms = r.Freedoms - r.Rank
+	r.selfStressStates(l, v, lc)
+	r.mechanismModes(m, l, u, lc)
+	return r, nil
+}
+
+// checkOrientations reports a 3D beam whose orientation vector is parallel
+// to it, which leaves its local axes undefined.
+func checkOrientations(m *model.Model) error {
 	for e := range m.Members {
 		if m.Members[e].Kind != model.Beam || m.Dim != 3 {
 			continue
 		}
 		if _, ok := MemberAxes(m, e); !ok {
-			return nil, fault.At(fault.InvalidModel, memberPointer(e)+"/orientation",
+			return fault.At(fault.InvalidModel, memberPointer(e)+"/orientation",
 				"member %q: the orientation vector is parallel to the member", m.Members[e].ID)
 		}
 	}
-	l := NewLayout(m)
+	return nil
+}
+
+// newReport returns the counts that need no factorisation: joints, bars
+// and beams, columns, freedoms, constraints and Maxwell's number.
+func newReport(m *model.Model, l *Layout) *Report {
 	r := &Report{
 		Dimension:   m.Dim,
 		Joints:      m.NodeCount(),
@@ -120,37 +158,34 @@ func Analyse(ctx context.Context, m *model.Model, opt Options) (*Report, error) 
 		}
 	}
 	r.MaxwellNumber = r.Columns - (r.Freedoms + r.Constraints) + r.Constraints
-	if r.Freedoms > opt.DenseLimit || r.Columns > opt.DenseLimit {
-		return r, nil
+	return r
+}
+
+// rankBySVD returns the rank of a (singular values above tolerance times
+// the largest) and its full left and right singular vectors; ok is false
+// when the decomposition does not converge.
+func rankBySVD(a *mat.Dense, tolerance float64) (rank int, u, v *mat.Dense, ok bool) {
+	var svd mat.SVD
+	if !svd.Factorize(a, mat.SVDFull) {
+		return 0, nil, nil, false
 	}
-	lc := meanLength(m)
-	a := equilibrium(m, l, lc)
-	var u, v *mat.Dense
-	if a != nil {
-		var svd mat.SVD
-		if !svd.Factorize(a, mat.SVDFull) {
-			// Dgesvd failed to converge: leave the count uncomputed
-			// rather than guess.
-			return r, nil
+	sigma := svd.Values(nil)
+	tol := tolerance * sigma[0]
+	for _, sv := range sigma {
+		if sv > tol {
+			rank++
 		}
-		sigma := svd.Values(nil)
-		tol := opt.RankTolerance * sigma[0]
-		for _, sv := range sigma {
-			if sv > tol {
-				r.Rank++
-			}
-		}
-		u, v = new(mat.Dense), new(mat.Dense)
-		svd.UTo(u)
-		svd.VTo(v)
 	}
-	if err := ctx.Err(); err != nil {
-		return nil, err
-	}
-	r.Computed = true
-	r.CountedBy = "svd"
-	r.SelfStress = r.Columns - r.Rank
-	r.Mechanisms = r.Freedoms - r.Rank
+	u, v = new(mat.Dense), new(mat.Dense)
+	svd.UTo(u)
+	svd.VTo(v)
+	return rank, u, v, true
+}
+
+// selfStressStates fills r.SelfStressStates from the right singular
+// vectors beyond the rank (unit vectors when v is nil: no equilibrium
+// matrix), moments scaled back by the mean length lc.
+func (r *Report) selfStressStates(l *Layout, v *mat.Dense, lc float64) {
 	for k := r.Rank; k < r.Columns; k++ {
 		state := make([]float64, r.Columns)
 		for i := range state {
@@ -166,6 +201,12 @@ func Analyse(ctx context.Context, m *model.Model, opt Options) (*Report, error) 
 		fixSign(state)
 		r.SelfStressStates = append(r.SelfStressStates, state)
 	}
+}
+
+// mechanismModes fills r.MechanismModes (and MechanismRotations with
+// beams) from the left singular vectors beyond the rank (unit vectors
+// when u is nil), rotations scaled back by the mean length lc.
+func (r *Report) mechanismModes(m *model.Model, l *Layout, u *mat.Dense, lc float64) {
 	_, rotational := m.DOFsPerNode()
 	for k := r.Rank; k < r.Freedoms; k++ {
 		mode := make([]float64, m.Dim*m.NodeCount())
@@ -197,7 +238,6 @@ func Analyse(ctx context.Context, m *model.Model, opt Options) (*Report, error) 
 			r.MechanismRotations = append(r.MechanismRotations, rot)
 		}
 	}
-	return r, nil
 }
 
 // meanLength returns the mean member length, or 1 for a model without

@@ -62,33 +62,53 @@ func Forces(ctx context.Context, m *model.Model, loads []float64) (*Equilibrium,
 	for i, fr := range l.Rows {
 		f[i] = loads[fr.Node*m.Dim+fr.Component]
 	}
-	a := EquilibriumMatrix(m)
-	if a != nil {
-		var svd mat.SVD
-		if !svd.Factorize(a, mat.SVDThin) {
-			return nil, fault.New(fault.NotInEquilibrium, "the singular value decomposition of the equilibrium matrix did not converge")
-		}
-		var t mat.VecDense
-		svd.SolveVecTo(&t, mat.NewVecDense(len(f), f), rep.Rank)
-		for i := range out.Axial {
-			out.Axial[i] = t.AtVec(i)
-		}
-		var at mat.VecDense
-		at.MulVec(a, &t)
-		fNorm := floats.Norm(f, 2)
-		if fNorm > 0 {
-			diff := make([]float64, len(f))
-			floats.SubTo(diff, at.RawVector().Data, f)
-			out.Residual = floats.Norm(diff, 2) / fNorm
-		}
-		if out.Residual > equilibriumTolerance {
-			return nil, fault.New(fault.NotInEquilibrium,
-				"the loads excite a mechanism: %d mechanism(s), scaled residual %.3g", rep.Mechanisms, out.Residual)
-		}
+	if err := out.solveAxial(m, rep, f); err != nil {
+		return nil, err
 	}
-	// A reaction balances, at its fixed component, the load there and the
-	// pull of the bars: R = Σ bar forces on the node's freedom − load, with
-	// the bar terms from the full (unconstrained) equilibrium rows.
+	if err := out.reactions(m, loads); err != nil {
+		return nil, err
+	}
+	return out, nil
+}
+
+// solveAxial solves the equilibrium matrix for the bar forces with the
+// loads f on the unconstrained freedoms (least squares by SVD at the
+// report's rank) and fails when the residual shows a mechanism the loads
+// excite.
+func (out *Equilibrium) solveAxial(m *model.Model, rep *Report, f []float64) error {
+	a := EquilibriumMatrix(m)
+	if a == nil {
+		return nil
+	}
+	var svd mat.SVD
+	if !svd.Factorize(a, mat.SVDThin) {
+		return fault.New(fault.NotInEquilibrium, "the singular value decomposition of the equilibrium matrix did not converge")
+	}
+	var t mat.VecDense
+	svd.SolveVecTo(&t, mat.NewVecDense(len(f), f), rep.Rank)
+	for i := range out.Axial {
+		out.Axial[i] = t.AtVec(i)
+	}
+	var at mat.VecDense
+	at.MulVec(a, &t)
+	fNorm := floats.Norm(f, 2)
+	if fNorm > 0 {
+		diff := make([]float64, len(f))
+		floats.SubTo(diff, at.RawVector().Data, f)
+		out.Residual = floats.Norm(diff, 2) / fNorm
+	}
+	if out.Residual > equilibriumTolerance {
+		return fault.New(fault.NotInEquilibrium,
+			"the loads excite a mechanism: %d mechanism(s), scaled residual %.3g", rep.Mechanisms, out.Residual)
+	}
+	return nil
+}
+
+// reactions fills out.Reactions: a reaction balances, at its fixed
+// component, the load there and the pull of the bars: R = Σ bar forces on
+// the node's freedom − load, with the bar terms from the full
+// (unconstrained) equilibrium rows.
+func (out *Equilibrium) reactions(m *model.Model, loads []float64) error {
 	owner := make(map[[2]int]int)
 	for si := len(m.Supports) - 1; si >= 0; si-- {
 		s := m.Supports[si]
@@ -118,9 +138,9 @@ func Forces(ctx context.Context, m *model.Model, loads []float64) (*Equilibrium,
 	for _, r := range out.Reactions {
 		for _, v := range r {
 			if math.IsNaN(v) || math.IsInf(v, 0) {
-				return nil, fault.New(fault.NotInEquilibrium, "non-finite reaction")
+				return fault.New(fault.NotInEquilibrium, "non-finite reaction")
 			}
 		}
 	}
-	return out, nil
+	return nil
 }
