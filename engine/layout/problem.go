@@ -166,12 +166,12 @@ type Options struct {
 	SnapTolerance float64
 	// StartNeighbours is how many of each node's shortest candidates make
 	// up the first member-adding program; default 8 in the plane (on a
-	// square grid, the members to the neighbouring nodes) and 18 in space
-	// (on a cubic grid, the members along the axes and the faces'
-	// diagonals). Measured in space on the 16 × 8 × 8 BenchmarkSpaceBridge
-	// (CPU time, rounds): 26 neighbours 17.1 s, 4; 18 14.4 s, 5; 6 32.5 s,
-	// 11: fewer start members make each factorisation cheaper until the
-	// start is too weak to price the rest well.
+	// square grid, the members to the neighbouring nodes) and 26 in space
+	// (on a cubic grid, the members to the 26 neighbouring nodes).
+	// Measured in space (CPU time, rounds, interior-point iterations): on
+	// the 16 × 8 × 8 BenchmarkSpaceBridge 26 neighbours 17.1 s, 4, 52; 18
+	// (axes and face diagonals) 14.4 s, 5, 63; 6 32.5 s, 11, 155; on the
+	// 20 × 10 × 10 one 26 neighbours 85 s, 5, 70 against 18 89 s, 7, 104.
 	StartNeighbours int
 }
 
@@ -197,7 +197,7 @@ func (o Options) withDefaults(dim int) Options {
 	if o.StartNeighbours <= 0 {
 		o.StartNeighbours = 8
 		if dim == 3 {
-			o.StartNeighbours = 18
+			o.StartNeighbours = 26
 		}
 	}
 	return o
