@@ -3,6 +3,7 @@ package main
 import (
 	"encoding/json"
 	"fmt"
+	"math"
 	"os/exec"
 	"strings"
 	"testing"
@@ -200,5 +201,65 @@ func TestSweepUnusedParameterThroughProcess(t *testing.T) {
 	}
 	if resp.Result.Total != 3 || len(resp.Result.Warnings) != 1 || resp.Result.Warnings[0].Path != "/params/parameters/0/name" {
 		t.Errorf("total %d, warnings %+v; want 3 steps and one warning at /params/parameters/0/name", resp.Result.Total, resp.Result.Warnings)
+	}
+}
+
+// TestUnusedBadCaseThroughProcess solves the catalogue's triangle with a
+// second load case naming a node that does not exist: selecting only the
+// good case answers (once the bad case failed the whole solve) with a
+// warning at the bad case's pointer, the good case's hand value N = −5p/6
+// for p = 10 (equilibrium of the apex), and selecting every case is still
+// the invalid-model error at the bad load.
+func TestUnusedBadCaseThroughProcess(t *testing.T) {
+	bin := buildGusset(t)
+	model := func(cases string) string {
+		return `{"jsonrpc":"2.0","id":1,"method":"solve","params":{` + cases + `"model":{"dimension":2,` +
+			`"materials":[{"id":"steel","elastic_modulus":2.1e8}],"sections":[{"id":"tube","area":0.002}],` +
+			`"nodes":[{"id":"A","at":[0,0]},{"id":"B","at":[8,0]},{"id":"C","at":[4,3]}],` +
+			`"members":[{"id":"AC","ends":["A","C"],"material":"steel","section":"tube"},{"id":"BC","ends":["B","C"],"material":"steel","section":"tube"}],` +
+			`"supports":[{"node":"A","fix":["x","y"]},{"node":"B","fix":["x","y"]}],` +
+			`"load_cases":[{"id":"point","loads":[{"node":"C","force":[0,-10]}]},{"id":"typo","loads":[{"node":"Z","force":[0,-10]}]}],` +
+			`"combinations":[{"id":"both","factors":{"point":1,"typo":1}}]}}}`
+	}
+	run := func(line string) (result struct {
+		Cases []struct {
+			AxialForces []float64 `json:"axial_forces"`
+		} `json:"cases"`
+		Warnings []string `json:"warnings"`
+	}, code int) {
+		cmd := exec.Command(bin, "run", "-")
+		cmd.Stdin = strings.NewReader(line + "\n")
+		out, _ := cmd.Output()
+		var resp struct {
+			Result *json.RawMessage `json:"result"`
+			Error  *struct {
+				Code int `json:"code"`
+			} `json:"error"`
+		}
+		lines := strings.Split(strings.TrimSpace(string(out)), "\n")
+		if err := json.Unmarshal([]byte(lines[len(lines)-1]), &resp); err != nil {
+			t.Fatalf("%v: %s", err, out)
+		}
+		if resp.Error != nil {
+			return result, resp.Error.Code
+		}
+		if err := json.Unmarshal(*resp.Result, &result); err != nil {
+			t.Fatal(err)
+		}
+		return result, 0
+	}
+	r, code := run(model(`"cases":["point"],`))
+	if code != 0 {
+		t.Fatalf("selecting the good case: error %d", code)
+	}
+	if len(r.Cases) != 1 || math.Abs(r.Cases[0].AxialForces[0]+50.0/6) > 1e-9 {
+		t.Errorf("cases %+v, want one with N = %v", r.Cases, -50.0/6)
+	}
+	warned := strings.Join(r.Warnings, "\n")
+	if !strings.Contains(warned, "/params/model/load_cases/1") || !strings.Contains(warned, "/params/model/combinations/0") {
+		t.Errorf("warnings %q do not point at the bad case and the combination using it", r.Warnings)
+	}
+	if _, code := run(model("")); code != 1000 {
+		t.Errorf("every case: code %d, want 1000", code)
 	}
 }

@@ -19,6 +19,9 @@ func (a *Adapter) solve(ctx context.Context, r *request[protocol.SolveParams]) (
 		return nil, err
 	}
 	out := solveResult(r.Model, res)
+	for _, w := range r.Warnings {
+		out.Warnings = append(out.Warnings, w.Path+": "+w.Message)
+	}
 	if r.Params.Picture && len(res.Cases) > 0 {
 		if out.Picture, err = solvePicture(r.Model, res); err != nil {
 			return nil, err

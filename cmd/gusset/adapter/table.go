@@ -73,6 +73,9 @@ type request[P any] struct {
 	Model *model.Model
 	// Stream sends the request's progress notifications.
 	Stream jsonrpc.Stream
+	// Warnings locate what the request leaves out of its model: load cases
+	// and combinations it does not use that have problems.
+	Warnings []protocol.Problem
 }
 
 // entry is one method of the table.
@@ -106,6 +109,15 @@ func method[P, R any](name, summary string, h func(a *Adapter, ctx context.Conte
 			} else {
 				w := fields.Field(modelField).Addr().Interface().(*protocol.Model)
 				m, err := a.decodeModel(ctx, name, raw, r.Params, w)
+				if err != nil && casesField >= 0 {
+					// Problems only in cases the request does not use
+					// are warnings: compile again without those cases.
+					if warnings, ok := dropUnusedBadCases(w, fields.Field(casesField).Interface().([]string), err); ok {
+						if m, err = a.compile(ctx, w, "/params/model"); err == nil {
+							r.Warnings = warnings
+						}
+					}
+				}
 				if err != nil {
 					return nil, err
 				}
