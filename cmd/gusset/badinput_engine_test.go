@@ -263,3 +263,48 @@ func TestUnusedBadCaseThroughProcess(t *testing.T) {
 		t.Errorf("every case: code %d, want 1000", code)
 	}
 }
+
+// TestSupportLoadDrawnApartThroughProcess reciprocates the catalogue's
+// triangle with 10 kN down at the apex and 5 kN down at support A. By
+// symmetry the apex load gives each support 5 kN, so A's reaction is
+// 5 + 5 = 10 kN up and B's 5 kN (statics by hand), as solve reports them.
+// The force diagram's external forces are then the two loads (10, 5) and
+// the two reactions (10, 5); they once showed A's net 5 kN alone.
+func TestSupportLoadDrawnApartThroughProcess(t *testing.T) {
+	bin := buildGusset(t)
+	line := `{"jsonrpc":"2.0","id":1,"method":"reciprocate","params":{"model":{"dimension":2,` +
+		`"materials":[{"id":"steel","elastic_modulus":2.1e8}],"sections":[{"id":"tube","area":0.002}],` +
+		`"nodes":[{"id":"A","at":[0,0]},{"id":"B","at":[8,0]},{"id":"C","at":[4,3]}],` +
+		`"members":[{"id":"AC","ends":["A","C"],"material":"steel","section":"tube"},{"id":"BC","ends":["B","C"],"material":"steel","section":"tube"},{"id":"AB","ends":["A","B"],"material":"steel","section":"tube"}],` +
+		`"supports":[{"node":"A","fix":["x","y"]},{"node":"B","fix":["y"]}],` +
+		`"load_cases":[{"id":"point","loads":[{"node":"C","force":[0,-10]},{"node":"A","force":[0,-5]}]}]}}}`
+	cmd := exec.Command(bin, "run", "-")
+	cmd.Stdin = strings.NewReader(line + "\n")
+	out, err := cmd.Output()
+	if err != nil {
+		t.Fatalf("run: %v", err)
+	}
+	var resp struct {
+		Result struct {
+			ExternalForces []struct {
+				Node  string  `json:"node"`
+				Force float64 `json:"force"`
+			} `json:"external_forces"`
+		} `json:"result"`
+	}
+	lines := strings.Split(strings.TrimSpace(string(out)), "\n")
+	if err := json.Unmarshal([]byte(lines[len(lines)-1]), &resp); err != nil {
+		t.Fatalf("%v: %s", err, out)
+	}
+	atA := map[float64]int{}
+	total := 0
+	for _, f := range resp.Result.ExternalForces {
+		total++
+		if f.Node == "A" {
+			atA[math.Round(f.Force*1e6)/1e6]++
+		}
+	}
+	if total != 4 || atA[10] != 1 || atA[5] != 1 {
+		t.Errorf("external forces %+v: want 4, with a 10 kN reaction and a 5 kN load at A", resp.Result.ExternalForces)
+	}
+}

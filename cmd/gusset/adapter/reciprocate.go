@@ -104,7 +104,8 @@ func (a *Adapter) diagramInput(ctx context.Context, m *model.Model, p *protocol.
 		return reciprocal.Input{}, "", err
 	}
 	c := loadpath.Solved(r)[0]
-	return reciprocal.Input{Model: m, AxialForce: c.AxialForce, External: planar(c.External)}, c.ID, nil
+	external, separate := apartAtSupports(m, &r.Cases[0], planar(c.External))
+	return reciprocal.Input{Model: m, AxialForce: c.AxialForce, External: external, Separate: separate}, c.ID, nil
 }
 
 func planar(vs [][]float64) [][2]float64 {
