@@ -8,6 +8,7 @@ import (
 	"flag"
 	"fmt"
 	"io"
+	"math"
 	"os"
 	"path/filepath"
 	"strconv"
@@ -146,9 +147,18 @@ func (d *demo) run() error {
 		hi, lo := extremes(c.AxialForces)
 		d.say("   %-9s largest tension %7.1f kN (%s), largest compression %7.1f kN (%s)\n", c.ID,
 			c.AxialForces[hi], model.Members[hi].ID, c.AxialForces[lo], model.Members[lo].ID)
-		d.say("             deflection %5.1f mm at %s, utilisation %.2f (%s)\n",
+		d.say("             deflection %5.1f mm at %s, utilisation %.2f (%s)",
 			1000*c.MaxDisplacement.Value, c.MaxDisplacement.At, c.MaxUtilisation.Value, c.MaxUtilisation.At)
-		if c.MaxUtilisation.Value > solved.Cases[governing].MaxUtilisation.Value {
+		if c.UncheckedMembers > 0 {
+			// A largest value over the checked members alone would
+			// flatter: say how many were left out.
+			d.say(" of the checked members; %d not checked (see unchecked)", c.UncheckedMembers)
+		}
+		d.say("\n")
+		// The governing case carries the largest member force: the
+		// largest utilisation would pass over a case whose members are
+		// left unchecked (bars under their own weight).
+		if largestForce(c.AxialForces) > largestForce(solved.Cases[governing].AxialForces) {
 			governing = i
 		}
 	}
@@ -317,4 +327,13 @@ func extremes(x []float64) (hi, lo int) {
 		}
 	}
 	return hi, lo
+}
+
+// largestForce returns the largest absolute axial force.
+func largestForce(forces []float64) float64 {
+	var most float64
+	for _, n := range forces {
+		most = max(most, math.Abs(n))
+	}
+	return most
 }
