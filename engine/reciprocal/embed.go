@@ -77,10 +77,32 @@ func cwAngle(from, to float64) float64 {
 // embed builds the embedding of a planar, connected network. It assumes
 // checkPlanar passed and every member has positive length.
 func embed(xy [][2]float64, ends [][2]int, forces []extForce, nodeIDs []string) (*embedding, error) {
-	n, m := len(xy), len(ends)
 	g := &embedding{xy: xy, ends: ends}
+	g.buildRotation()
+	if err := g.checkConnected(forces, nodeIDs); err != nil {
+		return nil, err
+	}
+	g.diag = g.size()
+	first, area, outer := g.traceRawFaces()
+	walk := g.outerWalk(first[outer])
+	cornerRays, err := g.placeRays(walk, forces, nodeIDs)
+	if err != nil {
+		return nil, err
+	}
+	g.assignSpaces(walk, cornerRays)
+	g.numberInnerFaces(first, area, outer, len(walk))
+	return g, nil
+}
+
+// buildRotation fills the half-edge tables: start (the first half-edge slot
+// of each node), round (each node's outgoing half-edges sorted by angle,
+// counter-clockwise from −π), angle (radians) and pos (a half-edge's slot in
+// round).
+func (g *embedding) buildRotation() {
+	n, m := len(g.xy), len(g.ends)
+	xy := g.xy
 	g.start = make([]int32, n+1)
-	for _, e := range ends {
+	for _, e := range g.ends {
 		g.start[e[0]+1]++
 		g.start[e[1]+1]++
 	}
@@ -104,20 +126,19 @@ func embed(xy [][2]float64, ends [][2]int, forces []extForce, nodeIDs []string) 
 			g.pos[h] = g.start[v] + int32(k)
 		}
 	}
-	if err := g.checkConnected(forces, nodeIDs); err != nil {
-		return nil, err
-	}
-	g.diag = g.size()
+}
 
-	// Trace the faces of the members alone; the outer one is the only face
-	// traced clockwise (negative area).
-	raw := make([]int32, 2*m)
+// traceRawFaces traces the faces of the members alone and returns each
+// face's first half-edge, its signed area (counter-clockwise positive, in the
+// square of the model's length unit) and the outer face: the only face traced
+// clockwise (negative area), the most negative one.
+func (g *embedding) traceRawFaces() (first []int32, area []float64, outer int32) {
+	xy := g.xy
+	raw := make([]int32, 2*len(g.ends))
 	for i := range raw {
 		raw[i] = -1
 	}
-	var first []int32
-	var area []float64
-	for h0 := int32(0); h0 < int32(2*m); h0++ {
+	for h0 := int32(0); h0 < int32(len(raw)); h0++ {
 		if raw[h0] >= 0 {
 			continue
 		}
@@ -131,29 +152,32 @@ func embed(xy [][2]float64, ends [][2]int, forces []extForce, nodeIDs []string) 
 		}
 		area = append(area, a/2)
 	}
-	outer := int32(0)
 	for f := range area {
 		if area[f] < area[outer] {
 			outer = int32(f)
 		}
 	}
+	return first, area, outer
+}
+
+// outerWalk lists the half-edges of the face that begins at h0, in order.
+func (g *embedding) outerWalk(h0 int32) []int32 {
 	var walk []int32
-	for h := first[outer]; ; {
+	for h := h0; ; {
 		walk = append(walk, h)
 		h = g.next(h)
-		if h == first[outer] {
+		if h == h0 {
 			break
 		}
 	}
+	return walk
+}
 
-	cornerRays, err := g.placeRays(walk, forces, nodeIDs)
-	if err != nil {
-		return nil, err
-	}
-	g.assignSpaces(walk, cornerRays)
-
-	// Inner faces are numbered left to right by centroid (then bottom to
-	// top), as panels are in the textbooks.
+// numberInnerFaces numbers the inner faces after the outer spaces, left to
+// right by centroid (then bottom to top), as panels are in the textbooks, and
+// fills their anchors, boundaries and faceOf entries. walkLen is the number
+// of half-edges on the outer face.
+func (g *embedding) numberInnerFaces(first []int32, area []float64, outer int32, walkLen int) {
 	type inner struct {
 		raw      int32
 		centroid [2]float64
@@ -180,7 +204,7 @@ func embed(xy [][2]float64, ends [][2]int, forces []extForce, nodeIDs []string) 
 	g.anchor = make([][2]float64, g.faces)
 	copy(g.anchor, anchors)
 	// One backing array for all the boundaries.
-	flat := make([]int, 0, 2*m-len(walk))
+	flat := make([]int, 0, 2*len(g.ends)-walkLen)
 	for k, in := range inners {
 		id := int32(g.spaces + k)
 		g.anchor[id] = in.centroid
@@ -196,7 +220,6 @@ func embed(xy [][2]float64, ends [][2]int, forces []extForce, nodeIDs []string) 
 		}
 		g.boundary[id] = flat[begin:len(flat):len(flat)]
 	}
-	return g, nil
 }
 
 // checkConnected fails when the members do not form one connected network,

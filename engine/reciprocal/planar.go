@@ -82,10 +82,33 @@ func conflict(pi, pj [2]int, xy [][2]float64) bool {
 // Members are bucketed into a uniform grid of about one cell per member, so
 // the cost is near linear for networks whose members are of similar length.
 func checkPlanar(xy [][2]float64, ends [][2]int, ids []string) error {
-	n := len(ends)
-	if n < 2 {
+	if len(ends) < 2 {
 		return nil
 	}
+	pairs := newMemberGrid(xy, ends).conflictingPairs(xy, ends)
+	if len(pairs) == 0 {
+		return nil
+	}
+	return crossingError(pairs, ids)
+}
+
+// cellBox is the inclusive range of grid cells a member's bounding box covers.
+type cellBox struct{ x0, y0, x1, y1 int }
+
+// memberGrid buckets members by the uniform grid cells their bounding boxes
+// cover, so only members sharing a cell are tested against each other.
+type memberGrid struct {
+	nx, ny int
+	boxes  []cellBox
+	extent [][4]float64 // min x, min y, max x, max y, in the model's length unit
+	count  []int32      // cell c's members are items[count[c]:count[c+1]]
+	items  []int32
+}
+
+// newMemberGrid sizes the cells from the network's extent and mean member
+// length and fills them with the members' bounding boxes.
+func newMemberGrid(xy [][2]float64, ends [][2]int) *memberGrid {
+	n := len(ends)
 	minX, minY := math.Inf(1), math.Inf(1)
 	maxX, maxY := math.Inf(-1), math.Inf(-1)
 	meanLen := 0.0
@@ -109,41 +132,51 @@ func checkPlanar(xy [][2]float64, ends [][2]int, ids []string) error {
 		iy := min(max(int((y-minY)/cell), 0), ny-1)
 		return ix, iy
 	}
-	type box struct{ x0, y0, x1, y1 int }
-	boxes := make([]box, n)
-	extent := make([][4]float64, n) // min x, min y, max x, max y
-	count := make([]int32, nx*ny+1)
+	g := &memberGrid{nx: nx, ny: ny, boxes: make([]cellBox, n), extent: make([][4]float64, n), count: make([]int32, nx*ny+1)}
 	for e, en := range ends {
 		a, b := xy[en[0]], xy[en[1]]
 		x0, y0 := cellOf(math.Min(a[0], b[0]), math.Min(a[1], b[1]))
 		x1, y1 := cellOf(math.Max(a[0], b[0]), math.Max(a[1], b[1]))
-		boxes[e] = box{x0, y0, x1, y1}
-		extent[e] = [4]float64{math.Min(a[0], b[0]), math.Min(a[1], b[1]), math.Max(a[0], b[0]), math.Max(a[1], b[1])}
+		g.boxes[e] = cellBox{x0, y0, x1, y1}
+		g.extent[e] = [4]float64{math.Min(a[0], b[0]), math.Min(a[1], b[1]), math.Max(a[0], b[0]), math.Max(a[1], b[1])}
 		for iy := y0; iy <= y1; iy++ {
 			for ix := x0; ix <= x1; ix++ {
-				count[iy*nx+ix+1]++
+				g.count[iy*nx+ix+1]++
 			}
 		}
 	}
+	g.fill()
+	return g
+}
+
+// fill turns the per-cell counts into offsets and lists each cell's members.
+func (g *memberGrid) fill() {
+	count := g.count
 	for c := 1; c < len(count); c++ {
 		count[c] += count[c-1]
 	}
-	items := make([]int32, count[len(count)-1])
+	g.items = make([]int32, count[len(count)-1])
 	fill := slices.Clone(count[:len(count)-1])
-	for e, bx := range boxes {
+	for e, bx := range g.boxes {
 		for iy := bx.y0; iy <= bx.y1; iy++ {
 			for ix := bx.x0; ix <= bx.x1; ix++ {
-				c := iy*nx + ix
-				items[fill[c]] = int32(e)
+				c := iy*g.nx + ix
+				g.items[fill[c]] = int32(e)
 				fill[c]++
 			}
 		}
 	}
+}
+
+// conflictingPairs returns the member pairs (lower index first) that cross,
+// touch or overlap away from a shared node, in the order found.
+func (g *memberGrid) conflictingPairs(xy [][2]float64, ends [][2]int) [][2]int {
+	boxes, extent := g.boxes, g.extent
 	var pairs [][2]int
-	for iy := 0; iy < ny; iy++ {
-		for ix := 0; ix < nx; ix++ {
-			c := iy*nx + ix
-			list := items[count[c]:count[c+1]]
+	for iy := 0; iy < g.ny; iy++ {
+		for ix := 0; ix < g.nx; ix++ {
+			c := iy*g.nx + ix
+			list := g.items[g.count[c]:g.count[c+1]]
 			for a := 0; a < len(list); a++ {
 				i := int(list[a])
 				for b := a + 1; b < len(list); b++ {
@@ -163,9 +196,12 @@ func checkPlanar(xy [][2]float64, ends [][2]int, ids []string) error {
 			}
 		}
 	}
-	if len(pairs) == 0 {
-		return nil
-	}
+	return pairs
+}
+
+// crossingError sorts the conflicting pairs and reports the first
+// maxCrossingProblems of them, each with the pointers of both members.
+func crossingError(pairs [][2]int, ids []string) error {
 	slices.SortFunc(pairs, func(p, q [2]int) int {
 		if p[0] != q[0] {
 			return p[0] - q[0]
