@@ -108,23 +108,9 @@ func Compute(m *model.Model, cases []Case, opt Options) (*Result, error) {
 	if err := opt.check(); err != nil {
 		return nil, err
 	}
-	lengths := make([]float64, len(m.Members))
-	d := m.Dim
-	for e := range m.Members {
-		// m.Length would copy both ends into 3-vectors; this loop runs
-		// for every member of models with 10⁵ of them.
-		i, j := m.Members[e].Ends[0]*d, m.Members[e].Ends[1]*d
-		var ll float64
-		for k := 0; k < d; k++ {
-			dx := m.Coords[j+k] - m.Coords[i+k]
-			ll += dx * dx
-		}
-		l := math.Sqrt(ll)
-		if !(l > 0) || math.IsInf(l, 1) {
-			return nil, fault.At(fault.InvalidModel, fmt.Sprintf("/members/%d", e),
-				"member %q has length %g; a load path needs positive lengths", m.Members[e].ID, l)
-		}
-		lengths[e] = l
+	lengths, err := memberLengths(m)
+	if err != nil {
+		return nil, err
 	}
 
 	res := &Result{
@@ -144,15 +130,44 @@ func Compute(m *model.Model, cases []Case, opt Options) (*Result, error) {
 		}
 	} else {
 		for e := range m.Members {
-			gov := 0
-			for k := 1; k < len(cases); k++ {
-				if math.Abs(cases[k].AxialForce[e]) > math.Abs(cases[gov].AxialForce[e]) {
-					gov = k
-				}
-			}
-			res.Governing[e] = gov
+			res.Governing[e] = largestForceCase(cases, e)
 		}
 	}
+	addTotals(m, cases, opt, zero, res)
+	return res, nil
+}
+
+// memberLengths returns each member's length in the model's length unit, or
+// an error pointing at the first member whose length is not positive and
+// finite.
+func memberLengths(m *model.Model) ([]float64, error) {
+	lengths := make([]float64, len(m.Members))
+	d := m.Dim
+	for e := range m.Members {
+		// m.Length would copy both ends into 3-vectors; this loop runs
+		// for every member of models with 10⁵ of them.
+		i, j := m.Members[e].Ends[0]*d, m.Members[e].Ends[1]*d
+		var ll float64
+		for k := 0; k < d; k++ {
+			dx := m.Coords[j+k] - m.Coords[i+k]
+			ll += dx * dx
+		}
+		l := math.Sqrt(ll)
+		if !(l > 0) || math.IsInf(l, 1) {
+			return nil, fault.At(fault.InvalidModel, fmt.Sprintf("/members/%d", e),
+				"member %q has length %g; a load path needs positive lengths", m.Members[e].ID, l)
+		}
+		lengths[e] = l
+	}
+	return lengths, nil
+}
+
+// addTotals fills res.Force, res.GoverningCase and res.Totals from each
+// member's governing case: load path |N|·L (force × length units), and with
+// sizing the volume, mass and carbon, split by tension, compression and
+// unloaded, and per floor area when opt.FloorArea is set.
+func addTotals(m *model.Model, cases []Case, opt Options, zero []float64, res *Result) {
+	lengths := res.Length
 	for e := range m.Members {
 		gov := res.Governing[e]
 		n := cases[gov].AxialForce[e]
@@ -188,7 +203,6 @@ func Compute(m *model.Model, cases []Case, opt Options) (*Result, error) {
 			}
 		}
 	}
-	return res, nil
 }
 
 func (q *Quantity) add(o Quantity) {

@@ -113,7 +113,6 @@ func (p *limitProblems) limit(m *model.Model, mi int, v float64, field, what str
 // needs, the largest of them, and the quantities that follow.
 func size(m *model.Model, cases []Case, opt Options, zero []float64, res *Result) error {
 	c, _, _ := opt.Section.SectionCoefficient()
-	buckling := c > 0
 	kgPerForce, ok := KilogramsPerForceUnit(m.Units)
 	if !ok {
 		return fault.At(fault.InvalidModel, "/units/force", "unknown force unit %q", m.Units.Force)
@@ -129,8 +128,7 @@ func size(m *model.Model, cases []Case, opt Options, zero []float64, res *Result
 	for e := range m.Members {
 		mem := &m.Members[e]
 		L := res.Length[e]
-		mi := mem.Material
-		mat := &m.Materials[mi]
+		mat := &m.Materials[mem.Material]
 		k := mem.BucklingFactor
 		if k == 0 {
 			k = 1
@@ -141,46 +139,16 @@ func size(m *model.Model, cases []Case, opt Options, zero []float64, res *Result
 			if math.Abs(n) <= zero[ci] {
 				continue
 			}
-			var area float64
-			var crit Criterion
-			if n > 0 {
-				sigma := bad.limit(m, mi, mat.TensionLimit, "tension_limit", "tension limit", e, cases[ci].ID)
-				if sigma == 0 {
-					continue
-				}
-				area, crit = n/sigma, Tension
-			} else {
-				sigma := bad.limit(m, mi, mat.CompressionLimit, "compression_limit", "compression limit", e, cases[ci].ID)
-				if sigma == 0 {
-					continue
-				}
-				area, crit = -n/sigma, Compression
-				if buckling {
-					E := bad.limit(m, mi, mat.ElasticModulus, "elastic_modulus", "elastic modulus", e, cases[ci].ID)
-					if E == 0 {
-						continue
-					}
-					if !(k > 0) || math.IsInf(k, 1) {
-						bad.add(fmt.Sprintf("/members/%d/buckling_factor", e), false,
-							"member %q has effective-length factor %g; it must be positive", mem.ID, k)
-						continue
-					}
-					if ab := BucklingArea(-n, E, c, L, k); ab > area {
-						area, crit = ab, Buckling
-					}
-				}
+			area, crit, ok := caseArea(m, e, n, cases[ci].ID, c, L, k, &bad)
+			if !ok {
+				continue
 			}
 			if gov < 0 || area > govArea {
 				gov, govArea, govCrit = ci, area, crit
 			}
 		}
 		if gov < 0 {
-			gov = 0
-			for ci := 1; ci < len(cases); ci++ {
-				if math.Abs(cases[ci].AxialForce[e]) > math.Abs(cases[gov].AxialForce[e]) {
-					gov = ci
-				}
-			}
+			gov = largestForceCase(cases, e)
 		}
 		if govArea < opt.MinimumArea {
 			govArea, govCrit = opt.MinimumArea, Minimum
@@ -202,6 +170,57 @@ func size(m *model.Model, cases []Case, opt Options, zero []float64, res *Result
 		stressVolumes(m, &cases[ci], res.Length, &res.Cases[ci])
 	}
 	return nil
+}
+
+// caseArea returns the area member e needs (in the square of the model's
+// length unit) for axial force n (tension +, nonzero) in case caseID, and the
+// criterion that sets it: the tension or compression limit, or Euler buckling
+// with section coefficient c (when c > 0), length L and effective-length
+// factor k. ok is false when a material value or k is missing or unfit; the
+// problem is then recorded in bad.
+func caseArea(m *model.Model, e int, n float64, caseID string, c, L, k float64, bad *limitProblems) (area float64, crit Criterion, ok bool) {
+	mem := &m.Members[e]
+	mi := mem.Material
+	mat := &m.Materials[mi]
+	if n > 0 {
+		sigma := bad.limit(m, mi, mat.TensionLimit, "tension_limit", "tension limit", e, caseID)
+		if sigma == 0 {
+			return 0, Unloaded, false
+		}
+		return n / sigma, Tension, true
+	}
+	sigma := bad.limit(m, mi, mat.CompressionLimit, "compression_limit", "compression limit", e, caseID)
+	if sigma == 0 {
+		return 0, Unloaded, false
+	}
+	area, crit = -n/sigma, Compression
+	if c > 0 {
+		E := bad.limit(m, mi, mat.ElasticModulus, "elastic_modulus", "elastic modulus", e, caseID)
+		if E == 0 {
+			return 0, Unloaded, false
+		}
+		if !(k > 0) || math.IsInf(k, 1) {
+			bad.add(fmt.Sprintf("/members/%d/buckling_factor", e), false,
+				"member %q has effective-length factor %g; it must be positive", mem.ID, k)
+			return 0, Unloaded, false
+		}
+		if ab := BucklingArea(-n, E, c, L, k); ab > area {
+			area, crit = ab, Buckling
+		}
+	}
+	return area, crit, true
+}
+
+// largestForceCase returns the first case in which member e carries its
+// largest axial force by magnitude (case 0 when there is only one).
+func largestForceCase(cases []Case, e int) int {
+	gov := 0
+	for ci := 1; ci < len(cases); ci++ {
+		if math.Abs(cases[ci].AxialForce[e]) > math.Abs(cases[gov].AxialForce[e]) {
+			gov = ci
+		}
+	}
+	return gov
 }
 
 // stressVolumes fills the case's direct stress-limited volume and, when all
