@@ -132,13 +132,52 @@ func (d *demo) run() error {
 	d.say("A 24 m steel truss of eight 3 m panels, %.1f m deep, carrying a 3 m deck over the canal.\n", model.Parameters["depth"])
 	d.say("Load cases: dead (self-weight and a 1.2 kN/m² deck), crowd (5 kN/m²); combination ultimate = 1.35 dead + 1.5 crowd.\n\n")
 
+	ids := make([]string, len(model.Members))
+	for i, m := range model.Members {
+		ids[i] = m.ID
+	}
+	governing, err := d.analysis(ids)
+	if err != nil {
+		return err
+	}
+	if err := d.diagrams(governing); err != nil {
+		return err
+	}
+
+	if err := d.crossBeam(); err != nil {
+		return err
+	}
+
+	lp, sizing, err := d.quantities()
+	if err != nil {
+		return err
+	}
+
+	// 4. Depth study.
+	if err := d.depthStudy(model.Parameters["depth"], lp.Totals.All.Volume, sizing); err != nil {
+		return err
+	}
+
+	// 5. The least-material layout for the same span and loads.
+	if err := d.bestLayout(*lp); err != nil {
+		return err
+	}
+
+	// 6. A funicular arch for the same deck (demo_arch.go).
+	return d.archAlternative()
+}
+
+// analysis runs and reports part 1 (solve of the three cases, with the
+// deflected shape written as a picture) and returns the governing case's id.
+// ids are the members' ids in model order.
+func (d *demo) analysis(ids []string) (string, error) {
 	// 1. Analysis.
 	var solved protocol.SolveResult
 	if err := d.call("solve", map[string]any{"model": d.model, "cases": []string{"ultimate", "dead", "crowd"}, "picture": true}, &solved); err != nil {
-		return err
+		return "", err
 	}
 	if err := os.WriteFile(filepath.Join(d.dir, "deflected-shape.svg"), []byte(solved.Picture), 0o644); err != nil {
-		return err
+		return "", err
 	}
 	d.say("1. Stiffness analysis (solve)\n")
 	d.say("   Stability: %s\n", solved.Stability.Rule)
@@ -146,7 +185,7 @@ func (d *demo) run() error {
 	for i, c := range solved.Cases {
 		hi, lo := extremes(c.AxialForces)
 		d.say("   %-9s largest tension %7.1f kN (%s), largest compression %7.1f kN (%s)\n", c.ID,
-			c.AxialForces[hi], model.Members[hi].ID, c.AxialForces[lo], model.Members[lo].ID)
+			c.AxialForces[hi], ids[hi], c.AxialForces[lo], ids[lo])
 		d.say("             deflection %5.1f mm at %s, utilisation %.2f (%s)",
 			1000*c.MaxDisplacement.Value, c.MaxDisplacement.At, c.MaxUtilisation.Value, c.MaxUtilisation.At)
 		if c.UncheckedMembers > 0 {
@@ -173,19 +212,17 @@ func (d *demo) run() error {
 	} else {
 		d.say("\n   Warnings: %s\n\n", strings.Join(solved.Warnings, "; "))
 	}
-	if err := d.diagrams(g.ID); err != nil {
-		return err
-	}
+	return g.ID, nil
+}
 
-	if err := d.crossBeam(); err != nil {
-		return err
-	}
-
+// quantities runs and reports part 3 (load-path with tubes of D/t = 30 sized
+// for every case) and returns the result and the sizing it used.
+func (d *demo) quantities() (*protocol.LoadPathResult, map[string]any, error) {
 	// 3. Material quantities.
 	sizing := map[string]any{"shape": "tube", "diameter_to_thickness": 30}
 	var lp protocol.LoadPathResult
 	if err := d.call("load-path", map[string]any{"model": d.model, "sizing": sizing, "floor_area": deckArea}, &lp); err != nil {
-		return err
+		return nil, nil, err
 	}
 	d.say("3. Load path and material (load-path, tubes with D/t = 30, sized for every case)\n")
 	for _, c := range lp.Cases {
@@ -195,19 +232,7 @@ func (d *demo) run() error {
 	t := lp.Totals.All
 	d.say("   Steel: %.3f m³, %.0f kg, %.0f kg CO2e; per m² of deck %.1f kg and %.1f kg CO2e\n\n",
 		t.Volume, t.Mass, t.Carbon, lp.Totals.PerFloorArea.Mass, lp.Totals.PerFloorArea.Carbon)
-
-	// 4. Depth study.
-	if err := d.depthStudy(model.Parameters["depth"], t.Volume, sizing); err != nil {
-		return err
-	}
-
-	// 5. The least-material layout for the same span and loads.
-	if err := d.bestLayout(lp); err != nil {
-		return err
-	}
-
-	// 6. A funicular arch for the same deck (demo_arch.go).
-	return d.archAlternative()
+	return &lp, sizing, nil
 }
 
 // bestLayout finds the least-volume layout that carries the ultimate deck

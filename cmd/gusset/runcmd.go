@@ -46,18 +46,7 @@ func runFile(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		fmt.Fprintln(stderr, "gusset run: give one FILE of requests (one request per line, or one JSON document), or - for stdin; flags may come before or after it")
 		return 2
 	}
-	name, data := positional[0], []byte(nil)
-	if name == "-" {
-		name = "stdin"
-		data, err = io.ReadAll(stdin)
-	} else {
-		data, err = os.ReadFile(name)
-	}
-	if err != nil {
-		fmt.Fprintf(stderr, "gusset run: %v\n", err)
-		return 2
-	}
-	rf, err := readRequestFile(name, data, stderr)
+	rf, err := loadRequestFile(positional[0], stdin, stderr)
 	if err != nil {
 		fmt.Fprintf(stderr, "gusset run: %v\n", err)
 		return 2
@@ -66,14 +55,9 @@ func runFile(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	if !ok {
 		return 2
 	}
-	for _, dir := range []string{f.pictures, f.report, f.csv} {
-		if dir == "" {
-			continue
-		}
-		if err := os.MkdirAll(dir, 0o755); err != nil {
-			fmt.Fprintf(stderr, "gusset run: %v\n", err)
-			return 2
-		}
+	if err := makeOutputDirs(f); err != nil {
+		fmt.Fprintf(stderr, "gusset run: %v\n", err)
+		return 2
 	}
 	tuneMemory()
 	s, err := newServer(f.limits, stderr)
@@ -119,6 +103,37 @@ func runFile(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		return 1
 	}
 	return 0
+}
+
+// loadRequestFile reads the request file name ("-" reads stdin, named
+// "stdin" in messages) and parses it, writing its diagnostics to diag.
+func loadRequestFile(name string, stdin io.Reader, diag io.Writer) (*requestFile, error) {
+	var data []byte
+	var err error
+	if name == "-" {
+		name = "stdin"
+		data, err = io.ReadAll(stdin)
+	} else {
+		data, err = os.ReadFile(name)
+	}
+	if err != nil {
+		return nil, err
+	}
+	return readRequestFile(name, data, diag)
+}
+
+// makeOutputDirs creates the picture, report and CSV directories the flags
+// name, stopping at the first that cannot be made.
+func makeOutputDirs(f *flags) error {
+	for _, dir := range []string{f.pictures, f.report, f.csv} {
+		if dir == "" {
+			continue
+		}
+		if err := os.MkdirAll(dir, 0o755); err != nil {
+			return err
+		}
+	}
+	return nil
 }
 
 // writeArtefacts writes the pictures, the report and the CSV files.
