@@ -31,16 +31,32 @@ func (r LabelReport) Defects() int {
 // every picture Gusset writes, including pictures drawn outside this
 // package.
 func CheckLabels(svg []byte) (LabelReport, error) {
-	var rep LabelReport
-	type text struct {
-		box   rect
-		s     string
-		halo  bool
-		inner string
+	marks, err := readMarks(svg)
+	if err != nil {
+		return LabelReport{}, err
 	}
-	var texts []text
-	var segs []segment
-	var heads []rect
+	return marks.report(), nil
+}
+
+// checkedText is one <text> of a picture: its estimated box, its content
+// and whether it has a white halo (a "label" class).
+type checkedText struct {
+	box  rect
+	s    string
+	halo bool
+}
+
+// pictureMarks are the marks of a picture CheckLabels compares: its
+// unrotated texts, its lines (leaders left out) and its arrowheads' boxes.
+type pictureMarks struct {
+	texts []checkedText
+	segs  []segment
+	heads []rect
+}
+
+// readMarks decodes the <text> and <line> elements of an SVG picture.
+func readMarks(svg []byte) (pictureMarks, error) {
+	var pm pictureMarks
 	dec := xml.NewDecoder(bytes.NewReader(svg))
 	for {
 		tok, err := dec.Token()
@@ -48,7 +64,7 @@ func CheckLabels(svg []byte) (LabelReport, error) {
 			break
 		}
 		if err != nil {
-			return rep, err
+			return pm, err
 		}
 		el, ok := tok.(xml.StartElement)
 		if !ok {
@@ -72,14 +88,14 @@ func CheckLabels(svg []byte) (LabelReport, error) {
 				continue // a leader ends at its label by design
 			}
 			s := segment{f("x1"), f("y1"), f("x2"), f("y2")}
-			segs = append(segs, s)
+			pm.segs = append(pm.segs, s)
 			if attr("marker-end") != "" {
-				heads = append(heads, arrowheadBox(s.x1, s.y1, s.x2, s.y2))
+				pm.heads = append(pm.heads, arrowheadBox(s.x1, s.y1, s.x2, s.y2))
 			}
 		case "text":
 			var content string
 			if err := dec.DecodeElement(&content, &el); err != nil {
-				return rep, err
+				return pm, err
 			}
 			if attr("transform") != "" || strings.TrimSpace(content) == "" {
 				continue
@@ -88,25 +104,32 @@ func CheckLabels(svg []byte) (LabelReport, error) {
 			if anchor == "" {
 				anchor = "start"
 			}
-			texts = append(texts, text{box: labelBox(f("x"), f("y"), content, class, anchor), s: content,
+			pm.texts = append(pm.texts, checkedText{box: labelBox(f("x"), f("y"), content, class, anchor), s: content,
 				halo: strings.Contains(class, "label")})
 		}
 	}
-	rep.Texts = len(texts)
-	for i, a := range texts {
-		for _, b := range texts[:i] {
+	return pm, nil
+}
+
+// report lists each text that overlaps an earlier text or an arrowhead, or
+// that lies on a line without a halo.
+func (pm pictureMarks) report() LabelReport {
+	var rep LabelReport
+	rep.Texts = len(pm.texts)
+	for i, a := range pm.texts {
+		for _, b := range pm.texts[:i] {
 			if a.box.overlaps(shrink(b.box)) {
 				rep.TextOverlaps = append(rep.TextOverlaps, fmt.Sprintf("%q on %q", a.s, b.s))
 			}
 		}
-		for _, h := range heads {
+		for _, h := range pm.heads {
 			if shrink(a.box).overlaps(h) {
 				rep.ArrowOverlaps = append(rep.ArrowOverlaps, fmt.Sprintf("%q on an arrowhead", a.s))
 				break
 			}
 		}
 		if !a.halo {
-			for _, s := range segs {
+			for _, s := range pm.segs {
 				if s.hits(shrink(a.box)) {
 					rep.UnhaloedOnLine = append(rep.UnhaloedOnLine, fmt.Sprintf("%q on a line without a halo", a.s))
 					break
@@ -114,7 +137,7 @@ func CheckLabels(svg []byte) (LabelReport, error) {
 			}
 		}
 	}
-	return rep, nil
+	return rep
 }
 
 // shrink takes the one-pixel margin off a label box, so that two labels

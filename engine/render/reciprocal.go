@@ -91,6 +91,25 @@ func FormAndForce(w io.Writer, m *model.Model, d *reciprocal.Diagram, opt Option
 // drawForce draws the force diagram: member segments by sense, the load
 // line with arrowheads, and the points labelled with their spaces.
 func drawForce(c *canvas, f frame, d *reciprocal.Diagram) {
+	drawForceLines(c, f, d)
+	groups := pointGroups(d)
+	if len(d.Points) > 4000 {
+		return // labels would be unreadable
+	}
+	for _, g := range groups {
+		x, y := f.x(g.at[0]), f.y(g.at[1])
+		c.circle(x, y, 2.4, inkColour)
+		class := "label"
+		if g.outer {
+			class = "label space"
+		}
+		c.label(x+6, y-6, strings.Join(g.names, "="), class, "start", stepsAround)
+	}
+}
+
+// drawForceLines draws the force diagram's member lines (coloured by sense)
+// and its external forces (arrowed where the segment is long enough).
+func drawForceLines(c *canvas, f frame, d *reciprocal.Diagram) {
 	for _, s := range d.Members {
 		if s.Zero {
 			continue
@@ -114,14 +133,21 @@ func drawForce(c *canvas, f frame, d *reciprocal.Diagram) {
 		}
 		c.line(x1, y1, x2, y2, "external", 2.6, head)
 	}
-	// Points that coincide (zero-force members, spaces on the load line)
-	// share one label: "3=4".
-	type group struct {
-		at    [2]float64
-		names []string
-		outer bool
-	}
-	var groups []group
+}
+
+// pointGroup is one labelled point of the force diagram: the spaces whose
+// points coincide there (zero-force members, spaces on the load line) share
+// one label, "3=4".
+type pointGroup struct {
+	at    [2]float64
+	names []string
+	outer bool
+}
+
+// pointGroups merges the force diagram's points that coincide within 1e-9
+// of the diagram's size, taking them left to right (then bottom to top).
+func pointGroups(d *reciprocal.Diagram) []pointGroup {
+	var groups []pointGroup
 	size := 0.0
 	for _, p := range d.Points {
 		size = math.Max(size, math.Hypot(p[0], p[1]))
@@ -156,19 +182,8 @@ func drawForce(c *canvas, f frame, d *reciprocal.Diagram) {
 			}
 		}
 		if !merged {
-			groups = append(groups, group{at: p, names: []string{d.Spaces[k].Label}, outer: d.Spaces[k].Outer})
+			groups = append(groups, pointGroup{at: p, names: []string{d.Spaces[k].Label}, outer: d.Spaces[k].Outer})
 		}
 	}
-	if len(d.Points) > 4000 {
-		return // labels would be unreadable
-	}
-	for _, g := range groups {
-		x, y := f.x(g.at[0]), f.y(g.at[1])
-		c.circle(x, y, 2.4, inkColour)
-		class := "label"
-		if g.outer {
-			class = "label space"
-		}
-		c.label(x+6, y-6, strings.Join(g.names, "="), class, "start", stepsAround)
-	}
+	return groups
 }
