@@ -121,21 +121,9 @@ func (d *dual) solveLaplacian(ctx context.Context, x, b []float64) (int, error) 
 	if n < 2 {
 		return 0, nil
 	}
-	apply := func(dst, p []float64) {
-		for f := 1; f < n; f++ {
-			s := float64(d.start[f+1]-d.start[f]) * p[f]
-			for k := d.start[f]; k < d.start[f+1]; k++ {
-				if g := d.adj[k]; g != 0 {
-					s -= p[g]
-				}
-			}
-			dst[f] = s
-		}
-		dst[0] = 0
-	}
 	x[0] = 0
 	r := make([]float64, n)
-	apply(r, x)
+	d.applyLaplacian(r, x)
 	bnorm, rnorm := 0.0, 0.0
 	for f := 1; f < n; f++ {
 		r[f] = b[f] - r[f]
@@ -153,21 +141,7 @@ func (d *dual) solveLaplacian(ctx context.Context, x, b []float64) (int, error) 
 		d.factor = newMILU(d)
 		d.jacobi = d.factor == nil
 	}
-	precondition := func() float64 {
-		if d.factor != nil {
-			d.factor.solve(z, r)
-		} else {
-			for f := 1; f < n; f++ {
-				z[f] = r[f] / float64(d.start[f+1]-d.start[f])
-			}
-		}
-		rz := 0.0
-		for f := 1; f < n; f++ {
-			rz += r[f] * z[f]
-		}
-		return rz
-	}
-	rz := precondition()
+	rz := d.precondition(z, r)
 	copy(p, z)
 	maxIter := 200 + 40*int(math.Sqrt(float64(n)))
 	for it := 1; it <= maxIter; it++ {
@@ -176,7 +150,7 @@ func (d *dual) solveLaplacian(ctx context.Context, x, b []float64) (int, error) 
 				return it, err
 			}
 		}
-		apply(ap, p)
+		d.applyLaplacian(ap, p)
 		pap := 0.0
 		for f := 1; f < n; f++ {
 			pap += p[f] * ap[f]
@@ -194,7 +168,7 @@ func (d *dual) solveLaplacian(ctx context.Context, x, b []float64) (int, error) 
 		if math.Sqrt(rnorm) <= tol {
 			return it, nil
 		}
-		rzNew := precondition()
+		rzNew := d.precondition(z, r)
 		beta := rzNew / rz
 		rz = rzNew
 		for f := 1; f < n; f++ {
@@ -202,4 +176,39 @@ func (d *dual) solveLaplacian(ctx context.Context, x, b []float64) (int, error) 
 		}
 	}
 	return maxIter, nil
+}
+
+// applyLaplacian sets dst = L·p on faces 1..n−1, where L is the face graph's
+// Laplacian (degree on the diagonal, −1 per neighbour) with face 0 grounded:
+// its row is zero and its column is left out.
+func (d *dual) applyLaplacian(dst, p []float64) {
+	n := d.faces
+	for f := 1; f < n; f++ {
+		s := float64(d.start[f+1]-d.start[f]) * p[f]
+		for k := d.start[f]; k < d.start[f+1]; k++ {
+			if g := d.adj[k]; g != 0 {
+				s -= p[g]
+			}
+		}
+		dst[f] = s
+	}
+	dst[0] = 0
+}
+
+// precondition sets z = M⁻¹·r (the modified incomplete factorisation, or
+// the diagonal when it failed) on faces 1..n−1 and returns r·z.
+func (d *dual) precondition(z, r []float64) float64 {
+	n := d.faces
+	if d.factor != nil {
+		d.factor.solve(z, r)
+	} else {
+		for f := 1; f < n; f++ {
+			z[f] = r[f] / float64(d.start[f+1]-d.start[f])
+		}
+	}
+	rz := 0.0
+	for f := 1; f < n; f++ {
+		rz += r[f] * z[f]
+	}
+	return rz
 }
