@@ -19,8 +19,11 @@ type call struct {
 	params json.RawMessage
 	// refused says why a notification failed; it is logged, not answered.
 	refused string
-	ctx     context.Context
-	cancel  context.CancelCauseFunc
+	// batch collects the final response when the call came in a batch;
+	// nil for a call on a line of its own.
+	batch  *batch
+	ctx    context.Context
+	cancel context.CancelCauseFunc
 
 	// sendMu orders the call's messages: a progress notification is
 	// written whole before the final response is queued.
@@ -112,7 +115,7 @@ func (c *conn) close() (failures int, err error) {
 // already in flight) is answered here.
 func (c *conn) admit(cl *call) bool {
 	if c.ctx.Err() != nil {
-		c.respond(errorResponse(cl.id, protocol.NewError(protocol.CodeShuttingDown, "shutting down", "The server is stopping and takes no new work.")))
+		c.reply(cl.batch, errorResponse(cl.id, protocol.NewError(protocol.CodeShuttingDown, "shutting down", "The server is stopping and takes no new work.")))
 		return false
 	}
 	cl.ctx, cl.cancel = context.WithCancelCause(c.ctx)
@@ -127,7 +130,7 @@ func (c *conn) admit(cl *call) bool {
 	c.mu.Unlock()
 	if busy {
 		cl.cancel(nil)
-		c.respond(errorResponse(cl.id, idInUse()))
+		c.reply(cl.batch, errorResponse(cl.id, idInUse()))
 	}
 	return !busy
 }
@@ -149,7 +152,7 @@ func (c *conn) duplicate(cl *call) bool {
 	_, busy := c.inFlight[cl.key]
 	c.mu.Unlock()
 	if busy {
-		c.respond(errorResponse(cl.id, idInUse()))
+		c.reply(cl.batch, errorResponse(cl.id, idInUse()))
 	}
 	return busy
 }
@@ -192,12 +195,17 @@ func (c *conn) finish(cl *call, resp *protocol.Response) {
 	cl.sendMu.Unlock()
 	cl.cancel(nil)
 	if cl.id != nil {
-		c.respond(resp)
+		c.reply(cl.batch, resp)
 	}
 }
 
-// respond counts a failure and sends a final response.
-func (c *conn) respond(resp *protocol.Response) {
+// respond counts a failure and sends a final response on a line of its
+// own.
+func (c *conn) respond(resp *protocol.Response) { c.reply(nil, resp) }
+
+// account encodes a final response, counts it if it is an error and shows
+// it to OnResponse; it returns the encoded response.
+func (c *conn) account(resp *protocol.Response) []byte {
 	// Encoded first: a result that cannot be encoded becomes an internal
 	// error, which counts and is what OnResponse sees.
 	line := marshalResponse(resp)
@@ -209,7 +217,7 @@ func (c *conn) respond(resp *protocol.Response) {
 	if c.s.OnResponse != nil {
 		c.s.OnResponse(resp)
 	}
-	c.w.send(line)
+	return line
 }
 
 // cancel answers a cancel request: it stops the target if it is in flight.

@@ -6,6 +6,7 @@ import (
 	"encoding/json"
 	"math"
 	"strings"
+	"sync"
 	"testing"
 
 	"gusset/protocol"
@@ -25,7 +26,8 @@ func TestUnencodableResultCountsAsFailure(t *testing.T) {
 		return map[string]float64{"x": 1}, nil
 	})
 	var seen []*protocol.Response
-	s.OnResponse = func(r *protocol.Response) { seen = append(seen, r) }
+	var mu sync.Mutex // OnResponse is called from the workers
+	s.OnResponse = func(r *protocol.Response) { mu.Lock(); seen = append(seen, r); mu.Unlock() }
 	in := `{"jsonrpc":"2.0","id":1,"method":"nan"}` + "\n" + `{"jsonrpc":"2.0","id":2,"method":"fine"}` + "\n"
 	var out bytes.Buffer
 	failures, err := s.Serve(context.Background(), strings.NewReader(in), &out)

@@ -52,6 +52,8 @@ func FuzzServe(f *testing.F) {
 		`{"jsonrpc":"2.0","id":"\ud800","method":"echo"}` + "\n" + `{"jsonrpc":"2.0","id":"\ud83d\ude00","method":"echo"}`,
 		`{"jsonrpc":"2.0","method":"nope"}` + "\n" + `{"jsonrpc":"2.0","method":"echo","params":[1]}`,
 		`{"jsonrpc":"2.0","id":null,"method":"wait"}` + "\n" + `{"jsonrpc":"2.0","id":null,"method":"describe"}`,
+		`[{"jsonrpc":"2.0","id":"b1","method":"echo"},{"jsonrpc":"2.0","method":"echo"},1,{"jsonrpc":"2.0","id":"b1","method":"wait"},[]]` + "\n" + `[]` + "\n" + `[{"jsonrpc":"2.0","method":"describe"}]`,
+		`[{"jsonrpc":"2.0","id":"w","method":"wait"}]` + "\n" + `[{"jsonrpc":"2.0","id":"c","method":"cancel","params":{"request":"w"}},{"jsonrpc":"2.0","id":"d","method":"describe"}]`,
 	}
 	for _, s := range seeds {
 		f.Add([]byte(s))
@@ -71,6 +73,22 @@ func FuzzServe(f *testing.F) {
 			line := sc.Bytes()
 			if !utf8.Valid(line) {
 				t.Fatalf("output line is not UTF-8: %q", line)
+			}
+			if bytes.HasPrefix(line, []byte("[")) {
+				// A batch's responses (JSON-RPC 2.0 §6): a non-empty array
+				// of final responses, each checked as one on its own line.
+				var members []json.RawMessage
+				if err := json.Unmarshal(line, &members); err != nil || len(members) == 0 {
+					t.Fatalf("output line is not a non-empty array of responses: %q", line)
+				}
+				for _, r := range members {
+					var m map[string]json.RawMessage
+					if json.Unmarshal(r, &m) != nil || m["method"] != nil {
+						t.Fatalf("a batch's member is not a final response: %q", line)
+					}
+					checkFinal(t, r, m, gotIDs, &nulls)
+				}
+				continue
 			}
 			var m map[string]json.RawMessage
 			if err := json.Unmarshal(line, &m); err != nil {
@@ -94,23 +112,7 @@ func FuzzServe(f *testing.F) {
 				}
 				continue
 			}
-			_, hasResult := m["result"]
-			_, hasError := m["error"]
-			if hasResult == hasError {
-				t.Fatalf("a response needs exactly one of result and error: %q", line)
-			}
-			id, ok := m["id"]
-			if !ok {
-				t.Fatalf("response without id: %q", line)
-			}
-			switch {
-			case string(id) == "null":
-				nulls++
-			case id[0] == '"' || id[0] == '-' || (id[0] >= '0' && id[0] <= '9'):
-				gotIDs[string(id)]++
-			default:
-				t.Fatalf("response id is neither null, a string nor a number: %q", line)
-			}
+			checkFinal(t, line, m, gotIDs, &nulls)
 		}
 		for id, n := range wantIDs {
 			if gotIDs[id] != n {
@@ -126,6 +128,33 @@ func FuzzServe(f *testing.F) {
 			t.Errorf("%d responses with a null id, want between %d and %d", nulls, minNull, maxNull)
 		}
 	})
+}
+
+// checkFinal checks one final response (decoded as m from line): version
+// 2.0, exactly one of result and error, and an id that is null (counted in
+// nulls), a string or a number (counted in gotIDs).
+func checkFinal(t *testing.T, line []byte, m map[string]json.RawMessage, gotIDs map[string]int, nulls *int) {
+	t.Helper()
+	if string(m["jsonrpc"]) != `"2.0"` {
+		t.Fatalf("response without jsonrpc 2.0: %q", line)
+	}
+	_, hasResult := m["result"]
+	_, hasError := m["error"]
+	if hasResult == hasError {
+		t.Fatalf("a response needs exactly one of result and error: %q", line)
+	}
+	id, ok := m["id"]
+	if !ok {
+		t.Fatalf("response without id: %q", line)
+	}
+	switch {
+	case string(id) == "null":
+		*nulls++
+	case id[0] == '"' || id[0] == '-' || (id[0] >= '0' && id[0] <= '9'):
+		gotIDs[string(id)]++
+	default:
+		t.Fatalf("response id is neither null, a string nor a number: %q", line)
+	}
 }
 
 // fuzzServer has methods that finish on their own, whatever the input:
@@ -187,15 +216,31 @@ func expectedResponses(input []byte, limit int) (ids map[string]int, minNull, ma
 		if len(bytes.TrimSpace(content)) == 0 {
 			continue
 		}
-		id, kind := requestID(content)
-		switch kind {
-		case idValid:
-			ids[id]++
-		case idBad:
-			minNull++
-			maxNull++
-		case idAbsent:
-			maxNull++ // a notification, or an invalid one answered with null
+		requests := [][]byte{content}
+		var batch []json.RawMessage
+		if t := bytes.TrimSpace(content); t[0] == '[' && utf8.Valid(t) && json.Unmarshal(t, &batch) == nil {
+			// A batch (JSON-RPC 2.0 §6): each member is answered as a line
+			// of its own would be; an empty one gets one null-id error.
+			requests = requests[:0]
+			for _, r := range batch {
+				requests = append(requests, r)
+			}
+			if len(batch) == 0 {
+				minNull++
+				maxNull++
+			}
+		}
+		for _, r := range requests {
+			id, kind := requestID(r)
+			switch kind {
+			case idValid:
+				ids[id]++
+			case idBad:
+				minNull++
+				maxNull++
+			case idAbsent:
+				maxNull++ // a notification, or an invalid one answered with null
+			}
 		}
 	}
 	return ids, minNull, maxNull

@@ -46,10 +46,11 @@ func (c *conn) idle() bool {
 	}
 }
 
-// later admits a line off the reader: parse yields its call (parsing a
-// large line there), which is then admitted after the line before it. The
-// reader waits first while the chain is full.
-func (c *conn) later(size int, parse func() (*call, *protocol.Response)) {
+// later admits a line (or a member of batch b) off the reader: parse
+// yields its call (parsing a large line there), which is then admitted
+// after the line before it. The reader waits first while the chain is
+// full.
+func (c *conn) later(size int, b *batch, parse func() (*call, *protocol.Response)) {
 	c.waitRoom(size)
 	prev, l := c.tail, &link{registered: make(chan struct{}), queued: make(chan struct{})}
 	c.tail = l
@@ -61,7 +62,7 @@ func (c *conn) later(size int, parse func() (*call, *protocol.Response)) {
 		if prev != nil {
 			<-prev.registered
 		}
-		queue := c.dispatch(cl, resp)
+		queue := c.dispatch(cl, resp, b)
 		close(l.registered)
 		if prev != nil {
 			<-prev.queued
@@ -74,17 +75,18 @@ func (c *conn) later(size int, parse func() (*call, *protocol.Response)) {
 }
 
 // dispatch acts on a line admitted off the reader once the lines before it
-// are in the table, and reports whether its call is to be queued.
-func (c *conn) dispatch(cl *call, resp *protocol.Response) bool {
+// are in the table, and reports whether its call is to be queued; b is
+// the batch it came in, or nil.
+func (c *conn) dispatch(cl *call, resp *protocol.Response, b *batch) bool {
 	switch {
 	case resp != nil:
-		c.respond(resp)
+		c.reply(b, resp)
 	case c.unanswered(cl), c.duplicate(cl):
 	case cl.method == protocol.MethodDescribe:
-		c.respond(&protocol.Response{JSONRPC: "2.0", ID: cl.id, Result: c.s.describeResult(c.limits)})
+		c.reply(b, &protocol.Response{JSONRPC: "2.0", ID: cl.id, Result: c.s.describeResult(c.limits)})
 	case cl.method == protocol.MethodCancel:
 		if resp, _ := c.cancel(cl); cl.id != nil {
-			c.respond(resp)
+			c.reply(b, resp)
 		}
 	default:
 		return c.admit(cl)

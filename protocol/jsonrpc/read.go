@@ -48,32 +48,42 @@ func (c *conn) read(in io.Reader) {
 // large line is parsed off the reader (see offreader.go), so that the
 // lines behind it are read meanwhile.
 func (c *conn) handle(line []byte) {
+	if isBatch(line) {
+		c.handleBatch(line)
+		return
+	}
 	if len(line) >= bigLine {
-		c.later(len(line), func() (*call, *protocol.Response) { return c.s.parse(line) })
+		c.later(len(line), nil, func() (*call, *protocol.Response) { return c.s.parse(line) })
 		return
 	}
 	cl, resp := c.s.parse(line)
+	c.handleParsed(cl, resp, len(line), nil)
+}
+
+// handleParsed acts on one parsed request of size bytes (a line, or a
+// member of batch b, nil for a line of its own).
+func (c *conn) handleParsed(cl *call, resp *protocol.Response, size int, b *batch) {
 	switch {
 	case resp != nil:
-		c.respond(resp)
+		c.reply(b, resp)
 	case c.unanswered(cl), c.duplicate(cl):
 	case cl.method == protocol.MethodDescribe:
-		c.respond(&protocol.Response{JSONRPC: "2.0", ID: cl.id, Result: c.s.describeResult(c.limits)})
+		c.reply(b, &protocol.Response{JSONRPC: "2.0", ID: cl.id, Result: c.s.describeResult(c.limits)})
 	case cl.method == protocol.MethodCancel:
 		resp, found := c.cancel(cl)
 		if !found && !c.idle() {
 			// The target may be a line still being parsed or admitted
 			// off the reader: look again once those before it are in.
-			c.later(len(line), func() (*call, *protocol.Response) { return cl, nil })
+			c.later(size, b, func() (*call, *protocol.Response) { return cl, nil })
 		} else if cl.id != nil {
-			c.respond(resp)
+			c.reply(b, resp)
 		}
-	case c.idle() && c.queue.fits(len(line)):
+	case c.idle() && c.queue.fits(size):
 		if c.admit(cl) {
-			c.queue.put(cl, len(line))
+			c.queue.put(cl, size)
 		}
 	default:
-		c.later(len(line), func() (*call, *protocol.Response) { return cl, nil })
+		c.later(size, b, func() (*call, *protocol.Response) { return cl, nil })
 	}
 }
 
@@ -143,7 +153,7 @@ func (s *Server) parse(line []byte) (*call, *protocol.Response) {
 			"The line is not valid JSON: "+err.Error()+". Send one JSON-RPC request object per line."))
 	}
 	return nil, errorResponse(nil, protocol.NewError(protocol.CodeInvalidRequest, "invalid request",
-		"The message is not a JSON object. Send one JSON-RPC 2.0 request object per line.", protocol.Problem{Path: "", Message: "expected an object"}))
+		"The message is not a JSON object. Send one JSON-RPC 2.0 request object per line, or a batch: an array of them.", protocol.Problem{Path: "", Message: "expected an object"}))
 }
 
 // request checks the envelope's members and builds the call.

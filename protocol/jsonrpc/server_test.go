@@ -98,7 +98,8 @@ func TestBadInputKeepsGoing(t *testing.T) {
 		path string
 	}{
 		{"not JSON", `{"jsonrpc": "2.0", "id": 1, "method": "echo"`, protocol.CodeParseError, ""},
-		{"not an object", `[1, 2, 3]`, protocol.CodeInvalidRequest, ""},
+		{"not an object", `42`, protocol.CodeInvalidRequest, ""},
+		{"empty batch", `[ ]`, protocol.CodeInvalidRequest, ""},
 		{"missing jsonrpc", `{"id": 7, "method": "echo"}`, protocol.CodeInvalidRequest, "/jsonrpc"},
 		{"wrong jsonrpc", `{"jsonrpc": "1.0", "id": 7, "method": "echo"}`, protocol.CodeInvalidRequest, "/jsonrpc"},
 		{"missing method", `{"jsonrpc": "2.0", "id": 7}`, protocol.CodeInvalidRequest, "/method"},
