@@ -389,49 +389,8 @@ func (f *numeric) run(workers int) error {
 		return nil
 	}
 
-	// Subtrees whose work is below a share of the total go to one worker
-	// each, in postorder; the supernodes above them are single tasks that
-	// become ready when their last child finishes.
-	subtree := slices.Clone(sym.cost)
-	firstDesc := make([]int, ns)
-	for s := range firstDesc {
-		firstDesc[s] = s
-	}
-	for s := 0; s < ns; s++ {
-		for _, c := range sym.childList[sym.childPtr[s]:sym.childPtr[s+1]] {
-			firstDesc[s] = min(firstDesc[s], firstDesc[c])
-			subtree[s] += subtree[c]
-		}
-	}
-	total := 0.0
-	for s := 0; s < ns; s++ {
-		if sym.superParent[s] < 0 {
-			total += subtree[s]
-		}
-	}
-	limit := total / float64(4*workers)
-	isTask := make([]bool, ns) // a subtree task rooted here
-	var tasks []int
-	pending := make([]atomic.Int32, ns)
-	for s := 0; s < ns; s++ {
-		p := sym.superParent[s]
-		if subtree[s] <= limit && (p < 0 || subtree[p] > limit) {
-			isTask[s] = true
-			tasks = append(tasks, s)
-		}
-	}
-	var top []int
-	for s := 0; s < ns; s++ {
-		if subtree[s] > limit {
-			top = append(top, s)
-			pending[s].Store(int32(sym.childPtr[s+1] - sym.childPtr[s]))
-			if sym.childPtr[s+1] == sym.childPtr[s] {
-				tasks = append(tasks, s)
-			}
-		}
-	}
-	// Largest first, for balance; ties by index keep it reproducible.
-	sort.SliceStable(tasks, func(x, y int) bool { return subtree[tasks[x]] > subtree[tasks[y]] })
+	pl := planTasks(sym, workers)
+	isTask, firstDesc, tasks, top, pending := pl.isTask, pl.firstDesc, pl.tasks, pl.top, pl.pending
 	ready := make(chan int, ns)
 	for _, t := range tasks {
 		ready <- t
@@ -490,6 +449,68 @@ func (f *numeric) run(workers int) error {
 	return nil
 }
 
+// taskPlan is how run shares the supernodes among workers: subtree tasks
+// (isTask, each running firstDesc[t]..t in postorder), the top supernodes
+// above them with their counts of unfinished children (pending), and the
+// initially ready tasks, largest first.
+type taskPlan struct {
+	firstDesc []int
+	isTask    []bool
+	tasks     []int
+	top       []int
+	pending   []atomic.Int32
+}
+
+// planTasks builds run's task plan for the given number of workers. It is
+// sequential and reads only the symbolic factorisation.
+func planTasks(sym *symbolic, workers int) taskPlan {
+	ns := sym.nsuper
+	// Subtrees whose work is below a share of the total go to one worker
+	// each, in postorder; the supernodes above them are single tasks that
+	// become ready when their last child finishes.
+	subtree := slices.Clone(sym.cost)
+	firstDesc := make([]int, ns)
+	for s := range firstDesc {
+		firstDesc[s] = s
+	}
+	for s := 0; s < ns; s++ {
+		for _, c := range sym.childList[sym.childPtr[s]:sym.childPtr[s+1]] {
+			firstDesc[s] = min(firstDesc[s], firstDesc[c])
+			subtree[s] += subtree[c]
+		}
+	}
+	total := 0.0
+	for s := 0; s < ns; s++ {
+		if sym.superParent[s] < 0 {
+			total += subtree[s]
+		}
+	}
+	limit := total / float64(4*workers)
+	isTask := make([]bool, ns) // a subtree task rooted here
+	var tasks []int
+	pending := make([]atomic.Int32, ns)
+	for s := 0; s < ns; s++ {
+		p := sym.superParent[s]
+		if subtree[s] <= limit && (p < 0 || subtree[p] > limit) {
+			isTask[s] = true
+			tasks = append(tasks, s)
+		}
+	}
+	var top []int
+	for s := 0; s < ns; s++ {
+		if subtree[s] > limit {
+			top = append(top, s)
+			pending[s].Store(int32(sym.childPtr[s+1] - sym.childPtr[s]))
+			if sym.childPtr[s+1] == sym.childPtr[s] {
+				tasks = append(tasks, s)
+			}
+		}
+	}
+	// Largest first, for balance; ties by index keep it reproducible.
+	sort.SliceStable(tasks, func(x, y int) bool { return subtree[tasks[x]] > subtree[tasks[y]] })
+	return taskPlan{firstDesc: firstDesc, isTask: isTask, tasks: tasks, top: top, pending: pending}
+}
+
 // countLeaves counts the top supernodes without children, which are already
 // among the initial tasks.
 func countLeaves(sym *symbolic, top []int) int {
@@ -504,6 +525,8 @@ func countLeaves(sym *symbolic, top []int) int {
 
 // supernode factorises supernode s; its children must be finished. Its
 // dense operations on the off-diagonal block use up to wide goroutines.
+// It stays whole (numerical kernel): its phases share the local row map
+// w.local, the scratch w.rel and the children's pooled update blocks.
 func (f *numeric) supernode(w *workspace, s int, wide int) {
 	sym := f.sym
 	first := sym.superFirst[s]

@@ -117,6 +117,8 @@ type dissector struct {
 }
 
 // dissect appends the order of the variables of nodes to d.out.
+// It stays whole (recursive kernel): its phases share the stamp t that
+// marks the current piece in d.tag and d.done, and the level structure.
 func (d *dissector) dissect(nodes []int) {
 	if len(nodes) == 0 {
 		return
