@@ -129,6 +129,8 @@ func (p *process) check(line []byte, onLine func(raw []byte, m *wireMessage)) {
 		p.bad = append(p.bad, "unterminated line: "+abbrev(body))
 	case !utf8.Valid(body):
 		p.bad = append(p.bad, "not UTF-8: "+abbrev(body))
+	case bytes.HasPrefix(body, []byte("[")):
+		p.checkBatch(body, onLine)
 	case json.Unmarshal(body, &obj) != nil || json.Unmarshal(body, &m) != nil:
 		p.bad = append(p.bad, "not a JSON object: "+abbrev(body))
 	case m.JSONRPC != "2.0":
@@ -136,6 +138,28 @@ func (p *process) check(line []byte, onLine func(raw []byte, m *wireMessage)) {
 	default:
 		if onLine != nil {
 			onLine(body, &m)
+		}
+	}
+}
+
+// checkBatch validates a batch's answer (JSON-RPC 2.0 §6): a non-empty
+// array of final responses of version 2.0, each handed on with the whole
+// line as raw.
+func (p *process) checkBatch(body []byte, onLine func(raw []byte, m *wireMessage)) {
+	var ms []wireMessage
+	if json.Unmarshal(body, &ms) != nil || len(ms) == 0 {
+		p.bad = append(p.bad, "not a non-empty array of responses: "+abbrev(body))
+		return
+	}
+	for i := range ms {
+		if ms[i].JSONRPC != "2.0" || !ms[i].isFinal() {
+			p.bad = append(p.bad, "a batch member is not a JSON-RPC 2.0 response: "+abbrev(body))
+			return
+		}
+	}
+	for i := range ms {
+		if onLine != nil {
+			onLine(body, &ms[i])
 		}
 	}
 }

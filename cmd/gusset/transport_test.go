@@ -4,6 +4,7 @@ import (
 	"encoding/json"
 	"errors"
 	"io"
+	"math"
 	"os/exec"
 	"strings"
 	"sync"
@@ -307,4 +308,109 @@ func TestBrokenOutputEndsSession(t *testing.T) {
 		t.Errorf("stderr: %q", stderr.String())
 	}
 	stdin.Close()
+}
+
+// TestBatchThroughProcess: JSON-RPC 2.0 §6 batches through `gusset serve`
+// (issue 22 item 1). One batch holds a long sweep, a solve, a describe, a
+// notification and a member that is not an object; the sweep's progress
+// streams before the batch's array; a second batch reusing the sweep's id
+// while it runs is refused with -32600 inside its own array; a cancel on a
+// later line stops the sweep; an empty array gets one -32600 object and a
+// batch of notifications gets nothing. The solve's member forces are
+// checked against hand statics: two bars from (0,0) and (8,0) to (4,3)
+// under 10 kN down, each N = −10/(2·3/5) = −25/3 kN (method of joints,
+// from memory: any statics text).
+func TestBatchThroughProcess(t *testing.T) {
+	sweep := string(request("bs", "sweep-parameter", map[string]any{"model": twoBar("h"),
+		"parameters": []any{map[string]any{"name": "h", "from": 1, "to": 5, "count": 100000}}}))
+	solve := string(request("b1", "solve", map[string]any{"model": twoBar(3)}))
+	notify := strings.Replace(solve, `"id":"b1",`, ``, 1)
+	lines := []string{
+		`[]`,
+		`[` + notify + `,{"jsonrpc":"2.0","method":"describe"}]`,
+		`[` + sweep + `,` + solve + `,{"jsonrpc":"2.0","id":"bd","method":"describe"},` + notify + `,7]`,
+	}
+	var mu sync.Mutex
+	var order []string // "progress", or the raw array line, as they came
+	var once sync.Once
+	finals, raws, _ := transcriptOf(t, []string{"--jobs", "2"}, lines, func(p *process, raw []byte, m *wireMessage) {
+		mu.Lock()
+		defer mu.Unlock()
+		if m.Method == "progress" && string(m.Params.Request) == `"bs"` {
+			order = append(order, "progress")
+			once.Do(func() {
+				go func() {
+					p.send([]byte(`[{"jsonrpc":"2.0","id":"bs","method":"describe"}]`))
+					p.send([]byte(`{"jsonrpc":"2.0","id":"c","method":"cancel","params":{"request":"bs"}}`))
+					p.closeInput()
+				}()
+			})
+		} else if raw[0] == '[' && (len(order) == 0 || order[len(order)-1] != string(raw)) {
+			order = append(order, string(raw))
+		}
+	})
+	var arrays []string
+	for _, r := range raws {
+		if strings.HasPrefix(r, "[") && !slicesContains(arrays, r) {
+			arrays = append(arrays, r)
+		}
+	}
+	if len(arrays) != 2 {
+		t.Fatalf("%d array lines, want 2 (the big batch and the refused duplicate; none for the notifications): %q", len(arrays), raws)
+	}
+	if len(order) == 0 || order[0] != "progress" {
+		t.Errorf("the sweep's progress did not come before the batch's array: %.200q", order)
+	}
+	// The empty array's single -32600 object, and the non-object member's.
+	nulls := finals["null"]
+	if len(nulls) != 2 {
+		t.Fatalf("%d null-id answers, want 2 (the empty batch, the member 7): %+v", len(nulls), nulls)
+	}
+	for _, m := range nulls {
+		if m.Error == nil || m.Error.Code != -32600 {
+			t.Errorf("null-id answer %+v, want -32600", m)
+		}
+	}
+	bs := finals[`"bs"`]
+	codes := map[int]int{}
+	for _, m := range bs {
+		if m.Error != nil {
+			codes[m.Error.Code]++
+		}
+	}
+	if len(bs) != 2 || codes[-32600] != 1 || codes[-32000] != 1 {
+		t.Errorf("answers with id bs: %+v, want the duplicate refused (-32600) and the sweep cancelled (-32000)", bs)
+	}
+	if c := finals[`"c"`]; len(c) != 1 || string(c[0].Result) != `{"cancelled":true}` {
+		t.Errorf("cancel: %+v", c)
+	}
+	if d := finals[`"bd"`]; len(d) != 1 || d[0].Error != nil || !strings.Contains(string(d[0].Result), `"methods"`) {
+		t.Errorf("describe in a batch: %+v", d)
+	}
+	b1 := finals[`"b1"`]
+	if len(b1) != 1 || b1[0].Error != nil {
+		t.Fatalf("solve in a batch: %+v", b1)
+	}
+	var res struct {
+		Cases []struct {
+			AxialForces []float64 `json:"axial_forces"`
+		} `json:"cases"`
+	}
+	if err := json.Unmarshal(b1[0].Result, &res); err != nil || len(res.Cases) != 1 || len(res.Cases[0].AxialForces) != 2 {
+		t.Fatalf("solve result: %v %.300s", err, b1[0].Result)
+	}
+	for i, n := range res.Cases[0].AxialForces {
+		if math.Abs(n-(-25.0/3)) > 1e-9*25/3 {
+			t.Errorf("member %d: N = %v kN, want −25/3", i, n)
+		}
+	}
+}
+
+func slicesContains(list []string, s string) bool {
+	for _, x := range list {
+		if x == s {
+			return true
+		}
+	}
+	return false
 }
