@@ -137,7 +137,7 @@ func (f *finder) iterate(ctx context.Context) (int, float64, error) {
 		f.measure()
 		misfit := f.targetMisfit()
 		if iterative {
-			f.opt.Reporter.Progress("iterating", it, f.opt.MaxIterations, Iteration{Iteration: it, Change: change, Misfit: misfit})
+			f.report(Iteration{Iteration: it, Change: change, Misfit: misfit})
 		}
 		settled := !f.load.follows || change <= f.opt.Tolerance*f.size
 		if !iterative || settled && misfit <= f.opt.Tolerance {
@@ -219,4 +219,14 @@ func boundingDiagonal(m *model.Model) float64 {
 		s += (hi - lo) * (hi - lo)
 	}
 	return math.Sqrt(s)
+}
+
+// report passes one iteration to the Iterations recorder, or its count
+// alone to the Reporter.
+func (f *finder) report(it Iteration) {
+	if f.opt.Iterations != nil {
+		f.opt.Iterations.Record("iterating", it.Iteration, f.opt.MaxIterations, it)
+		return
+	}
+	f.opt.Reporter.Progress("iterating", it.Iteration, f.opt.MaxIterations, nil)
 }

@@ -167,8 +167,8 @@ func TestCatenary(t *testing.T) {
 // recorder keeps the iterations reported.
 type recorder struct{ iterations []Iteration }
 
-func (r *recorder) Progress(stage string, done, total int, partial any) {
-	if it, ok := partial.(Iteration); ok && stage == "iterating" {
+func (r *recorder) Record(stage string, done, total int, it Iteration) {
+	if stage == "iterating" {
 		r.iterations = append(r.iterations, it)
 	}
 }
@@ -182,7 +182,7 @@ func TestProgressAndCancel(t *testing.T) {
 	b.s.LoadCases[0].SelfWeight = true
 	m := b.compile(t)
 	rec := &recorder{}
-	r, err := Find(t.Context(), m, Problem{ForceDensity: one(3)}, Options{Reporter: rec})
+	r, err := Find(t.Context(), m, Problem{ForceDensity: one(3)}, Options{Iterations: rec})
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -76,10 +76,13 @@ type Options struct {
 	Workers int
 	// Reporter receives the sparse factorisation's stages "ordering",
 	// "symbolic" and "factorising" (done and total count supernodes; every
-	// factorisation of an iteration reports again) and, when iterating,
-	// "iterating" after each iteration (done counts iterations, total is
-	// MaxIterations, partial is an Iteration); nil reports nothing.
+	// factorisation of an iteration reports again) and, when iterating and
+	// Iterations is nil, "iterating" after each iteration (done counts
+	// iterations, total is MaxIterations); nil reports nothing.
 	Reporter progress.Reporter
+	// Iterations, when not nil, receives "iterating" after each iteration
+	// with the Iteration itself instead of Reporter.
+	Iterations progress.Recorder[Iteration]
 }
 
 // Iteration is the partial result reported after each iteration.

@@ -62,8 +62,13 @@ func (st *setting) addMembers(ctx context.Context, opt Options, stats *Stats, re
 		if pr.violators == 0 || iteration >= opt.MaxIterations {
 			pr.top = nil // near-violators alone are no reason to go on
 		}
-		rep.Progress("member adding", iteration, 0, Round{Iteration: iteration, Members: len(members), Added: len(pr.top),
-			Volume: res.objective, MaxViolation: pr.worst, Violators: pr.violators})
+		round := Round{Iteration: iteration, Members: len(members), Added: len(pr.top),
+			Volume: res.objective, MaxViolation: pr.worst, Violators: pr.violators}
+		if opt.Rounds != nil {
+			opt.Rounds.Record("member adding", iteration, 0, round)
+		} else {
+			rep.Progress("member adding", iteration, 0, nil)
+		}
 		if pr.violators == 0 || iteration >= opt.MaxIterations {
 			return st.accept(prog, res.x)
 		}

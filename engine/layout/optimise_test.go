@@ -169,17 +169,22 @@ func (r *recorder) Progress(stage string, done, total int, partial any) {
 	r.mu.Lock()
 	defer r.mu.Unlock()
 	r.stages[stage]++
-	if round, ok := partial.(Round); ok {
-		r.rounds = append(r.rounds, round)
-		if r.cancel != nil {
-			r.cancel()
-		}
+}
+
+// Record keeps each member-adding round (Options.Rounds).
+func (r *recorder) Record(stage string, done, total int, round Round) {
+	r.mu.Lock()
+	defer r.mu.Unlock()
+	r.stages[stage]++
+	r.rounds = append(r.rounds, round)
+	if r.cancel != nil {
+		r.cancel()
 	}
 }
 
 func TestProgressAndCancel(t *testing.T) {
 	rec := &recorder{stages: map[string]int{}}
-	l, err := Optimise(context.Background(), threePoint(16), Options{}, rec)
+	l, err := Optimise(context.Background(), threePoint(16), Options{Rounds: rec}, rec)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -192,7 +197,7 @@ func TestProgressAndCancel(t *testing.T) {
 	}
 	ctx, cancel := context.WithCancel(context.Background())
 	rec = &recorder{stages: map[string]int{}, cancel: cancel}
-	_, err = Optimise(ctx, threePoint(16), Options{}, rec)
+	_, err = Optimise(ctx, threePoint(16), Options{Rounds: rec}, rec)
 	if !errors.Is(err, context.Canceled) {
 		t.Errorf("error %v, want cancellation", err)
 	}

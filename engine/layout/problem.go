@@ -1,5 +1,7 @@
 package layout
 
+import "gusset/engine/progress"
+
 // Domain is a plane design domain: the region inside Outline and outside
 // every hole. Outline and each hole are simple polygons given by their
 // vertices in either orientation (the last vertex joins the first). Units are
@@ -173,6 +175,10 @@ type Options struct {
 	// (axes and face diagonals) 14.4 s, 5, 63; 6 32.5 s, 11, 155; on the
 	// 20 × 10 × 10 one 26 neighbours 85 s, 5, 70 against 18 89 s, 7, 104.
 	StartNeighbours int
+	// Rounds, when not nil, receives "member adding" after each round of
+	// member adding with the Round itself; otherwise the Reporter given to
+	// Optimise receives the stage with the round's number alone.
+	Rounds progress.Recorder[Round]
 }
 
 func (o Options) withDefaults(dim int) Options {

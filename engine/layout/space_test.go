@@ -410,7 +410,7 @@ func TestSpaceBadInput(t *testing.T) {
 // context's error when cancelled at the first round.
 func TestSpaceProgressAndCancel(t *testing.T) {
 	rec := &recorder{stages: map[string]int{}}
-	l, err := Optimise(context.Background(), spaceBridge(4), Options{}, rec)
+	l, err := Optimise(context.Background(), spaceBridge(4), Options{Rounds: rec}, rec)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -419,7 +419,7 @@ func TestSpaceProgressAndCancel(t *testing.T) {
 	}
 	ctx, cancel := context.WithCancel(context.Background())
 	rec = &recorder{stages: map[string]int{}, cancel: cancel}
-	if _, err := Optimise(ctx, spaceBridge(8), Options{}, rec); !errors.Is(err, context.Canceled) {
+	if _, err := Optimise(ctx, spaceBridge(8), Options{Rounds: rec}, rec); !errors.Is(err, context.Canceled) {
 		t.Errorf("error %v, want cancellation", err)
 	}
 }

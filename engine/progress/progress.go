@@ -4,9 +4,12 @@ package progress
 
 // Reporter receives progress from long engine work. Stage is a short
 // lower-case phrase ("ordering", "factorising", "step"); done counts from 0
-// to total (total 0 when unknown); partial is an optional intermediate result
-// that must marshal to JSON (nil when there is none). Implementations must be
-// safe for concurrent use: parallel work reports from several goroutines.
+// to total (total 0 when unknown); partial is an intermediate result that
+// must marshal to JSON. Engine packages always pass nil: their intermediate
+// results (a sweep's Step, a layout's Round, a form's Iteration) go through
+// a typed Recorder; partial serves the transport's stream. Implementations
+// must be safe for concurrent use: parallel work reports from several
+// goroutines.
 type Reporter interface {
 	Progress(stage string, done, total int, partial any)
 }

@@ -29,7 +29,7 @@ func (a *Adapter) findForm(ctx context.Context, r *request[protocol.FindFormPara
 		problem.Targets = append(problem.Targets, formfind.Target{Member: t.Member, Length: t.Length, Force: t.Force})
 	}
 	res, err := formfind.Find(ctx, r.Model, problem, formfind.Options{MaxIterations: p.MaxIterations, Tolerance: p.Tolerance,
-		Reporter: formReporter{r.Stream}})
+		Reporter: r.Stream, Iterations: formIterations{r.Stream}})
 	if err != nil {
 		return nil, at("/params", err)
 	}
@@ -84,13 +84,10 @@ func formResult(res *formfind.Result, ready *formfind.Ready) *protocol.FindFormR
 	return out
 }
 
-// formReporter passes the iterations on as partial results to the
+// formIterations passes the iterations on as partial results to the
 // request's stream.
-type formReporter struct{ st progress.Reporter }
+type formIterations struct{ st progress.Reporter }
 
-func (r formReporter) Progress(stage string, done, total int, partial any) {
-	if it, ok := partial.(formfind.Iteration); ok {
-		partial = map[string]any{"iteration": it.Iteration, "change": it.Change, "misfit": it.Misfit}
-	}
-	r.st.Progress(stage, done, total, partial)
+func (r formIterations) Record(stage string, done, total int, it formfind.Iteration) {
+	r.st.Progress(stage, done, total, map[string]any{"iteration": it.Iteration, "change": it.Change, "misfit": it.Misfit})
 }

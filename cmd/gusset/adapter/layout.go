@@ -19,7 +19,7 @@ func (a *Adapter) optimiseLayout(ctx context.Context, r *request[protocol.Layout
 	if err != nil {
 		return nil, err
 	}
-	l, err := layout.Optimise(ctx, prob, layout.Options{MaxCandidates: a.Limits.MaxCandidates}, layoutReporter{st})
+	l, err := layout.Optimise(ctx, prob, layout.Options{MaxCandidates: a.Limits.MaxCandidates, Rounds: layoutRounds{st}}, st)
 	if err != nil {
 		return nil, at("/params", err)
 	}
@@ -194,15 +194,12 @@ func (pc *pointChecker) box(b *protocol.LayoutBox, path string) [][3]float64 {
 	return layout.Box(lo, hi)
 }
 
-// layoutReporter passes the member-adding rounds on as partial results.
-type layoutReporter struct{ st progress.Reporter }
+// layoutRounds passes the member-adding rounds on as partial results.
+type layoutRounds struct{ st progress.Reporter }
 
-func (r layoutReporter) Progress(stage string, done, total int, partial any) {
-	if round, ok := partial.(layout.Round); ok {
-		partial = map[string]any{"iteration": round.Iteration, "members": round.Members, "added": round.Added,
-			"volume": round.Volume, "max_violation": round.MaxViolation, "violators": round.Violators}
-	}
-	r.st.Progress(stage, done, total, partial)
+func (r layoutRounds) Record(stage string, done, total int, round layout.Round) {
+	r.st.Progress(stage, done, total, map[string]any{"iteration": round.Iteration, "members": round.Members, "added": round.Added,
+		"volume": round.Volume, "max_violation": round.MaxViolation, "violators": round.Violators})
 }
 
 // layoutResult converts a layout, building the model a host sends on to
