@@ -126,6 +126,22 @@ func newServer(limits protocol.Limits, log io.Writer) (*jsonrpc.Server, error) {
 
 // parseInterleaved parses flags that may come before or after the
 // positional arguments, and returns the positional ones.
+// parseCommand parses a command's flags and arguments (see
+// parseInterleaved). done is true when the command must end at once with
+// exit: 0 after printing the help asked for, 2 after a usage error (the flag
+// package has already said what was wrong).
+func (f *flags) parseCommand(args []string, stdout io.Writer) (positional []string, exit int, done bool) {
+	positional, err := f.parseInterleaved(args)
+	if errors.Is(err, flag.ErrHelp) {
+		printHelp(stdout)
+		return nil, 0, true
+	}
+	if err != nil {
+		return nil, 2, true
+	}
+	return positional, 0, false
+}
+
 func (f *flags) parseInterleaved(args []string) ([]string, error) {
 	var positional []string
 	for {
@@ -153,13 +169,9 @@ func isHelp(arg string) bool {
 
 func serve(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	f := newFlags(stderr)
-	positional, err := f.parseInterleaved(args)
-	if errors.Is(err, flag.ErrHelp) {
-		printHelp(stdout)
-		return 0
-	}
-	if err != nil {
-		return 2
+	positional, exit, done := f.parseCommand(args, stdout)
+	if done {
+		return exit
 	}
 	if len(positional) > 0 {
 		fmt.Fprintf(stderr, "gusset serve: unexpected argument %q\n", positional[0])

@@ -4,8 +4,6 @@ import (
 	"bytes"
 	"context"
 	"encoding/json"
-	"errors"
-	"flag"
 	"fmt"
 	"io"
 	"os"
@@ -34,13 +32,9 @@ type answered struct {
 // pictures, report and CSV files asked for.
 func runFile(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	f := newFlags(stderr)
-	positional, err := f.parseInterleaved(args)
-	if errors.Is(err, flag.ErrHelp) {
-		printHelp(stdout)
-		return 0
-	}
-	if err != nil {
-		return 2
+	positional, exit, done := f.parseCommand(args, stdout)
+	if done {
+		return exit
 	}
 	if len(positional) != 1 {
 		fmt.Fprintln(stderr, "gusset run: give one FILE of requests (one request per line, or one JSON document), or - for stdin; flags may come before or after it")
