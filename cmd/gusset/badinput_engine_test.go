@@ -114,12 +114,7 @@ func TestSelfWeightWithoutDensityThroughProcess(t *testing.T) {
 		`"members":[{"id":"AC","ends":["A","C"],"material":"timber","section":"post"},{"id":"BC","ends":["B","C"],"material":"timber","section":"post"}],` +
 		`"supports":[{"node":"A","fix":["x","y"]},{"node":"B","fix":["x","y"]}],` +
 		`"load_cases":[{"id":"dead","self_weight":true,"loads":[{"node":"C","force":[0,-10]}]}]}}}`
-	cmd := exec.Command(bin, "run", "-")
-	cmd.Stdin = strings.NewReader(line + "\n")
-	out, err := cmd.Output()
-	if err != nil {
-		t.Fatalf("run: %v", err)
-	}
+	out := runSucceeds(t, bin, line)
 	var resp struct {
 		Result struct {
 			Warnings []string `json:"warnings"`
@@ -145,12 +140,7 @@ func TestBarAcrossLoadThroughProcess(t *testing.T) {
 		`"members":[{"id":"AC","ends":["A","C"],"material":"steel","section":"tube"},{"id":"BC","ends":["B","C"],"material":"steel","section":"tube"}],` +
 		`"supports":[{"node":"A","fix":["x","y"]},{"node":"B","fix":["x","y"]}],` +
 		`"load_cases":[{"id":"wind","member_loads":[{"member":"BC","kind":"uniform","value":[0,-2]}]}]}}}`
-	cmd := exec.Command(bin, "run", "-")
-	cmd.Stdin = strings.NewReader(line + "\n")
-	out, err := cmd.Output()
-	if err != nil {
-		t.Fatalf("run: %v", err)
-	}
+	out := runSucceeds(t, bin, line)
 	var resp struct {
 		Result struct {
 			Unchecked []struct {
@@ -181,12 +171,7 @@ func TestSweepUnusedParameterThroughProcess(t *testing.T) {
 	model["parameters"] = map[string]any{"h": 3, "spare": 1}
 	line := request(1, "sweep-parameter", map[string]any{"model": model,
 		"parameters": []any{map[string]any{"name": "spare", "from": 1, "to": 2, "count": 3}}})
-	cmd := exec.Command(bin, "run", "-")
-	cmd.Stdin = strings.NewReader(string(line) + "\n")
-	out, err := cmd.Output()
-	if err != nil {
-		t.Fatalf("run: %v", err)
-	}
+	out := runSucceeds(t, bin, string(line))
 	var resp struct {
 		Result struct {
 			Total    int `json:"total"`
@@ -278,12 +263,7 @@ func TestSupportLoadDrawnApartThroughProcess(t *testing.T) {
 		`"members":[{"id":"AC","ends":["A","C"],"material":"steel","section":"tube"},{"id":"BC","ends":["B","C"],"material":"steel","section":"tube"},{"id":"AB","ends":["A","B"],"material":"steel","section":"tube"}],` +
 		`"supports":[{"node":"A","fix":["x","y"]},{"node":"B","fix":["y"]}],` +
 		`"load_cases":[{"id":"point","loads":[{"node":"C","force":[0,-10]},{"node":"A","force":[0,-5]}]}]}}}`
-	cmd := exec.Command(bin, "run", "-")
-	cmd.Stdin = strings.NewReader(line + "\n")
-	out, err := cmd.Output()
-	if err != nil {
-		t.Fatalf("run: %v", err)
-	}
+	out := runSucceeds(t, bin, line)
 	var resp struct {
 		Result struct {
 			ExternalForces []struct {
@@ -307,4 +287,17 @@ func TestSupportLoadDrawnApartThroughProcess(t *testing.T) {
 	if total != 4 || atA[10] != 1 || atA[5] != 1 {
 		t.Errorf("external forces %+v: want 4, with a 10 kN reaction and a 5 kN load at A", resp.Result.ExternalForces)
 	}
+}
+
+// runSucceeds answers one request line with `gusset run -` and returns its
+// output, failing the test when the command fails.
+func runSucceeds(t *testing.T, bin, line string) []byte {
+	t.Helper()
+	cmd := exec.Command(bin, "run", "-")
+	cmd.Stdin = strings.NewReader(line + "\n")
+	out, err := cmd.Output()
+	if err != nil {
+		t.Fatalf("run: %v", err)
+	}
+	return out
 }
