@@ -33,29 +33,11 @@ func TestLayoutModelGoesOn(t *testing.T) {
 	if !strings.Contains(lay.Picture, "<svg") {
 		t.Error("no picture")
 	}
-	var solved struct {
-		Cases []struct {
-			AxialForces []float64 `json:"axial_forces"`
-			Residual    float64   `json:"residual"`
-		} `json:"cases"`
-	}
-	final(t, fmt.Sprintf(`{"jsonrpc":"2.0","id":2,"method":"solve","params":{"model":%s}}`, lay.Model), &solved)
+	forces := make([]float64, len(lay.Members))
 	for e, m := range lay.Members {
-		if got := solved.Cases[0].AxialForces[e]; math.Abs(got-m.Forces[0]) > 1e-8 {
-			t.Errorf("member %d: solve gives %v, the layout %v", e, got, m.Forces[0])
-		}
+		forces[e] = m.Forces[0]
 	}
-	var lp struct {
-		Cases []struct {
-			LoadPath         float64 `json:"load_path"`
-			RelativeResidual float64 `json:"relative_residual"`
-		} `json:"cases"`
-	}
-	final(t, fmt.Sprintf(`{"jsonrpc":"2.0","id":3,"method":"load-path","params":{"model":%s}}`, lay.Model), &lp)
-	// With σ_t = σ_c = 1 the volume is the load path.
-	if c := lp.Cases[0]; math.Abs(c.LoadPath-lay.Volume) > 1e-9 || c.RelativeResidual > 1e-12 {
-		t.Errorf("load path %v (residual %v), want the volume %v", c.LoadPath, c.RelativeResidual, lay.Volume)
-	}
+	checkReturnedModel(t, lay.Model, forces, lay.Volume)
 	var rec struct {
 		Closure struct {
 			Max float64 `json:"max"`
@@ -138,27 +120,11 @@ func TestSpaceLayoutGoesOn(t *testing.T) {
 	if math.Abs(lay.Cases[0].MaxwellResidual) > 1e-12*lay.Volume {
 		t.Errorf("Maxwell residual %v", lay.Cases[0].MaxwellResidual)
 	}
-	var solved struct {
-		Cases []struct {
-			AxialForces []float64 `json:"axial_forces"`
-		} `json:"cases"`
-	}
-	final(t, fmt.Sprintf(`{"jsonrpc":"2.0","id":2,"method":"solve","params":{"model":%s}}`, lay.Model), &solved)
+	forces := make([]float64, len(lay.Members))
 	for e, m := range lay.Members {
-		if got := solved.Cases[0].AxialForces[e]; math.Abs(got-m.Forces[0]) > 1e-8 {
-			t.Errorf("member %d: solve gives %v, the layout %v", e, got, m.Forces[0])
-		}
+		forces[e] = m.Forces[0]
 	}
-	var lp struct {
-		Cases []struct {
-			LoadPath         float64 `json:"load_path"`
-			RelativeResidual float64 `json:"relative_residual"`
-		} `json:"cases"`
-	}
-	final(t, fmt.Sprintf(`{"jsonrpc":"2.0","id":3,"method":"load-path","params":{"model":%s}}`, lay.Model), &lp)
-	if c := lp.Cases[0]; math.Abs(c.LoadPath-lay.Volume) > 1e-9 || c.RelativeResidual > 1e-12 {
-		t.Errorf("load path %v (residual %v), want the volume %v", c.LoadPath, c.RelativeResidual, lay.Volume)
-	}
+	checkReturnedModel(t, lay.Model, forces, lay.Volume)
 	// The host makes the load a parameter p and sweeps it: the forces of a
 	// statically admissible truss scale with its load, so the load path is
 	// p times the layout's (common practice: linear statics).
@@ -213,5 +179,35 @@ func TestLayoutRefusals(t *testing.T) {
 				t.Errorf("answer %s lacks %s and %q", text, tc.path, tc.text)
 			}
 		})
+	}
+}
+
+// checkReturnedModel sends a layout's returned model (optimised with unit
+// stress limits) to solve and load-path: solve reproduces the layout's
+// first-case forces, and the load path equals the volume (with σ_t = σ_c = 1
+// the volume Σ|N|·L/σ is the load path Σ|N|·L, Maxwell's residual at
+// round-off).
+func checkReturnedModel(t *testing.T, model json.RawMessage, forces []float64, volume float64) {
+	t.Helper()
+	var solved struct {
+		Cases []struct {
+			AxialForces []float64 `json:"axial_forces"`
+		} `json:"cases"`
+	}
+	final(t, fmt.Sprintf(`{"jsonrpc":"2.0","id":2,"method":"solve","params":{"model":%s}}`, model), &solved)
+	for e, want := range forces {
+		if got := solved.Cases[0].AxialForces[e]; math.Abs(got-want) > 1e-8 {
+			t.Errorf("member %d: solve gives %v, the layout %v", e, got, want)
+		}
+	}
+	var lp struct {
+		Cases []struct {
+			LoadPath         float64 `json:"load_path"`
+			RelativeResidual float64 `json:"relative_residual"`
+		} `json:"cases"`
+	}
+	final(t, fmt.Sprintf(`{"jsonrpc":"2.0","id":3,"method":"load-path","params":{"model":%s}}`, model), &lp)
+	if c := lp.Cases[0]; math.Abs(c.LoadPath-volume) > 1e-9 || c.RelativeResidual > 1e-12 {
+		t.Errorf("load path %v (residual %v), want the volume %v", c.LoadPath, c.RelativeResidual, volume)
 	}
 }
