@@ -54,11 +54,7 @@ func (ld *memberLoading) gather(ls *loadSet, m *model.Model, el *element, e int,
 		ml := wl.load
 		switch ml.Kind {
 		case model.Uniform, model.Linear:
-			q1 := el.localVector(ml.Value, ml.Local)
-			q2 := q1
-			if ml.Kind == model.Linear {
-				q2 = el.localVector(ml.EndValue, ml.Local)
-			}
+			q1, q2 := el.intensities(ml)
 			for c := range 3 {
 				ld.a[c] += wl.factor * q1[c]
 				ld.b[c] += wl.factor * (q2[c] - q1[c]) / L

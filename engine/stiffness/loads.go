@@ -69,17 +69,24 @@ func (el *element) localVector(v [3]float64, local bool) [3]float64 {
 	return out
 }
 
+// intensities returns a uniform or linear load's intensities at the
+// member's first and second ends, in local axes.
+func (el *element) intensities(ml *model.MemberLoad) (q1, q2 [3]float64) {
+	q1 = el.localVector(ml.Value, ml.Local)
+	q2 = q1
+	if ml.Kind == model.Linear {
+		q2 = el.localVector(ml.EndValue, ml.Local)
+	}
+	return q1, q2
+}
+
 // addMemberLoad adds to f (local, el.size entries) the equivalent nodal
 // loads of ml times factor. The load is valid (checked by validate).
 func (el *element) addMemberLoad(f []float64, ml *model.MemberLoad, factor float64) {
 	L := el.length
 	switch ml.Kind {
 	case model.Uniform, model.Linear:
-		q1 := el.localVector(ml.Value, ml.Local)
-		q2 := q1
-		if ml.Kind == model.Linear {
-			q2 = el.localVector(ml.EndValue, ml.Local)
-		}
+		q1, q2 := el.intensities(ml)
 		for _, g := range gauss3 {
 			xi := g[0]
 			var q [3]float64
