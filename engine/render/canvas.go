@@ -20,9 +20,10 @@ type Options struct {
 	Width float64
 	// Title heads the caption; "" means a title naming the diagrams.
 	Title string
-	// ForceLabels writes each member's axial force beside it in the form
-	// diagram; it is ignored above 80 members, where the numbers would
-	// crowd the drawing.
+	// ForceLabels writes members' axial forces beside them in the form
+	// diagram (the first view of a 3D picture): every member's up to 40
+	// members; above that, largest first, only those that fit clear of
+	// the drawing, and the caption says how many of how many.
 	ForceLabels bool
 }
 

@@ -70,8 +70,10 @@ func (s *formScene) arrowEnds(a arrow) (tail, head [2]float64) {
 	return p, far
 }
 
-// draw draws the scene into frame f.
-func (s *formScene) draw(c *canvas, f frame, forceLabels bool) {
+// draw draws the scene into frame f and, when forceLabels is set, the
+// members' axial forces where they fit; it returns how many members have
+// their force written (all of them when none was asked for).
+func (s *formScene) draw(c *canvas, f frame, forceLabels bool) int {
 	m := s.m
 	maxT := 0.0
 	for _, t := range s.axial {
@@ -106,18 +108,13 @@ func (s *formScene) draw(c *canvas, f frame, forceLabels bool) {
 	for _, t := range arrowTags {
 		c.label(t.x, t.y, t.text, "small label", "middle", stepsVertical)
 	}
-	if forceLabels && len(m.Members) <= 80 {
-		for e, mb := range m.Members {
-			p, q := node(m, mb.Ends[0]), node(m, mb.Ends[1])
-			x1, y1, x2, y2 := f.x(p[0]), f.y(p[1]), f.x(q[0]), f.y(q[1])
-			l := math.Hypot(x2-x1, y2-y1)
-			nx, ny := -(y2-y1)/l, (x2-x1)/l
-			if ny > 0 { // keep the number above or left of the member
-				nx, ny = -nx, -ny
-			}
-			c.label((x1+x2)/2+9*nx, (y1+y2)/2+9*ny+4, fmt.Sprintf("%.3g", s.axial[e]), "small label", "middle", stepsVertical)
-		}
+	if !forceLabels {
+		return len(m.Members)
 	}
+	return c.labelMemberForces(f, s.axial, func(e int) (x1, y1, x2, y2 float64) {
+		p, q := node(m, m.Members[e].Ends[0]), node(m, m.Members[e].Ends[1])
+		return f.x(p[0]), f.y(p[1]), f.x(q[0]), f.y(q[1])
+	})
 }
 
 // arrowTag is an external force's magnitude, to be written near (x, y).
@@ -189,14 +186,18 @@ func Form(w io.Writer, m *model.Model, axial []float64, opt Options) error {
 	c.text(20, 26, "Form diagram: axial forces", "title", "start")
 	f := fit(20, 36, pw, ph, 42, s.content.minX, s.content.minY, s.content.maxX, s.content.maxY)
 	c.printf(`<rect x="%s" y="%s" width="%s" height="%s" class="frame"/>`+"\n", num(20), num(36), num(pw), num(ph))
-	s.draw(c, f, opt.ForceLabels)
+	written := s.draw(c, f, opt.ForceLabels)
 	c.scaleBar(f, unitOr(m.Units.Length, "m"))
 	y := c.legendCompact(20, 36+ph+24, unitOr(m.Units.Force, "kN"), unitOr(m.Units.Length, "m"))
 	title := opt.Title
 	if title == "" {
 		title = "Axial forces"
 	}
-	c.caption(20, y+10, title, fmt.Sprintf("Largest axial force %.4g %s.", maxT, unitOr(m.Units.Force, "kN")))
+	notes := []string{fmt.Sprintf("Largest axial force %.4g %s.", maxT, unitOr(m.Units.Force, "kN"))}
+	if note := memberLabelNote(written, len(m.Members), unitOr(m.Units.Force, "kN")); note != "" {
+		notes = append(notes, note)
+	}
+	c.caption(20, y+10, title, notes...)
 	return c.close()
 }
 

@@ -77,9 +77,64 @@ func labelBox(x, y float64, s, class, anchor string) rect {
 // ends up more than a line's height from its point gets a thin leader
 // line back to it.
 func (c *canvas) label(x, y float64, s, class, anchor string, steps [][2]float64) {
+	candidates := labelCandidates(x, y, s, class, anchor, steps)
+	best, fallback := c.clearCandidate(candidates, s, class, anchor)
+	at := [2]float64{x, y}
+	switch {
+	case best >= 0:
+		at = candidates[best]
+	case fallback >= 0:
+		at = candidates[fallback]
+	}
+	c.placeLabel(x, y, at, s, class, anchor)
+}
+
+// placement says where labelIfClear may put a text: the steps to try
+// (as label's), whether to try label's rings further out too, whether
+// the text may lie over a drawn line (on its white halo), and, when
+// bounded, the box it must stay inside.
+type placement struct {
+	steps     [][2]float64
+	rings     bool
+	overLines bool
+	bounded   bool
+	within    rect
+}
+
+// labelIfClear writes a text like label, but only at a position p allows
+// whose box overlaps no label and no arrowhead; it reports whether it
+// found one (and wrote the text).
+func (c *canvas) labelIfClear(x, y float64, s, class, anchor string, p placement) bool {
+	candidates := labelCandidates(x, y, s, class, anchor, p.steps)
+	if !p.rings {
+		candidates = candidates[:len(p.steps)]
+	}
+	if p.bounded {
+		kept := candidates[:0]
+		for _, q := range candidates {
+			if b := labelBox(q[0], q[1], s, class, anchor); b.x0 >= p.within.x0 && b.x1 <= p.within.x1 && b.y0 >= p.within.y0 && b.y1 <= p.within.y1 {
+				kept = append(kept, q)
+			}
+		}
+		candidates = kept
+	}
+	best, fallback := c.clearCandidate(candidates, s, class, anchor)
+	if best < 0 && p.overLines {
+		best = fallback
+	}
+	if best < 0 {
+		return false
+	}
+	c.placeLabel(x, y, candidates[best], s, class, anchor)
+	return true
+}
+
+// labelCandidates lists the positions label tries for a text at (x, y):
+// the steps first, then three rings of 16 further out.
+func labelCandidates(x, y float64, s, class, anchor string, steps [][2]float64) [][2]float64 {
 	b0 := labelBox(x, y, s, class, anchor)
 	w, h := b0.x1-b0.x0, b0.y1-b0.y0
-	var candidates [][2]float64
+	candidates := make([][2]float64, 0, len(steps)+48)
 	for _, st := range steps {
 		candidates = append(candidates, [2]float64{x + st[0]*(w+2), y + st[1]*(h+2)})
 	}
@@ -89,7 +144,14 @@ func (c *canvas) label(x, y float64, s, class, anchor string, steps [][2]float64
 			candidates = append(candidates, [2]float64{x + r*math.Cos(a)*(w/2+h), y + r*math.Sin(a)*h*1.3})
 		}
 	}
-	best, fallback := -1, -1
+	return candidates
+}
+
+// clearCandidate returns the first candidate clear of labels, arrowheads
+// and segments (best) and the first clear of labels and arrowheads only
+// (fallback), each -1 when there is none.
+func (c *canvas) clearCandidate(candidates [][2]float64, s, class, anchor string) (best, fallback int) {
+	best, fallback = -1, -1
 	for i, p := range candidates {
 		b := labelBox(p[0], p[1], s, class, anchor)
 		if c.collides(b, c.placed) || c.collides(b, c.heads) {
@@ -99,17 +161,18 @@ func (c *canvas) label(x, y float64, s, class, anchor string, steps [][2]float64
 			fallback = i
 		}
 		if !c.crossesSegment(b) {
-			best = i
-			break
+			return i, fallback
 		}
 	}
-	at := [2]float64{x, y}
-	switch {
-	case best >= 0:
-		at = candidates[best]
-	case fallback >= 0:
-		at = candidates[fallback]
-	}
+	return best, fallback
+}
+
+// placeLabel writes a text chosen for the point (x, y) at at, with a
+// leader line back to the point when it stands more than a line's height
+// away, and remembers its box.
+func (c *canvas) placeLabel(x, y float64, at [2]float64, s, class, anchor string) {
+	b0 := labelBox(x, y, s, class, anchor)
+	h := b0.y1 - b0.y0
 	b := labelBox(at[0], at[1], s, class, anchor)
 	if d := math.Hypot(at[0]-x, at[1]-y); d > 1.5*h {
 		// Leader from the label's nearest edge point to its anchor point's

@@ -61,7 +61,7 @@ func FormAndForce(w io.Writer, m *model.Model, d *reciprocal.Diagram, opt Option
 		c.printf(`<rect x="%s" y="%s" width="%s" height="%s" class="frame"/>`+"\n", num(x), num(top), num(pw), num(ph))
 	}
 	ff := fit(20, top, pw, ph, 42, form.content.minX, form.content.minY, form.content.maxX, form.content.maxY)
-	form.draw(c, ff, opt.ForceLabels)
+	written := form.draw(c, ff, opt.ForceLabels)
 	c.scaleBar(ff, unitOr(m.Units.Length, "m"))
 
 	fd := fit(20+pw+gap, top, pw, ph, 42, force.minX, force.minY, force.maxX, force.maxY)
@@ -80,6 +80,9 @@ func FormAndForce(w io.Writer, m *model.Model, d *reciprocal.Diagram, opt Option
 	notes := []string{
 		fmt.Sprintf("Each force-diagram segment is %s its member, its length the axial force. Sense read clockwise round each joint, from the space before to the space after.", orient),
 		fmt.Sprintf("Largest closure error at a node %.3g %s; largest segment misfit %.3g %s.", d.MaxClosure, unitOr(m.Units.Force, "kN"), d.MaxMisfit, unitOr(m.Units.Force, "kN")),
+	}
+	if note := memberLabelNote(written, len(m.Members), unitOr(m.Units.Force, "kN")); note != "" {
+		notes = append(notes, note)
 	}
 	if len(d.Disagreements) > 0 {
 		notes = append(notes, fmt.Sprintf("Warning: %d members read from the diagram disagree with the given sign.", len(d.Disagreements)))

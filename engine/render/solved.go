@@ -110,12 +110,19 @@ func Solved(w io.Writer, m *model.Model, disp [][]float64, axial []float64, opt 
 	top := 40.0
 	c := newCanvas(w, width, top+ph+170)
 	tol := 1e-9 * maxT
+	written := len(m.Members)
 	for k, vw := range vs {
 		left := 20 + float64(k)*(pw+20)
 		c.text(left, 26, vw.title, "title", "start")
 		c.printf(`<rect x="%s" y="%s" width="%s" height="%s" class="frame"/>`+"\n", num(left), num(top), num(pw), num(ph))
 		f := fit(left, top, pw, ph, 42, boxes[k].minX, boxes[k].minY, boxes[k].maxX, boxes[k].maxY)
-		drawSolvedView(c, f, m, vw, at, moved, axial, maxT, tol, opt.ForceLabels && len(vs) == 1)
+		drawSolvedView(c, f, m, vw, at, moved, axial, maxT, tol)
+		if opt.ForceLabels && k == 0 {
+			written = c.labelMemberForces(f, axial, func(e int) (x1, y1, x2, y2 float64) {
+				p, q := vw.project(moved(m.Members[e].Ends[0])), vw.project(moved(m.Members[e].Ends[1]))
+				return f.x(p[0]), f.y(p[1]), f.x(q[0]), f.y(q[1])
+			})
+		}
 		c.scaleBar(f, unitOr(m.Units.Length, "m"))
 	}
 	y := c.legendCompact(20, top+ph+24, unitOr(m.Units.Force, "kN"), unitOr(m.Units.Length, "m"))
@@ -123,9 +130,14 @@ func Solved(w io.Writer, m *model.Model, disp [][]float64, axial []float64, opt 
 	if title == "" {
 		title = "Deflected shape and axial forces"
 	}
-	c.caption(20, y+10, title,
+	notes := []string{
 		fmt.Sprintf("Undeformed shape dotted grey beneath; displacements drawn ×%s.", fmt.Sprint(magnify)),
-		fmt.Sprintf("Largest displacement %.4g %s; largest axial force %.4g %s.", maxU, unitOr(m.Units.Length, "m"), maxT, unitOr(m.Units.Force, "kN")))
+		fmt.Sprintf("Largest displacement %.4g %s; largest axial force %.4g %s.", maxU, unitOr(m.Units.Length, "m"), maxT, unitOr(m.Units.Force, "kN")),
+	}
+	if note := memberLabelNote(written, len(m.Members), unitOr(m.Units.Force, "kN")); note != "" {
+		notes = append(notes, note)
+	}
+	c.caption(20, y+10, title, notes...)
 	return c.close()
 }
 
@@ -138,7 +150,7 @@ func dotSlice(a, b []float64) float64 {
 }
 
 // drawSolvedView draws one panel: undeformed, deflected, supports, nodes.
-func drawSolvedView(c *canvas, f frame, m *model.Model, vw view, at, moved func(int) [3]float64, axial []float64, maxT, tol float64, labels bool) {
+func drawSolvedView(c *canvas, f frame, m *model.Model, vw view, at, moved func(int) [3]float64, axial []float64, maxT, tol float64) {
 	pt := func(p [3]float64) (float64, float64) {
 		q := vw.project(p)
 		return f.x(q[0]), f.y(q[1])
@@ -161,18 +173,5 @@ func drawSolvedView(c *canvas, f frame, m *model.Model, vw view, at, moved func(
 	for v := range len(m.Coords) / m.Dim {
 		x, y := pt(moved(v))
 		c.circle(x, y, 2.4, InkColour)
-	}
-	if !labels || len(m.Members) > 40 {
-		return
-	}
-	for e, mb := range m.Members {
-		x1, y1 := pt(moved(mb.Ends[0]))
-		x2, y2 := pt(moved(mb.Ends[1]))
-		l := math.Max(math.Hypot(x2-x1, y2-y1), 1e-9)
-		nx, ny := -(y2-y1)/l, (x2-x1)/l
-		if ny > 0 {
-			nx, ny = -nx, -ny
-		}
-		c.label((x1+x2)/2+9*nx, (y1+y2)/2+9*ny+4, fmt.Sprintf("%.3g", axial[e]), "small label", "middle", stepsVertical)
 	}
 }

@@ -170,6 +170,6 @@ func solvePicture(m *model.Model, res *stiffness.Result) (string, error) {
 		return svg.String(), err
 	}
 	title := "Deflected shape and axial forces: " + c.ID
-	err := render.Solved(&svg, m, c.Displacements, c.AxialForce, render.Options{Title: title, ForceLabels: len(m.Members) <= 12})
+	err := render.Solved(&svg, m, c.Displacements, c.AxialForce, render.Options{Title: title, ForceLabels: true})
 	return svg.String(), err
 }

@@ -50,7 +50,7 @@ func (a *Adapter) reciprocate(ctx context.Context, r *request[protocol.Reciproca
 	}
 	if p.Picture {
 		var svg bytes.Buffer
-		if err := render.FormAndForce(&svg, m, d, render.Options{Title: "Form and force diagrams: " + label, ForceLabels: len(m.Members) <= 12}); err != nil {
+		if err := render.FormAndForce(&svg, m, d, render.Options{Title: "Form and force diagrams: " + label, ForceLabels: true}); err != nil {
 			return nil, err
 		}
 		out.Picture = svg.String()
