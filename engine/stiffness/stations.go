@@ -65,6 +65,10 @@ type MemberResult struct {
 	// member (its value is ≥ 0), found exactly (zeros of the derivative of
 	// the squared magnitude).
 	PeakDisplacement Extreme
+	// Ranges holds the largest and smallest value of each internal force
+	// along the member (indexed by RangeAxial … RangeMomentZ), found
+	// exactly like the peaks; a bar has its axial force only.
+	Ranges [RangeCount]Range
 
 	// AxialUtilisation, BendingUtilisation and CombinedUtilisation are the
 	// member's checks (see Result.Unchecked and CaseResult.Utilisation);
@@ -191,6 +195,7 @@ func alongBeam(r *MemberResult, el *element, sec *model.Section, mat *model.Mate
 // quantity's polynomial for its exact extremes.
 func beamExtremes(r *MemberResult, f *field) {
 	var maxN, minN, mz, my, vy, vz, disp peak
+	var rs rangeScan
 	r.AxialEnergy, r.BendingEnergy = 0, 0
 	for {
 		end := f.stretchEnd()
@@ -202,18 +207,19 @@ func beamExtremes(r *MemberResult, f *field) {
 		var momY, momZ [4]float64
 		var defY, defZ [6]float64
 		f.y.polynomials(f.x0, &momZ, &defY)
-		scan(momZ[:], f.x0, h, mz.magnitude)
+		scan(momZ[:], f.x0, h, func(v, x float64) { mz.magnitude(v, x); rs.see(RangeMomentZ, v, x) })
 		scan(defY[:], f.x0, h, vy.magnitude)
 		var square [maxDegree + 1]float64
 		addSquare(&square, stretch[:])
 		addSquare(&square, defY[:])
 		if f.dim3 {
 			f.z.polynomials(f.x0, &momY, &defZ)
-			scan(momY[:], f.x0, h, func(v, x float64) { my.magnitude(-v, x) })
+			scan(momY[:], f.x0, h, func(v, x float64) { my.magnitude(-v, x); rs.see(RangeMomentY, -v, x) })
 			scan(defZ[:], f.x0, h, vz.magnitude)
 			addSquare(&square, defZ[:])
 		}
 		scan(square[:], f.x0, h, disp.largest)
+		rs.stretch(f, h)
 		r.AxialEnergy += integralOfSquare(force[:], h) / (2 * f.ea)
 		r.BendingEnergy += integralOfSquare(momZ[:], h) / (2 * f.y.ei)
 		if f.dim3 {
@@ -225,6 +231,8 @@ func beamExtremes(r *MemberResult, f *field) {
 		f.moveTo(end, true)
 	}
 	r.MaxAxial, r.MinAxial = maxN.Extreme, minN.Extreme
+	r.Ranges = rs.ranges()
+	r.Ranges[RangeAxial] = Range{Max: r.MaxAxial, Min: r.MinAxial}
 	r.PeakMomentZ, r.PeakDeflectionY = mz.Extreme, vy.Extreme
 	r.PeakMomentY, r.PeakDeflectionZ = my.Extreme, vz.Extreme
 	r.PeakDisplacement = Extreme{Value: math.Sqrt(max(0, disp.Value)), At: disp.At}
@@ -252,6 +260,7 @@ func alongBar(r *MemberResult, el *element, p []float64, d1, d2 []float64) {
 	} else if n2 < n1 {
 		r.MinAxial = Extreme{Value: n2, At: el.length}
 	}
+	r.Ranges[RangeAxial] = Range{Max: r.MaxAxial, Min: r.MinAxial}
 	// N is linear between the ends: ∫N² = L(N₁² + N₁N₂ + N₂²)/3.
 	r.AxialEnergy = el.length * (n1*n1 + n1*n2 + n2*n2) / (6 * el.ea)
 	a, b := norm(d1), norm(d2)
