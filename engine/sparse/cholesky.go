@@ -120,11 +120,14 @@ type Cholesky struct {
 const nestedMinSize = 4000
 
 // chooseOrder returns the minimum-degree order of a or, on large matrices,
-// the nested-dissection order when it needs fewer flops, with the
-// elimination tree and column counts of the order returned: minimum degree
-// is hard to beat on thin and plane structures but falls well behind nested
-// dissection on solid 3D ones. With two workers or more the candidates are
-// computed side by side; the choice does not depend on the workers.
+// the nested-dissection order when it predicts less fill (fewer nonzeros in
+// L, from the column counts; fewer flops on a tie), with the elimination
+// tree and column counts of the order returned: minimum degree is hard to
+// beat on thin structures but falls behind nested dissection on large
+// plane grids and well behind on solid 3D ones. The prediction is exact
+// and cheap (the column counts take O(nnz(A)·α) time, a fraction of either
+// ordering's). With two workers or more the candidates are computed side by
+// side; the choice does not depend on the workers.
 func chooseOrder(a *Matrix, workers int) (perm, parent, count []int) {
 	if a.N < nestedMinSize {
 		perm = Order(a)
@@ -139,23 +142,37 @@ func chooseOrder(a *Matrix, workers int) (perm, parent, count []int) {
 			nested = newCandidate(a, OrderNested(a))
 		}
 	})
-	if nested.flops < amd.flops {
+	if nested.better(amd) {
 		return nested.perm, nested.parent, nested.count
 	}
 	return amd.perm, amd.parent, amd.count
 }
 
 // candidate is a fill-reducing order with its elimination tree, column
-// counts and flops, kept so that the analysis of the winner does not count
-// again.
+// counts, nonzeros in L and flops, kept so that the analysis of the winner
+// does not count again.
 type candidate struct {
 	perm, parent, count []int
+	nonzeros            int
 	flops               float64
 }
 
 func newCandidate(a *Matrix, perm []int) candidate {
 	parent, count := countsFor(a, perm)
-	return candidate{perm: perm, parent: parent, count: count, flops: countFlops(count)}
+	nnz := 0
+	for _, c := range count {
+		nnz += c
+	}
+	return candidate{perm: perm, parent: parent, count: count, nonzeros: nnz, flops: countFlops(count)}
+}
+
+// better reports whether c predicts less fill than o: fewer nonzeros in L,
+// or as many and fewer flops.
+func (c candidate) better(o candidate) bool {
+	if c.nonzeros != o.nonzeros {
+		return c.nonzeros < o.nonzeros
+	}
+	return c.flops < o.flops
 }
 
 // countsFor returns the elimination tree and column counts of P·A·Pᵀ for

@@ -79,3 +79,40 @@ func BenchmarkOrder(b *testing.B) {
 		})
 	}
 }
+
+// BenchmarkChooseOrder times the orderings Factorize chooses between, each
+// alone and the choice (both side by side on two workers, with their
+// column counts), on a plane grid truss of about 100k freedoms and a
+// double-layer space grid of about 40k, reporting nnz(L) of each.
+func BenchmarkChooseOrder(b *testing.B) {
+	for _, tc := range []struct {
+		name string
+		make func() *Matrix
+	}{
+		{"grid2d/n=100k", func() *Matrix { return gridTruss2D(224, 224, 1) }},
+		{"spacegrid/n=40k", func() *Matrix { return doubleLayerGrid(82, 1) }},
+	} {
+		a := tc.make()
+		for _, o := range []struct {
+			name  string
+			order func() []int
+		}{
+			{"minimum-degree", func() []int { return Order(a) }},
+			{"nested", func() []int { return OrderNested(a) }},
+			{"chosen", func() []int { perm, _, _ := chooseOrder(a, 2); return perm }},
+		} {
+			b.Run(tc.name+"/"+o.name, func(b *testing.B) {
+				var perm []int
+				for range b.N {
+					perm = o.order()
+				}
+				_, count := countsFor(a, perm)
+				nnz := 0
+				for _, c := range count {
+					nnz += c
+				}
+				b.ReportMetric(float64(nnz), "nnzL")
+			})
+		}
+	}
+}

@@ -16,8 +16,9 @@
 //     absorption), approximate external degrees, mass elimination and
 //     supervariable detection by hashing (Order); on large matrices also
 //     nested dissection by level-structure separators (OrderNested, after
-//     A. George and J. W. H. Liu, SIAM J. Numer. Anal. 15(5), 1978), keeping
-//     whichever order needs fewer flops;
+//     A. George and J. W. H. Liu, SIAM J. Numer. Anal. 15(5), 1978) whose
+//     pieces and separators are numbered by constrained minimum degree,
+//     keeping whichever order predicts fewer nonzeros in L;
 //   - symbolic: the elimination tree (J. W. H. Liu, "The role of elimination
 //     trees in sparse factorization", SIAM J. Matrix Anal. Appl. 11(1), 1990),
 //     its postorder, column counts by the skeleton-matrix method of

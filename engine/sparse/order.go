@@ -98,6 +98,11 @@ type quotientGraph struct {
 	total       int   // original variables
 	dense       []int // variables set aside as dense, numbered last
 	denseWeight int   // original variables among them
+
+	// Constraint sets (constrained.go); set is nil when unconstrained.
+	set            []int // set of each variable: all of set s are eliminated before any of set s+1
+	current        int   // the set whose variables the degree buckets hold
+	setPtr, setMem []int // the variables of set s are setMem[setPtr[s]:setPtr[s+1]]
 }
 
 // newQuotientGraph starts minimum-degree elimination on the graph of n
@@ -212,10 +217,7 @@ func (g *quotientGraph) eliminate() []int {
 	n := g.n - len(g.dense)
 	perm := make([]int, 0, g.n) // principal variables of the graph, not original ones
 	for len(perm) < n {
-		for g.head[g.minDegree] < 0 {
-			g.minDegree++
-		}
-		p := g.head[g.minDegree]
+		p := g.nextPivot()
 		g.remove(p)
 		g.stage++
 		g.buildPivotElement(p)
@@ -259,7 +261,9 @@ func (g *quotientGraph) buildPivotElement(p int) {
 	g.elems[p] = nil
 	g.eliminated += g.weight[p]
 	for _, i := range lp {
-		g.remove(i)
+		if g.listed(i) {
+			g.remove(i)
+		}
 	}
 	g.lp = lp
 }
@@ -318,7 +322,7 @@ func (g *quotientGraph) updateVariables(p int) {
 			vkeep = append(vkeep, j)
 		}
 		g.vars[i] = vkeep
-		if len(keep) == 0 && len(vkeep) == 0 {
+		if len(keep) == 0 && len(vkeep) == 0 && g.sameSet(i, p) {
 			// i's neighbourhood is exactly Lp: number it with p.
 			g.eliminated += g.weight[i]
 			g.link[g.last[p]] = g.first[i]
@@ -366,7 +370,7 @@ func (g *quotientGraph) detectSupervariables() {
 				g.cmpMark[j] = stamp
 			}
 			for t := g.hashNext[s]; t >= 0; t = g.hashNext[t] {
-				if g.weight[t] == 0 || len(g.elems[t]) != len(g.elems[s]) || len(g.vars[t]) != len(g.vars[s]) {
+				if g.weight[t] == 0 || len(g.elems[t]) != len(g.elems[s]) || len(g.vars[t]) != len(g.vars[s]) || !g.sameSet(s, t) {
 					continue
 				}
 				same := true
@@ -409,7 +413,9 @@ func (g *quotientGraph) finishStage(p int) {
 		others := lpSize - wi
 		d := min(g.degree[i]+others, g.bound[i]+others, remaining-wi)
 		g.degree[i] = max(d, 0)
-		g.insert(i)
+		if g.listed(i) {
+			g.insert(i)
+		}
 	}
 	g.vars[p] = append([]int(nil), kept...)
 	g.elemSz[p] = lpSize
