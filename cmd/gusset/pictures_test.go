@@ -27,6 +27,13 @@ func TestPicturesHaveNoLabelCollisions(t *testing.T) {
 	for _, name := range []string{"two-bar.in.jsonl", "triangle-reciprocal.in.jsonl", "layout-two-bar.in.jsonl"} {
 		in.WriteString(readTranscript(t, name) + "\n")
 	}
+	// A space frame (a column and a beam at right angles, loaded at the
+	// beam's tip across both), for the 3D moment picture.
+	in.WriteString(`{"jsonrpc":"2.0","id":"space-frame","method":"solve","params":{"picture":true,"model":{"dimension":3,` +
+		`"materials":[{"id":"steel","elastic_modulus":2.1e8}],"sections":[{"id":"s","area":0.01,"second_moment":1e-4,"second_moment_y":5e-5,"torsion_constant":2e-5}],` +
+		`"nodes":[{"id":"base","at":[0,0,0]},{"id":"knee","at":[0,0,3]},{"id":"tip","at":[4,0,3]}],` +
+		`"members":[{"id":"column","ends":["base","knee"],"material":"steel","section":"s","type":"beam"},{"id":"arm","ends":["knee","tip"],"material":"steel","section":"s","type":"beam"}],` +
+		`"supports":[{"node":"base","fix":["x","y","z","rx","ry","rz"]}],"load_cases":[{"id":"tip","loads":[{"node":"tip","force":[0,2,-10]}]}]}}}` + "\n")
 	runCapture([]string{"run", "-", "--pictures", pictures}, in.String())
 	files, _ := filepath.Glob(filepath.Join(dir, "*.svg"))
 	more, _ := filepath.Glob(filepath.Join(pictures, "*.svg"))
@@ -49,6 +56,13 @@ func TestPicturesHaveNoLabelCollisions(t *testing.T) {
 	}
 	for i, svg := range regexp.MustCompile(`(?s)<svg.*?</svg>`).FindAll(report, -1) {
 		docs["report.html#"+string(rune('a'+i))] = svg
+	}
+	spaceMoments := false
+	for _, doc := range docs {
+		spaceMoments = spaceMoments || strings.Contains(string(doc), "My about local y")
+	}
+	if !spaceMoments {
+		t.Error("the space frame's picture has no moment diagrams")
 	}
 	for name, doc := range docs {
 		rep, err := render.CheckLabels(doc)

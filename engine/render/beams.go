@@ -29,6 +29,12 @@ type BeamCurve struct {
 	// the first end; PeakDisplacement the largest translation magnitude and
 	// its distance.
 	PeakMoment, PeakDisplacement [2]float64
+	// MomentY and PeakMomentY are the moment about local y (My, positive
+	// when the member's local +z side is in tension) at each station and
+	// its peak, for Beams3D; Moment and PeakMoment are then Mz, and
+	// Displacements have three entries.
+	MomentY     []float64
+	PeakMomentY [2]float64
 }
 
 // beamLabels is the most members whose peak moment is labelled.

@@ -146,27 +146,33 @@ func loadPathCaveats(m *model.Model, r *stiffness.Result) []string {
 	return out
 }
 
-// solvePicture draws the first reported case: for a 2D model with beams,
-// the bending-moment diagram and the deflected shape along the members
-// (render.Beams, from the stations); otherwise, or without stations, the
+// solvePicture draws the first reported case: for a model with beams,
+// the bending-moment diagrams and the deflected shape along the members
+// (render.Beams in 2D, render.Beams3D in 3D, from the stations);
+// otherwise, or without stations, the
 // deflected shape with the members styled by their axial force
 // (render.Solved).
 func solvePicture(m *model.Model, res *stiffness.Result) (string, error) {
 	c := &res.Cases[0]
 	var svg bytes.Buffer
 	var curves []render.BeamCurve
-	if m.Dim == 2 {
-		for e := range c.Members {
-			r := &c.Members[e]
-			if len(r.Stations) == 0 {
-				continue
-			}
-			curves = append(curves, render.BeamCurve{Member: e, Stations: r.Stations, Moment: r.MomentZ, Displacements: r.Displacements,
-				PeakMoment: [2]float64{r.PeakMomentZ.Value, r.PeakMomentZ.At}, PeakDisplacement: [2]float64{r.PeakDisplacement.Value, r.PeakDisplacement.At}})
+	for e := range c.Members {
+		r := &c.Members[e]
+		if len(r.Stations) == 0 {
+			continue
 		}
+		curves = append(curves, render.BeamCurve{Member: e, Stations: r.Stations, Moment: r.MomentZ, Displacements: r.Displacements,
+			PeakMoment: [2]float64{r.PeakMomentZ.Value, r.PeakMomentZ.At}, PeakDisplacement: [2]float64{r.PeakDisplacement.Value, r.PeakDisplacement.At},
+			MomentY: r.MomentY, PeakMomentY: [2]float64{r.PeakMomentY.Value, r.PeakMomentY.At}})
 	}
 	if len(curves) > 0 {
-		err := render.Beams(&svg, m, c.Displacements, curves, render.Options{Title: "Moments and deflections along the members: " + c.ID})
+		opt := render.Options{Title: "Moments and deflections along the members: " + c.ID}
+		var err error
+		if m.Dim == 3 {
+			err = render.Beams3D(&svg, m, c.Displacements, curves, opt)
+		} else {
+			err = render.Beams(&svg, m, c.Displacements, curves, opt)
+		}
 		return svg.String(), err
 	}
 	title := "Deflected shape and axial forces: " + c.ID
