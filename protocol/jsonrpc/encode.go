@@ -33,8 +33,18 @@ func marshalResponse(r *protocol.Response) []byte {
 }
 
 // encode marshals v without HTML escaping, so that ids and strings go out
-// byte for byte as the host sent them ("&" stays "&", not "\u0026").
+// byte for byte as the host sent them ("&" stays "&", not "\u0026"): by
+// appendJSON (fastencode.go) when it handles v, else by encoding/json,
+// whose bytes appendJSON's are.
 func encode(v any) ([]byte, error) {
+	if b, err := appendJSON(make([]byte, 0, 4096), v); err == nil {
+		return b, nil
+	}
+	return encodeStandard(v)
+}
+
+// encodeStandard is encode by encoding/json alone.
+func encodeStandard(v any) ([]byte, error) {
 	var buf bytes.Buffer
 	enc := json.NewEncoder(&buf)
 	enc.SetEscapeHTML(false)
