@@ -150,23 +150,41 @@ func runWhole(bin, requestPath string) (whole, error) {
 	if ru, ok := cmd.ProcessState.SysUsage().(*syscall.Rusage); ok {
 		w.peakKiB = ru.Maxrss
 	}
-	if !bytes.Contains(counter.head, []byte(`"result"`)) {
-		return w, fmt.Errorf("gusset answered without a result: %.300s", counter.head)
+	// Progress notifications come first; the final response is the last
+	// line.
+	if !bytes.Contains(counter.lastHead, []byte(`"result":`)) {
+		return w, fmt.Errorf("gusset answered without a result: %.300s", counter.lastHead)
 	}
 	return w, nil
 }
 
+// countingWriter counts the bytes written and keeps the first 4 KiB of
+// the last line begun (the final response, once the output ends).
 type countingWriter struct {
-	n    int64
-	head []byte
+	n        int64
+	lastHead []byte
+	inLine   bool // a line has begun and not ended
+	head     []byte
 }
 
 func (c *countingWriter) Write(p []byte) (int, error) {
-	if len(c.head) < 4096 {
-		c.head = append(c.head, p[:min(len(p), 4096-len(c.head))]...)
+	const keep = 4096
+	n := len(p)
+	c.n += int64(n)
+	for len(p) > 0 {
+		if !c.inLine {
+			c.head, c.inLine = c.head[:0], true
+		}
+		line, rest, ended := bytes.Cut(p, []byte("\n"))
+		if len(c.head) < keep {
+			c.head = append(c.head, line[:min(len(line), keep-len(c.head))]...)
+		}
+		if ended {
+			c.lastHead, c.inLine = append(c.lastHead[:0], c.head...), false
+		}
+		p = rest
 	}
-	c.n += int64(len(p))
-	return len(p), nil
+	return n, nil
 }
 
 var _ io.Writer = (*countingWriter)(nil)
