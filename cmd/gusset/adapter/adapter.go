@@ -95,15 +95,20 @@ func at(prefix string, err error) error {
 }
 
 // decode validates params against the method's schema and unmarshals them
-// into v, before any engine code runs. The fast path decodes strictly
-// (unknown fields and wrong types are errors) and validates a sample of
-// the result (see schema.Validator.ValidateSample); the model compiler then
-// checks every element. When either step fails, the full schema validation
-// of the original bytes supplies precise pointers.
+// into v (a zero value), before any engine code runs. The fast path
+// decodes strictly (unknown fields and wrong types are errors), in one
+// pass with protocol.DecodeStrict or, for input it declines, with
+// encoding/json, and validates a sample of the result (see
+// schema.Validator.ValidateSample); the model compiler then checks every
+// element. When either step fails, the full schema validation of the
+// original bytes supplies precise pointers.
 func (a *Adapter) decode(method string, params json.RawMessage, v any) error {
-	dec := json.NewDecoder(bytes.NewReader(params))
-	dec.DisallowUnknownFields()
-	err := dec.Decode(v)
+	err := protocol.DecodeStrict(params, v)
+	if err != nil {
+		dec := json.NewDecoder(bytes.NewReader(params))
+		dec.DisallowUnknownFields()
+		err = dec.Decode(v)
+	}
 	if err == nil {
 		if e := a.validator.ValidateSample(method, v); e == nil {
 			return nil

@@ -1,0 +1,640 @@
+package protocol
+
+import (
+	"encoding"
+	"encoding/json"
+	"errors"
+	"reflect"
+	"strconv"
+	"strings"
+	"sync"
+	"unicode/utf8"
+)
+
+// errUnhandled is DecodeStrict's answer for input it leaves to
+// encoding/json.
+var errUnhandled = errors.New("protocol: input left to encoding/json")
+
+// DecodeStrict decodes data, one JSON value with optional white space
+// around it, into the value v points to, exactly as a json.Decoder with
+// DisallowUnknownFields would, in one pass and without encoding/json's
+// reflection per value, for the inputs it handles: objects whose keys
+// match a field's name exactly, strings without escapes, numbers, booleans,
+// null, arrays and maps with string keys, and the Number and SweepAxes
+// types. On any other input (an escape in a string, a key that matches
+// only case-insensitively or not at all, invalid UTF-8, a number out of
+// range, a value of the wrong type, a syntax error) it returns an error
+// without saying more, having perhaps written part of v: the caller then
+// decodes v again with encoding/json, which gives the precise error or the
+// same result: v must point to a zero value, and DecodeStrict leaves it
+// zero when it fails. TestDecodeStrictAgreesWithEncodingJSON checks that
+// whatever DecodeStrict accepts decodes to the same value as encoding/json.
+func DecodeStrict(data []byte, v any) error {
+	rv := reflect.ValueOf(v)
+	if rv.Kind() != reflect.Pointer || rv.IsNil() {
+		return errUnhandled
+	}
+	d := &decoder{data: data}
+	d.space()
+	err := d.value(rv.Elem(), codecOf(rv.Elem().Type()), 0)
+	d.space()
+	if err == nil && d.pos != len(d.data) {
+		err = errUnhandled
+	}
+	if err != nil {
+		rv.Elem().SetZero()
+	}
+	return err
+}
+
+// decoder reads data from pos on.
+type decoder struct {
+	data []byte
+	pos  int
+}
+
+// maxDepth bounds the nesting DecodeStrict follows (encoding/json's own
+// bound is 10,000).
+const maxDepth = 500
+
+var (
+	numberPtrType       = reflect.TypeOf((*Number)(nil))
+	numberSliceType     = reflect.TypeOf([]Number(nil))
+	float64SliceType    = reflect.TypeOf([]float64(nil))
+	stringSliceType     = reflect.TypeOf([]string(nil))
+	unmarshalerType     = reflect.TypeOf((*json.Unmarshaler)(nil)).Elem()
+	textUnmarshalerType = reflect.TypeOf((*encoding.TextUnmarshaler)(nil)).Elem()
+)
+
+func (d *decoder) space() {
+	for d.pos < len(d.data) {
+		switch d.data[d.pos] {
+		case ' ', '\t', '\n', '\r':
+			d.pos++
+		default:
+			return
+		}
+	}
+}
+
+// value decodes the value at pos into v, whose type's codec is c.
+// Pointers are followed (and allocated) first, then a type with its own
+// decoding gets the raw value, as encoding/json's indirect does.
+func (d *decoder) value(v reflect.Value, c *codec, depth int) error {
+	if depth > maxDepth || d.pos >= len(d.data) {
+		return errUnhandled
+	}
+	if d.data[d.pos] == 'n' {
+		return d.null(v, c)
+	}
+	switch c.how {
+	case viaPointer:
+		if v.IsNil() {
+			v.Set(reflect.New(c.t.Elem()))
+		}
+		return d.value(v.Elem(), c.elem, depth+1)
+	case asNumber:
+		return d.number(v.Addr().Interface().(*Number))
+	case asNumbers:
+		return d.numbers(v.Addr().Interface().(*[]Number))
+	case asFloats:
+		return d.floats(v.Addr().Interface().(*[]float64))
+	case asStrings:
+		return d.strings(v.Addr().Interface().(*[]string))
+	case viaUnmarshaler:
+		return d.unmarshaler(v.Addr().Interface().(json.Unmarshaler))
+	case asStruct:
+		return d.object(v, c, depth)
+	case asSlice:
+		return d.array(v, c, depth)
+	case asMap:
+		return d.mapping(v, c, depth)
+	case asString:
+		s, err := d.str()
+		v.SetString(s)
+		return err
+	case asBool:
+		return d.boolean(v)
+	case asFloat:
+		f, err := d.parseFloat()
+		v.SetFloat(f)
+		return err
+	case asInt:
+		return d.integer(v)
+	}
+	return errUnhandled
+}
+
+// null reads a null: it sets a pointer, slice, map or interface to nil
+// and leaves any other value as it is, as encoding/json does; a value
+// with its own decoding, which would get the null, is left to
+// encoding/json.
+func (d *decoder) null(v reflect.Value, c *codec) error {
+	if !d.literal("null") {
+		return errUnhandled
+	}
+	switch {
+	case c.how == viaPointer:
+		v.SetZero()
+	case c.ownNull:
+		return errUnhandled
+	case c.how == asSlice || c.how == asMap || c.how == asNumbers || c.how == asFloats || c.how == asStrings:
+		v.SetZero()
+	}
+	return nil
+}
+
+// literal consumes word if it stands at pos.
+func (d *decoder) literal(word string) bool {
+	if !strings.HasPrefix(string(d.data[d.pos:min(len(d.data), d.pos+len(word))]), word) {
+		return false
+	}
+	d.pos += len(word)
+	return true
+}
+
+func (d *decoder) boolean(v reflect.Value) error {
+	switch {
+	case d.literal("true"):
+		v.SetBool(true)
+	case d.literal("false"):
+		v.SetBool(false)
+	default:
+		return errUnhandled
+	}
+	return nil
+}
+
+// unmarshaler hands the raw value at pos to u's own decoding.
+func (d *decoder) unmarshaler(u json.Unmarshaler) error {
+	start := d.pos
+	if err := d.skip(0); err != nil {
+		return err
+	}
+	if u.UnmarshalJSON(d.data[start:d.pos]) != nil {
+		return errUnhandled
+	}
+	return nil
+}
+
+// numberToken returns the number at pos, checked against JSON's grammar
+// (RFC 8259, section 6), and moves past it.
+func (d *decoder) numberToken() ([]byte, error) {
+	b, i := d.data, d.pos
+	start := i
+	if i < len(b) && b[i] == '-' {
+		i++
+	}
+	switch {
+	case i < len(b) && b[i] == '0':
+		i++
+	case i < len(b) && b[i] >= '1' && b[i] <= '9':
+		for i < len(b) && b[i] >= '0' && b[i] <= '9' {
+			i++
+		}
+	default:
+		return nil, errUnhandled
+	}
+	if i < len(b) && b[i] == '.' {
+		i++
+		if i >= len(b) || b[i] < '0' || b[i] > '9' {
+			return nil, errUnhandled
+		}
+		for i < len(b) && b[i] >= '0' && b[i] <= '9' {
+			i++
+		}
+	}
+	if i < len(b) && (b[i] == 'e' || b[i] == 'E') {
+		i++
+		if i < len(b) && (b[i] == '+' || b[i] == '-') {
+			i++
+		}
+		if i >= len(b) || b[i] < '0' || b[i] > '9' {
+			return nil, errUnhandled
+		}
+		for i < len(b) && b[i] >= '0' && b[i] <= '9' {
+			i++
+		}
+	}
+	d.pos = i
+	return b[start:i], nil
+}
+
+// parseFloat reads a number as encoding/json does for a float64.
+func (d *decoder) parseFloat() (float64, error) {
+	tok, err := d.numberToken()
+	if err != nil {
+		return 0, err
+	}
+	f, err := strconv.ParseFloat(string(tok), 64)
+	if err != nil {
+		return 0, errUnhandled
+	}
+	return f, nil
+}
+
+func (d *decoder) integer(v reflect.Value) error {
+	tok, err := d.numberToken()
+	if err != nil {
+		return err
+	}
+	n, err := strconv.ParseInt(string(tok), 10, 64)
+	if err != nil || v.OverflowInt(n) {
+		return errUnhandled
+	}
+	v.SetInt(n)
+	return nil
+}
+
+// str reads a string without escapes or control characters, in valid
+// UTF-8, and moves past it.
+func (d *decoder) str() (string, error) {
+	b, err := d.strBytes()
+	return string(b), err
+}
+
+// strBytes is str without the copy: the bytes alias the input.
+func (d *decoder) strBytes() ([]byte, error) {
+	b := d.data
+	if d.pos >= len(b) || b[d.pos] != '"' {
+		return nil, errUnhandled
+	}
+	start := d.pos + 1
+	ascii := true
+	for i := start; i < len(b); i++ {
+		switch c := b[i]; {
+		case c == '"':
+			if !ascii && !utf8.Valid(b[start:i]) {
+				return nil, errUnhandled
+			}
+			d.pos = i + 1
+			return b[start:i], nil
+		case c == '\\' || c < 0x20:
+			return nil, errUnhandled
+		case c >= utf8.RuneSelf:
+			ascii = false
+		}
+	}
+	return nil, errUnhandled
+}
+
+// number reads a Number: a plain number, or a string holding an
+// expression.
+func (d *decoder) number(n *Number) error {
+	if d.pos < len(d.data) && d.data[d.pos] == '"' {
+		s, err := d.str()
+		*n = Number{Expr: s, IsExpr: true}
+		return err
+	}
+	f, err := d.parseFloat()
+	*n = Number{Value: f}
+	return err
+}
+
+// elements calls each for every element of the array at pos; each
+// decodes one element at pos.
+func (d *decoder) elements(each func() error) error {
+	if d.pos >= len(d.data) || d.data[d.pos] != '[' {
+		return errUnhandled
+	}
+	d.pos++
+	d.space()
+	if d.pos < len(d.data) && d.data[d.pos] == ']' {
+		d.pos++
+		return nil
+	}
+	for {
+		d.space()
+		if d.pos >= len(d.data) {
+			return errUnhandled
+		}
+		if err := each(); err != nil {
+			return err
+		}
+		d.space()
+		if d.pos >= len(d.data) {
+			return errUnhandled
+		}
+		switch d.data[d.pos] {
+		case ',':
+			d.pos++
+		case ']':
+			d.pos++
+			return nil
+		default:
+			return errUnhandled
+		}
+	}
+}
+
+func (d *decoder) numbers(dst *[]Number) error {
+	out := []Number{}
+	err := d.elements(func() error {
+		if d.data[d.pos] == 'n' {
+			return errUnhandled // null into a Number is its own decoding's error
+		}
+		var n Number
+		err := d.number(&n)
+		out = append(out, n)
+		return err
+	})
+	*dst = out
+	return err
+}
+
+func (d *decoder) floats(dst *[]float64) error {
+	out := []float64{}
+	err := d.elements(func() error {
+		if d.literal("null") {
+			out = append(out, 0) // null leaves a float as it is: zero here
+			return nil
+		}
+		f, err := d.parseFloat()
+		out = append(out, f)
+		return err
+	})
+	*dst = out
+	return err
+}
+
+func (d *decoder) strings(dst *[]string) error {
+	out := []string{}
+	err := d.elements(func() error {
+		if d.literal("null") {
+			out = append(out, "")
+			return nil
+		}
+		s, err := d.str()
+		out = append(out, s)
+		return err
+	})
+	*dst = out
+	return err
+}
+
+// array decodes an array into the slice v, which is nil (a zero value is
+// decoded into: see DecodeStrict); c is the slice type's codec.
+func (d *decoder) array(v reflect.Value, c *codec, depth int) error {
+	out := reflect.New(c.t).Elem() // addressable, so that it grows
+	out.Set(reflect.MakeSlice(c.t, 0, 0))
+	n := 0
+	err := d.elements(func() error {
+		if n == out.Cap() {
+			out.Grow(max(4, n))
+		}
+		out.SetLen(n + 1)
+		n++
+		return d.value(out.Index(n-1), c.elem, depth+1)
+	})
+	v.Set(out)
+	return err
+}
+
+// how tells how DecodeStrict decodes a type.
+type how uint8
+
+const (
+	unhandled      how = iota
+	viaPointer         // allocate, then decode the element
+	asNumber           // Number
+	asNumbers          // []Number
+	asFloats           // []float64
+	asStrings          // []string
+	viaUnmarshaler     // the type's own UnmarshalJSON on the raw value
+	asStruct
+	asSlice
+	asMap // with string keys
+	asString
+	asBool
+	asFloat // float64
+	asInt
+)
+
+// codec is how DecodeStrict decodes one type: for a pointer, slice or map
+// its element's codec; for a struct its fields by exact JSON name.
+type codec struct {
+	how     how
+	t       reflect.Type
+	elem    *codec
+	fields  map[string]field
+	count   int  // a struct's fields
+	ownNull bool // a null goes to the type's own decoding
+}
+
+// field is a struct field: its index and codec.
+type field struct {
+	index int
+	codec *codec
+}
+
+var (
+	codecsMu sync.Mutex
+	codecs   = map[reflect.Type]*codec{}
+)
+
+// codecOf returns t's codec, built once per type.
+func codecOf(t reflect.Type) *codec {
+	codecsMu.Lock()
+	defer codecsMu.Unlock()
+	return buildCodec(t)
+}
+
+// buildCodec builds t's codec; codecsMu is held. A codec enters the map
+// before its elements are built, so recursive types terminate.
+func buildCodec(t reflect.Type) *codec {
+	if c, ok := codecs[t]; ok {
+		return c
+	}
+	c := &codec{t: t}
+	codecs[t] = c
+	pt := reflect.PointerTo(t)
+	c.ownNull = t.Kind() != reflect.Pointer && pt.Implements(unmarshalerType)
+	switch {
+	case t.Kind() == reflect.Pointer:
+		c.how, c.elem = viaPointer, buildCodec(t.Elem())
+	case t == numberType:
+		c.how = asNumber
+	case t == numberSliceType:
+		c.how = asNumbers
+	case t == float64SliceType:
+		c.how = asFloats
+	case t == stringSliceType:
+		c.how = asStrings
+	case pt.Implements(unmarshalerType):
+		c.how = viaUnmarshaler
+	case pt.Implements(textUnmarshalerType):
+		c.how = unhandled
+	default:
+		buildPlain(c)
+	}
+	return c
+}
+
+// buildPlain fills the codec of a type without its own decoding.
+func buildPlain(c *codec) {
+	t := c.t
+	switch t.Kind() {
+	case reflect.Struct:
+		c.how, c.fields, c.count = asStruct, map[string]field{}, t.NumField()
+		if !structFields(c) {
+			c.how, c.fields = unhandled, nil
+		}
+	case reflect.Slice:
+		c.how, c.elem = asSlice, buildCodec(t.Elem())
+	case reflect.Map:
+		if t.Key() == reflect.TypeOf("") {
+			c.how, c.elem = asMap, buildCodec(t.Elem())
+		}
+	case reflect.String:
+		c.how = asString
+	case reflect.Bool:
+		c.how = asBool
+	case reflect.Float64:
+		c.how = asFloat
+	case reflect.Int, reflect.Int8, reflect.Int16, reflect.Int32, reflect.Int64:
+		c.how = asInt
+	}
+}
+
+// structFields fills a struct codec's fields by JSON name; it reports
+// false for a struct DecodeStrict leaves to encoding/json (an embedded
+// field, a ",string" option, a name encoding/json would not take from the
+// tag).
+func structFields(c *codec) bool {
+	for i := range c.t.NumField() {
+		f := c.t.Field(i)
+		if f.Anonymous {
+			return false
+		}
+		if !f.IsExported() {
+			continue
+		}
+		tag := f.Tag.Get("json")
+		if tag == "-" {
+			continue
+		}
+		name, opts, _ := strings.Cut(tag, ",")
+		if strings.Contains(","+opts+",", ",string,") || !plainName(name) {
+			return false
+		}
+		if name == "" {
+			name = f.Name
+		}
+		c.fields[name] = field{index: i, codec: buildCodec(f.Type)}
+	}
+	return true
+}
+
+// plainName reports whether a tag name is made of letters, digits, '_'
+// and '-' only, which encoding/json takes as it is.
+func plainName(s string) bool {
+	for _, c := range s {
+		if !(c == '_' || c == '-' || c >= '0' && c <= '9' || c >= 'a' && c <= 'z' || c >= 'A' && c <= 'Z') {
+			return false
+		}
+	}
+	return true
+}
+
+// members calls each for every key of the object at pos, with pos at its
+// value; each decodes the value.
+func (d *decoder) members(each func(key []byte) error) error {
+	if d.pos >= len(d.data) || d.data[d.pos] != '{' {
+		return errUnhandled
+	}
+	d.pos++
+	d.space()
+	if d.pos < len(d.data) && d.data[d.pos] == '}' {
+		d.pos++
+		return nil
+	}
+	for {
+		d.space()
+		key, err := d.strBytes()
+		if err != nil {
+			return err
+		}
+		d.space()
+		if d.pos >= len(d.data) || d.data[d.pos] != ':' {
+			return errUnhandled
+		}
+		d.pos++
+		d.space()
+		if err := each(key); err != nil {
+			return err
+		}
+		d.space()
+		if d.pos >= len(d.data) {
+			return errUnhandled
+		}
+		switch d.data[d.pos] {
+		case ',':
+			d.pos++
+		case '}':
+			d.pos++
+			return nil
+		default:
+			return errUnhandled
+		}
+	}
+}
+
+// object decodes an object into the struct v, whose codec is c. A key
+// that names no field exactly, or names one twice, is left to
+// encoding/json (which matches keys case-insensitively and merges
+// repeated ones).
+func (d *decoder) object(v reflect.Value, c *codec, depth int) error {
+	var seenSmall [64]bool
+	seen := seenSmall[:]
+	if c.count > len(seen) {
+		seen = make([]bool, c.count)
+	}
+	return d.members(func(key []byte) error {
+		f, ok := c.fields[string(key)]
+		if !ok || seen[f.index] {
+			return errUnhandled
+		}
+		seen[f.index] = true
+		return d.value(v.Field(f.index), f.codec, depth+1)
+	})
+}
+
+// mapping decodes an object into the map v with string keys, which is nil
+// (see DecodeStrict); a repeated key's last value wins, as in
+// encoding/json.
+func (d *decoder) mapping(v reflect.Value, c *codec, depth int) error {
+	out := reflect.MakeMap(c.t)
+	elem := reflect.New(c.t.Elem()).Elem()
+	err := d.members(func(key []byte) error {
+		elem.SetZero()
+		if err := d.value(elem, c.elem, depth+1); err != nil {
+			return err
+		}
+		out.SetMapIndex(reflect.ValueOf(string(key)), elem)
+		return nil
+	})
+	v.Set(out)
+	return err
+}
+
+// skip moves past the value at pos, checking its syntax.
+func (d *decoder) skip(depth int) error {
+	if depth > maxDepth || d.pos >= len(d.data) {
+		return errUnhandled
+	}
+	switch c := d.data[d.pos]; {
+	case c == '{':
+		return d.members(func([]byte) error { return d.skip(depth + 1) })
+	case c == '[':
+		return d.elements(func() error { return d.skip(depth + 1) })
+	case c == '"':
+		_, err := d.strBytes()
+		return err
+	case c == '-' || c >= '0' && c <= '9':
+		_, err := d.numberToken()
+		return err
+	case d.literal("true") || d.literal("false") || d.literal("null"):
+		return nil
+	}
+	return errUnhandled
+}
