@@ -291,84 +291,89 @@ func (d *decoder) number(n *Number) error {
 	return err
 }
 
-// elements calls each for every element of the array at pos; each
-// decodes one element at pos.
-func (d *decoder) elements(each func() error) error {
-	if d.pos >= len(d.data) || d.data[d.pos] != '[' {
-		return errUnhandled
+// open consumes the opening bracket at pos and reports whether the
+// container closes at once (an empty array or object).
+func (d *decoder) open(opening, closing byte) (empty bool, err error) {
+	if d.pos >= len(d.data) || d.data[d.pos] != opening {
+		return false, errUnhandled
 	}
 	d.pos++
 	d.space()
-	if d.pos < len(d.data) && d.data[d.pos] == ']' {
+	if d.pos < len(d.data) && d.data[d.pos] == closing {
 		d.pos++
-		return nil
+		return true, nil
 	}
-	for {
-		d.space()
-		if d.pos >= len(d.data) {
-			return errUnhandled
-		}
-		if err := each(); err != nil {
-			return err
-		}
-		d.space()
-		if d.pos >= len(d.data) {
-			return errUnhandled
-		}
-		switch d.data[d.pos] {
-		case ',':
-			d.pos++
-		case ']':
-			d.pos++
-			return nil
-		default:
-			return errUnhandled
-		}
-	}
+	return false, nil
 }
 
-func (d *decoder) numbers(dst *[]Number) error {
-	out := []Number{}
+// next consumes the comma or the closing bracket after an element and
+// reports whether the container has ended.
+func (d *decoder) next(closing byte) (done bool, err error) {
+	d.space()
+	switch {
+	case d.pos >= len(d.data):
+		return false, errUnhandled
+	case d.data[d.pos] == ',':
+		d.pos++
+		d.space()
+		return false, nil
+	case d.data[d.pos] == closing:
+		d.pos++
+		return true, nil
+	}
+	return false, errUnhandled
+}
+
+// elements calls each for every element of the array at pos; each
+// decodes one element at pos.
+func (d *decoder) elements(each func() error) error {
+	empty, err := d.open('[', ']')
+	for !empty && err == nil {
+		if d.pos >= len(d.data) {
+			return errUnhandled
+		}
+		if err = each(); err == nil {
+			empty, err = d.next(']')
+		}
+	}
+	return err
+}
+
+// list decodes the array at pos with one into a slice of T: never nil,
+// as encoding/json makes an empty array an empty slice. A null element
+// gets null's value, or declines the input when null is nil.
+func list[T any](d *decoder, one func() (T, error), null func() (T, bool)) ([]T, error) {
+	out := []T{}
 	err := d.elements(func() error {
 		if d.data[d.pos] == 'n' {
-			return errUnhandled // null into a Number is its own decoding's error
+			v, ok := null()
+			if !ok || !d.literal("null") {
+				return errUnhandled
+			}
+			out = append(out, v)
+			return nil
 		}
-		var n Number
-		err := d.number(&n)
-		out = append(out, n)
+		v, err := one()
+		out = append(out, v)
 		return err
 	})
-	*dst = out
+	return out, err
+}
+
+func (d *decoder) numbers(dst *[]Number) (err error) {
+	// A null into a Number is its own decoding's error: declined.
+	*dst, err = list(d, func() (n Number, err error) { return n, d.number(&n) }, func() (Number, bool) { return Number{}, false })
 	return err
 }
 
-func (d *decoder) floats(dst *[]float64) error {
-	out := []float64{}
-	err := d.elements(func() error {
-		if d.literal("null") {
-			out = append(out, 0) // null leaves a float as it is: zero here
-			return nil
-		}
-		f, err := d.parseFloat()
-		out = append(out, f)
-		return err
-	})
-	*dst = out
+func (d *decoder) floats(dst *[]float64) (err error) {
+	// A null leaves a float as it is: zero here.
+	*dst, err = list(d, d.parseFloat, func() (float64, bool) { return 0, true })
 	return err
 }
 
-func (d *decoder) strings(dst *[]string) error {
-	out := []string{}
-	err := d.elements(func() error {
-		if d.literal("null") {
-			out = append(out, "")
-			return nil
-		}
-		s, err := d.str()
-		out = append(out, s)
-		return err
-	})
-	*dst = out
+func (d *decoder) strings(dst *[]string) (err error) {
+	*dst, err = list(d, d.str, func() (string, bool) { return "", true })
 	return err
 }
 
@@ -539,19 +544,10 @@ func plainName(s string) bool {
 // members calls each for every key of the object at pos, with pos at its
 // value; each decodes the value.
 func (d *decoder) members(each func(key []byte) error) error {
-	if d.pos >= len(d.data) || d.data[d.pos] != '{' {
-		return errUnhandled
-	}
-	d.pos++
-	d.space()
-	if d.pos < len(d.data) && d.data[d.pos] == '}' {
-		d.pos++
-		return nil
-	}
-	for {
-		d.space()
-		key, err := d.strBytes()
-		if err != nil {
+	empty, err := d.open('{', '}')
+	for !empty && err == nil {
+		var key []byte
+		if key, err = d.strBytes(); err != nil {
 			return err
 		}
 		d.space()
@@ -560,23 +556,11 @@ func (d *decoder) members(each func(key []byte) error) error {
 		}
 		d.pos++
 		d.space()
-		if err := each(key); err != nil {
-			return err
-		}
-		d.space()
-		if d.pos >= len(d.data) {
-			return errUnhandled
-		}
-		switch d.data[d.pos] {
-		case ',':
-			d.pos++
-		case '}':
-			d.pos++
-			return nil
-		default:
-			return errUnhandled
+		if err = each(key); err == nil {
+			empty, err = d.next('}')
 		}
 	}
+	return err
 }
 
 // object decodes an object into the struct v, whose codec is c. A key
