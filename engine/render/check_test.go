@@ -48,16 +48,24 @@ func TestPicturesHaveNoLabelDefects(t *testing.T) {
 		},
 	}
 	for name, draw := range pictures {
-		var b bytes.Buffer
-		if err := draw(&b); err != nil {
-			t.Fatal(err)
-		}
-		rep, err := CheckLabels(b.Bytes())
-		if err != nil {
-			t.Fatal(err)
-		}
-		if rep.Defects() != 0 {
-			t.Errorf("%s: %d label defects: %v %v %v", name, rep.Defects(), rep.TextOverlaps, rep.ArrowOverlaps, rep.UnhaloedOnLine)
-		}
+		drawWithoutLabelDefects(t, name, draw)
 	}
+}
+
+// drawWithoutLabelDefects draws a picture and fails t, naming it, when
+// CheckLabels finds a label defect in it; it returns the picture.
+func drawWithoutLabelDefects(t *testing.T, name string, draw func(*bytes.Buffer) error) *bytes.Buffer {
+	t.Helper()
+	var b bytes.Buffer
+	if err := draw(&b); err != nil {
+		t.Fatal(err)
+	}
+	rep, err := CheckLabels(b.Bytes())
+	if err != nil {
+		t.Fatal(err)
+	}
+	if rep.Defects() != 0 {
+		t.Errorf("%s: %d label defects: %v %v %v", name, rep.Defects(), rep.TextOverlaps, rep.ArrowOverlaps, rep.UnhaloedOnLine)
+	}
+	return &b
 }
