@@ -193,15 +193,29 @@ func bendingUtilisation(m *model.Model, sec *model.Section, mat *model.Material,
 // an assumption) in any of the cases, each with the pointer of the data
 // that would allow it, at most limit of them and then a count.
 func uncheckedNotes(m *model.Model, cases []CaseResult, limit int) []fault.Problem {
+	return uncheckedNotesOf(m, memberUncheckedFlags(m, cases), limit)
+}
+
+// memberUncheckedFlags returns per member the union of its unchecked
+// flags over the cases.
+func memberUncheckedFlags(m *model.Model, cases []CaseResult) []uint16 {
+	out := make([]uint16, len(m.Members))
+	for e := range out {
+		for c := range cases {
+			if len(cases[c].Members) > e {
+				out[e] |= cases[c].Members[e].Unchecked
+			}
+		}
+	}
+	return out
+}
+
+// uncheckedNotesOf is uncheckedNotes from each member's union of flags.
+func uncheckedNotesOf(m *model.Model, memberFlags []uint16, limit int) []fault.Problem {
 	var notes []fault.Problem
 	more := 0
 	for e := range m.Members {
-		var flags uint16
-		for c := range cases {
-			if len(cases[c].Members) > e {
-				flags |= cases[c].Members[e].Unchecked
-			}
-		}
+		flags := memberFlags[e]
 		for bit := uint16(1); bit != 0 && bit <= barBending; bit <<= 1 {
 			if flags&bit == 0 {
 				continue
@@ -261,9 +275,12 @@ func bendingCaveat(m *model.Model, cases []CaseResult) []string {
 	for c := range cases {
 		for e := range cases[c].Members {
 			if cases[c].Members[e].BendingUtilisation >= 0 {
-				return []string{"bending utilisation is |M|/(W·f) with the elastic section modulus: lateral–torsional buckling, shear and local buckling of thin plates are not checked; the combined check adds each term's largest value along the member (conservative)"}
+				return []string{bendingCaveatText}
 			}
 		}
 	}
 	return nil
 }
+
+// bendingCaveatText is the warning of bendingCaveat.
+const bendingCaveatText = "bending utilisation is |M|/(W·f) with the elastic section modulus: lateral–torsional buckling, shear and local buckling of thin plates are not checked; the combined check adds each term's largest value along the member (conservative)"
