@@ -35,14 +35,39 @@ func appendJSON(b []byte, v any) ([]byte, error) {
 		return append(b, "null"...), nil
 	}
 	rv := reflect.ValueOf(v)
-	return encoderOf(rv.Type())(b, rv)
+	var e encodeState
+	last, err := encoderOf(rv.Type())(&e, b, rv)
+	if err != nil {
+		return b, err
+	}
+	if e.chunks == nil {
+		return last, nil
+	}
+	// Join the pieces once, into a buffer of the exact size.
+	size := len(last)
+	for _, c := range e.chunks {
+		size += len(c)
+	}
+	out := make([]byte, 0, size)
+	for _, c := range e.chunks {
+		out = append(out, c...)
+	}
+	return append(out, last...), nil
+}
+
+// encodeState holds the finished pieces of one encoding, in order: the
+// text before a large array of numbers, then the array's pieces, each in
+// a buffer of its own sized for it, so that no buffer is copied as it
+// grows.
+type encodeState struct {
+	chunks [][]byte
 }
 
 // errFallback says a value is left to encoding/json.
 var errFallback = errors.New("jsonrpc: value left to encoding/json")
 
 // encoderFunc appends the encoding of v, whose type it was built for.
-type encoderFunc func(b []byte, v reflect.Value) ([]byte, error)
+type encoderFunc func(e *encodeState, b []byte, v reflect.Value) ([]byte, error)
 
 var (
 	encoders   sync.Map // reflect.Type → encoderFunc
@@ -74,7 +99,7 @@ func buildEncoder(t reflect.Type) encoderFunc {
 		return f.(encoderFunc)
 	}
 	if building[t] {
-		return func(b []byte, v reflect.Value) ([]byte, error) { return encoderOf(t)(b, v) }
+		return func(e *encodeState, b []byte, v reflect.Value) ([]byte, error) { return encoderOf(t)(e, b, v) }
 	}
 	building[t] = true
 	f := newEncoder(t)
@@ -83,7 +108,7 @@ func buildEncoder(t reflect.Type) encoderFunc {
 	return f
 }
 
-func fallback(b []byte, _ reflect.Value) ([]byte, error) { return b, errFallback }
+func fallback(_ *encodeState, b []byte, _ reflect.Value) ([]byte, error) { return b, errFallback }
 
 // newEncoder chooses t's encoder in the order encoding/json does: a
 // type's own MarshalJSON first, then its kind.
@@ -104,15 +129,23 @@ func newEncoder(t reflect.Type) encoderFunc {
 	}
 	switch t.Kind() {
 	case reflect.Bool:
-		return func(b []byte, v reflect.Value) ([]byte, error) { return strconv.AppendBool(b, v.Bool()), nil }
+		return func(e *encodeState, b []byte, v reflect.Value) ([]byte, error) {
+			return strconv.AppendBool(b, v.Bool()), nil
+		}
 	case reflect.Int, reflect.Int8, reflect.Int16, reflect.Int32, reflect.Int64:
-		return func(b []byte, v reflect.Value) ([]byte, error) { return strconv.AppendInt(b, v.Int(), 10), nil }
+		return func(e *encodeState, b []byte, v reflect.Value) ([]byte, error) {
+			return strconv.AppendInt(b, v.Int(), 10), nil
+		}
 	case reflect.Uint, reflect.Uint8, reflect.Uint16, reflect.Uint32, reflect.Uint64, reflect.Uintptr:
-		return func(b []byte, v reflect.Value) ([]byte, error) { return strconv.AppendUint(b, v.Uint(), 10), nil }
+		return func(e *encodeState, b []byte, v reflect.Value) ([]byte, error) {
+			return strconv.AppendUint(b, v.Uint(), 10), nil
+		}
 	case reflect.Float64:
-		return func(b []byte, v reflect.Value) ([]byte, error) { return appendFloat(b, v.Float()) }
+		return func(e *encodeState, b []byte, v reflect.Value) ([]byte, error) { return appendFloat(b, v.Float()) }
 	case reflect.String:
-		return func(b []byte, v reflect.Value) ([]byte, error) { return appendString(b, v.String()), nil }
+		return func(e *encodeState, b []byte, v reflect.Value) ([]byte, error) {
+			return appendString(b, v.String()), nil
+		}
 	case reflect.Interface:
 		return encodeInterface
 	case reflect.Pointer:
@@ -133,17 +166,17 @@ func newEncoder(t reflect.Type) encoderFunc {
 	return fallback // float32, arrays, complex numbers, channels, functions
 }
 
-func encodeNumber(b []byte, v reflect.Value) ([]byte, error) {
+func encodeNumber(e *encodeState, b []byte, v reflect.Value) ([]byte, error) {
 	n := v.Interface().(protocol.Number)
 	if n.IsExpr {
-		return encodeMarshaler(b, v)
+		return encodeMarshaler(e, b, v)
 	}
 	return appendFloat(b, n.Value)
 }
 
 // encodeMarshaler appends the compacted output of the value's MarshalJSON
 // (null for a nil pointer), as encoding/json does.
-func encodeMarshaler(b []byte, v reflect.Value) ([]byte, error) {
+func encodeMarshaler(e *encodeState, b []byte, v reflect.Value) ([]byte, error) {
 	if v.Kind() == reflect.Pointer && v.IsNil() {
 		return append(b, "null"...), nil
 	}
@@ -158,27 +191,27 @@ func encodeMarshaler(b []byte, v reflect.Value) ([]byte, error) {
 	return buf.Bytes(), nil
 }
 
-func encodeInterface(b []byte, v reflect.Value) ([]byte, error) {
+func encodeInterface(e *encodeState, b []byte, v reflect.Value) ([]byte, error) {
 	if v.IsNil() {
 		return append(b, "null"...), nil
 	}
-	e := v.Elem()
-	return encoderOf(e.Type())(b, e)
+	x := v.Elem()
+	return encoderOf(x.Type())(e, b, x)
 }
 
 func pointerEncoder(t reflect.Type) encoderFunc {
 	elem := buildEncoder(t.Elem())
-	return func(b []byte, v reflect.Value) ([]byte, error) {
+	return func(e *encodeState, b []byte, v reflect.Value) ([]byte, error) {
 		if v.IsNil() {
 			return append(b, "null"...), nil
 		}
-		return elem(b, v.Elem())
+		return elem(e, b, v.Elem())
 	}
 }
 
 func sliceEncoder(t reflect.Type) encoderFunc {
 	elem := buildEncoder(t.Elem())
-	return func(b []byte, v reflect.Value) ([]byte, error) {
+	return func(e *encodeState, b []byte, v reflect.Value) ([]byte, error) {
 		if v.IsNil() {
 			return append(b, "null"...), nil
 		}
@@ -188,7 +221,7 @@ func sliceEncoder(t reflect.Type) encoderFunc {
 				b = append(b, ',')
 			}
 			var err error
-			if b, err = elem(b, v.Index(i)); err != nil {
+			if b, err = elem(e, b, v.Index(i)); err != nil {
 				return b, err
 			}
 		}
@@ -198,7 +231,7 @@ func sliceEncoder(t reflect.Type) encoderFunc {
 
 func mapEncoder(t reflect.Type) encoderFunc {
 	elem := buildEncoder(t.Elem())
-	return func(b []byte, v reflect.Value) ([]byte, error) {
+	return func(e *encodeState, b []byte, v reflect.Value) ([]byte, error) {
 		if v.IsNil() {
 			return append(b, "null"...), nil
 		}
@@ -220,7 +253,7 @@ func mapEncoder(t reflect.Type) encoderFunc {
 			b = appendString(b, k.String())
 			b = append(b, ':')
 			var err error
-			if b, err = elem(b, v.MapIndex(k)); err != nil {
+			if b, err = elem(e, b, v.MapIndex(k)); err != nil {
 				return b, err
 			}
 		}
@@ -265,7 +298,7 @@ func structEncoder(t reflect.Type) encoderFunc {
 		fields = append(fields, structField{index: i, key: append(appendString(nil, name), ':'),
 			omitEmpty: hasOption(opts, "omitempty"), enc: buildEncoder(f.Type)})
 	}
-	return func(b []byte, v reflect.Value) ([]byte, error) {
+	return func(e *encodeState, b []byte, v reflect.Value) ([]byte, error) {
 		b = append(b, '{')
 		first := true
 		for _, f := range fields {
@@ -279,7 +312,7 @@ func structEncoder(t reflect.Type) encoderFunc {
 			first = false
 			b = append(b, f.key...)
 			var err error
-			if b, err = f.enc(b, fv); err != nil {
+			if b, err = f.enc(e, b, fv); err != nil {
 				return b, err
 			}
 		}
@@ -368,13 +401,13 @@ func appendFloat(b []byte, f float64) ([]byte, error) {
 // processors).
 const parallelFloats = 1 << 14
 
-func encodeFloats(b []byte, v reflect.Value) ([]byte, error) {
+func encodeFloats(e *encodeState, b []byte, v reflect.Value) ([]byte, error) {
 	if v.IsNil() {
 		return append(b, "null"...), nil
 	}
 	x := v.Interface().([]float64)
 	b = append(b, '[')
-	b, err := inPieces(b, len(x), len(x), func(b []byte, lo, hi int) ([]byte, error) {
+	b, err := e.inPieces(b, len(x), len(x), func(b []byte, lo, hi int) ([]byte, error) {
 		return appendFloats(b, x[lo:hi], lo == 0)
 	})
 	if err != nil {
@@ -383,7 +416,7 @@ func encodeFloats(b []byte, v reflect.Value) ([]byte, error) {
 	return append(b, ']'), nil
 }
 
-func encodeFloatRows(b []byte, v reflect.Value) ([]byte, error) {
+func encodeFloatRows(e *encodeState, b []byte, v reflect.Value) ([]byte, error) {
 	if v.IsNil() {
 		return append(b, "null"...), nil
 	}
@@ -393,7 +426,7 @@ func encodeFloatRows(b []byte, v reflect.Value) ([]byte, error) {
 		count += len(r)
 	}
 	b = append(b, '[')
-	b, err := inPieces(b, len(rows), count, func(b []byte, lo, hi int) ([]byte, error) {
+	b, err := e.inPieces(b, len(rows), count, func(b []byte, lo, hi int) ([]byte, error) {
 		for i, r := range rows[lo:hi] {
 			if lo+i > 0 {
 				b = append(b, ',')
@@ -432,17 +465,17 @@ func appendFloats(b []byte, x []float64, first bool) ([]byte, error) {
 	return b, nil
 }
 
-// inPieces appends write(b, 0, n), splitting [0, n) into one piece per
-// processor written side by side when the values number at least
-// parallelFloats.
-func inPieces(b []byte, n, values int, write func(b []byte, lo, hi int) ([]byte, error)) ([]byte, error) {
-	// Room for the values at their usual width (up to 24 bytes with the
-	// comma), so that b grows once rather than by doubling.
-	b = slices.Grow(b, 24*values+n+2)
-	pieces := min(runtime.GOMAXPROCS(0), n)
-	if values < parallelFloats || pieces < 2 {
-		return write(b, 0, n)
+// inPieces appends write(b, 0, n). When the values number at least
+// parallelFloats it splits [0, n) into one piece per processor, written
+// side by side, each into a buffer of its own sized for its values (24
+// bytes each with the comma, their usual width at most); b and the pieces
+// go to e's chunks and the text after them to a fresh buffer, which it
+// returns. The bytes do not depend on the number of processors.
+func (e *encodeState) inPieces(b []byte, n, values int, write func(b []byte, lo, hi int) ([]byte, error)) ([]byte, error) {
+	if values < parallelFloats || n < 2 {
+		return write(slices.Grow(b, 24*values+n+2), 0, n)
 	}
+	pieces := min(runtime.GOMAXPROCS(0), n)
 	out := make([][]byte, pieces)
 	errs := make([]error, pieces)
 	var wg sync.WaitGroup
@@ -451,18 +484,18 @@ func inPieces(b []byte, n, values int, write func(b []byte, lo, hi int) ([]byte,
 		go func() {
 			defer wg.Done()
 			lo, hi := k*n/pieces, (k+1)*n/pieces
-			out[k], errs[k] = write(make([]byte, 0, 24*(hi-lo)*values/n), lo, hi)
+			out[k], errs[k] = write(make([]byte, 0, (24*values/n+1)*(hi-lo)), lo, hi)
 		}()
 	}
-	b, errs[0] = write(b, 0, n/pieces)
+	out[0], errs[0] = write(make([]byte, 0, (24*values/n+1)*(n/pieces)), 0, n/pieces)
 	wg.Wait()
-	for k, p := range out {
-		if errs[k] != nil {
-			return b, errs[k]
+	for _, err := range errs {
+		if err != nil {
+			return b, err
 		}
-		b = append(b, p...)
 	}
-	return b, nil
+	e.chunks = append(append(e.chunks, b), out...)
+	return make([]byte, 0, 4096), nil
 }
 
 const hexDigits = "0123456789abcdef"
