@@ -35,6 +35,9 @@ type Analysis struct {
 	// with no SVD), which depends on the topology alone; each solve takes
 	// a copy.
 	counts *statics.Report
+	// ordered is the order Matrices computes on the dense path, once,
+	// shared with the analyses With makes.
+	ordered *lazyOrder
 
 	// Storage of finished solves, taken up again by later ones: matrix
 	// values and sparse factors, each owned by one solve at a time.
@@ -49,13 +52,14 @@ func NewAnalysis(m *model.Model, opt Options) *Analysis {
 	opt = opt.withDefaults()
 	nb := newNumbering(m)
 	a := &Analysis{
-		opt:   opt,
-		dim:   m.Dim,
-		nodes: m.NodeCount(),
-		ends:  make([][2]int, len(m.Members)),
-		kinds: make([]model.MemberKind, len(m.Members)),
-		nb:    nb,
-		pat:   newPattern(m, nb),
+		ordered: &lazyOrder{},
+		opt:     opt,
+		dim:     m.Dim,
+		nodes:   m.NodeCount(),
+		ends:    make([][2]int, len(m.Members)),
+		kinds:   make([]model.MemberKind, len(m.Members)),
+		nb:      nb,
+		pat:     newPattern(m, nb),
 	}
 	for e, mem := range m.Members {
 		a.ends[e], a.kinds[e] = mem.Ends, mem.Kind

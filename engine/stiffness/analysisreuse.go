@@ -45,11 +45,17 @@ func (l *freeList[T]) put(v T) {
 func (a *Analysis) With(opt Options) *Analysis {
 	opt = opt.withDefaults()
 	b := &Analysis{opt: opt, dim: a.dim, nodes: a.nodes, ends: a.ends, kinds: a.kinds,
-		nb: a.nb, pat: a.pat, sym: a.sym, counts: a.counts}
+		nb: a.nb, pat: a.pat, sym: a.sym, counts: a.counts, ordered: a.ordered}
 	if b.sym == nil && a.nb.equations > 0 && resolvePath(opt, a.nb.equations) == Sparse {
 		b.sym = sparse.Analyse(a.pat.k, sparse.Options{Workers: opt.Workers, Reporter: opt.Reporter})
 	}
 	return b
+}
+
+// lazyOrder is an order computed on first use.
+type lazyOrder struct {
+	once sync.Once
+	sym  *sparse.Analysis
 }
 
 // resolvePath returns the path opt chooses for a system of the given
@@ -91,7 +97,9 @@ func (a *Analysis) Matrices(ctx context.Context, m *model.Model) (*Matrices, err
 	}
 	mx.Symbolic = a.sym
 	if mx.Symbolic == nil && nb.equations > 0 {
-		mx.Symbolic = sparse.Analyse(sys.k, sparse.Options{Workers: a.opt.Workers})
+		// The order depends on the pattern alone: one for every step.
+		a.ordered.once.Do(func() { a.ordered.sym = sparse.Analyse(sys.k, sparse.Options{Workers: a.opt.Workers}) })
+		mx.Symbolic = a.ordered.sym
 	}
 	return mx, nil
 }

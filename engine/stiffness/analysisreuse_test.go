@@ -21,6 +21,7 @@ func TestAnalysisMatricesMatchAssemble(t *testing.T) {
 	ctx := context.Background()
 	for _, opt := range []Options{{Path: Sparse, Workers: 1}, {DenseLimit: 1 << 20}} {
 		an := NewAnalysis(m0, opt)
+		var first *sparse.Analysis
 		for _, depth := range []float64{3, 4.5} {
 			m, err := m0.WithParameters(map[string]float64{"depth": depth})
 			if err != nil {
@@ -40,6 +41,11 @@ func TestAnalysisMatricesMatchAssemble(t *testing.T) {
 			}
 			if opt.Path == Sparse && got.Symbolic != an.sym {
 				t.Errorf("depth %g: the analysis's order was not reused", depth)
+			}
+			if first == nil {
+				first = got.Symbolic
+			} else if got.Symbolic != first {
+				t.Errorf("path %q depth %g: the order was computed again for a later step", opt.Path, depth)
 			}
 			f := make([]float64, got.K.N)
 			for i := range f {
