@@ -359,7 +359,7 @@ func (st *setting) solve(ctx context.Context, opt Options, stats *Stats, rep pro
 	switch opt.Method {
 	case AllCandidates:
 		prog := st.build(st.useful(st.g.allCandidates()))
-		res, err := st.run(ctx, prog, opt, stats, rep)
+		res, err := st.run(ctx, prog, opt, nil, stats, rep)
 		if err != nil {
 			return nil, nil, err
 		}
@@ -396,9 +396,15 @@ func (st *setting) useful(list []candidate) []candidate {
 	return out
 }
 
-// run solves one program by the interior-point method.
-func (st *setting) run(ctx context.Context, prog *program, opt Options, stats *Stats, rep progress.Reporter) (*lpResult, error) {
-	res, err := interiorPoint(ctx, prog.a, prog.b, prog.c, prog.rowCoord, opt.Tolerance, rep)
+// run solves one program by the interior-point method, from warm (nil
+// for Mehrotra's starting point; a warm start that fails to converge is
+// retried from Mehrotra's point).
+func (st *setting) run(ctx context.Context, prog *program, opt Options, warm *warmPoint, stats *Stats, rep progress.Reporter) (*lpResult, error) {
+	res, err := interiorPoint(ctx, prog.a, prog.b, prog.c, prog.rowCoord, opt.Tolerance, warm, rep)
+	if warm != nil && errors.Is(err, errNoConvergence) {
+		stats.InteriorPointIterations += res.iterations
+		res, err = interiorPoint(ctx, prog.a, prog.b, prog.c, prog.rowCoord, opt.Tolerance, nil, rep)
+	}
 	if err != nil {
 		return nil, st.runError(err, prog)
 	}

@@ -156,8 +156,9 @@ type Options struct {
 	// MaxIterations caps the member-adding iterations; default 100.
 	MaxIterations int
 	// Tolerance is the interior-point relative tolerance; default 1e-9.
-	// Member adding solves its intermediate programs to 1e-6 and only the
-	// last to Tolerance.
+	// Member adding solves its intermediate programs more loosely (1e-6
+	// in the plane; in space the first to 1e-3 and the others to 1e-4)
+	// and only the last to Tolerance.
 	Tolerance float64
 	// AreaThreshold keeps members whose area is at least this fraction of
 	// the largest area; default 1e-4.

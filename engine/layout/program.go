@@ -1,5 +1,7 @@
 package layout
 
+import "math"
+
 // program is the linear program of a layout problem over a set of members
 // (candidate indices), in standard form min cᵀx, A x = b, x ≥ 0.
 //
@@ -230,4 +232,30 @@ func (p *program) artificialBasis() []int {
 		}
 	}
 	return basis
+}
+
+// warmFor maps the point w of program p onto program next, whose members
+// are p's followed by new ones, over the same rows (one case only): the
+// new members' columns are marked new (NaN, see warmPoint), the others
+// keep their values. It is nil when w is nil or next is not such a
+// program.
+func (p *program) warmFor(next *program, w *warmPoint) *warmPoint {
+	if w == nil || p.cases != 1 || next.cases != 1 || p.freeRows != next.freeRows || len(next.members) < len(p.members) {
+		return nil
+	}
+	for i, c := range p.members {
+		if next.members[i] != c {
+			return nil
+		}
+	}
+	oldCols, newCols := 2*len(p.members), 2*len(next.members)
+	out := &warmPoint{y: append([]float64(nil), w.y...), x: make([]float64, len(next.c)), s: make([]float64, len(next.c))}
+	copy(out.x, w.x[:oldCols])
+	copy(out.s, w.s[:oldCols])
+	for j := oldCols; j < newCols; j++ {
+		out.x[j], out.s[j] = math.NaN(), math.NaN()
+	}
+	copy(out.x[newCols:], w.x[oldCols:])
+	copy(out.s[newCols:], w.s[oldCols:])
+	return out
 }

@@ -73,7 +73,10 @@ type Stats struct {
 	// iterations.
 	Iterations, InteriorPointIterations int
 	MembersInProgram                    int // members in the final program
-	Added                               int // members added after the first program
+	// WarmStarts counts the programs whose interior-point solve started
+	// from the last program's central iterate.
+	WarmStarts int
+	Added      int // members added after the first program
 	// OptimalityGap is the largest relative violation of the dual limits by
 	// a candidate outside the final program, max(0, ratio − 1): the volume
 	// found is within this fraction of the optimum over all candidates.

@@ -25,8 +25,8 @@ func spaceBridge(nx int) Problem {
 }
 
 // BenchmarkSpaceBridge times member adding on spaceBridge and reports the
-// rounds, the members of the final program, the interior-point iterations
-// and the optimality gap. The 20 × 10 × 10 grid has 2,541 nodes, 3.23
+// rounds, the members of the final program, the interior-point iterations,
+// the warm-started programs and the optimality gap. The 20 × 10 × 10 grid has 2,541 nodes, 3.23
 // million node pairs and 2.67 million candidates after the gcd pruning.
 // Run with -benchtime=1x.
 func BenchmarkSpaceBridge(b *testing.B) {
@@ -51,6 +51,7 @@ func BenchmarkSpaceBridge(b *testing.B) {
 			b.ReportMetric(float64(l.Stats.InteriorPointIterations), "IPM_iterations")
 			b.ReportMetric(l.Stats.OptimalityGap, "gap")
 			b.ReportMetric(float64(len(l.Members)), "members")
+			b.ReportMetric(float64(l.Stats.WarmStarts), "warm_starts")
 		})
 	}
 }
