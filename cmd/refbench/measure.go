@@ -195,9 +195,13 @@ var _ io.Writer = (*countingWriter)(nil)
 func runOurs(ctx context.Context, spec *model.Spec, params []byte, s *sparse.Matrix, g []float64, caseID string) (ours, []float64, sparse.Stats, error) {
 	var r ours
 	start := time.Now()
+	// As the server decodes (the adapter's decode, without the schema
+	// sample): DecodeStrict, or encoding/json for input it declines.
 	var p protocol.SolveParams
-	if err := json.Unmarshal(params, &p); err != nil {
-		return r, nil, sparse.Stats{}, err
+	if protocol.DecodeStrict(params, &p) != nil {
+		if err := json.Unmarshal(params, &p); err != nil {
+			return r, nil, sparse.Stats{}, err
+		}
 	}
 	r.decode = time.Since(start)
 	start = time.Now()

@@ -63,7 +63,7 @@ func phases(w io.Writer, m measurement) {
 	row := func(name string, ours float64, reference string) {
 		fmt.Fprintf(w, "| %s | %.3f | %s |\n", name, ours, reference)
 	}
-	row("request: JSON decode (in process, plain Unmarshal)", med(func(r ours) time.Duration { return r.decode }), "")
+	row("request: JSON decode (in process, protocol.DecodeStrict)", med(func(r ours) time.Duration { return r.decode }), "")
 	row("request: compile", med(func(r ours) time.Duration { return r.compile }), "")
 	row("request: assemble", med(func(r ours) time.Duration { return r.assemble }), "")
 	row("request: order + symbolic", med(func(r ours) time.Duration { return r.order }), "")
