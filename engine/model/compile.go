@@ -226,6 +226,7 @@ func (c *compiler) run() {
 	c.supports()
 	c.loadCases()
 	c.combinations()
+	c.patterns()
 	if len(s.Nodes) == 0 {
 		c.problem("nodes", "the model has no nodes; add at least two nodes and a member between them")
 	}

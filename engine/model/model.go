@@ -148,6 +148,10 @@ type MemberLoad struct {
 type Combination struct {
 	ID    string
 	Terms []Term
+	// Pattern is the id of the pattern that generated the combination
+	// (after the given combinations in Model.Combinations); empty for a
+	// given one.
+	Pattern string
 }
 
 // Term is one case of a combination with its factor.

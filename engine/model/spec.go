@@ -28,6 +28,8 @@ type Spec struct {
 	Supports   []SupportSpec
 	LoadCases  []LoadCaseSpec
 	Combos     []CombinationSpec
+	// Patterns generate combinations for pattern loading (patterns.go).
+	Patterns []PatternSpec
 }
 
 // UnitsSpec names the length and force units (length: m, cm, mm, ft, in;
