@@ -37,6 +37,7 @@ func solveHeld(ctx context.Context, m *model.Model, nb *numbering, equations []i
 		names = append(names, fmt.Sprintf("node %q %s", m.NodeIDs[nb.node[f]], model.ComponentNames[nb.component[f]]))
 	}
 	opt.StabilityLimit = -1
+	opt.Fold = nil // the held cases are rescaled below, whole
 	r, err := Solve(ctx, &held, opt)
 	if err != nil {
 		return nil, false

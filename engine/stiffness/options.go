@@ -61,4 +61,16 @@ type Options struct {
 	// negative value none. The exact extremes along each member are found
 	// whatever the stations.
 	Stations int
+	// Fold, when not nil, receives each case's result as soon as it is
+	// recovered, with its index in Result.Cases, one call at a time (from
+	// the recovering goroutines, in no fixed order). When it returns
+	// false, Result.Cases keeps only the case's id, kind and scalars
+	// (residual, balance, sums, largest displacement and moment), without
+	// its per-node and per-member arrays, so a caller that folds the
+	// cases into a running summary (package envelope) holds one case per
+	// worker at a time instead of all of them. Result.Unchecked and the
+	// warnings still cover every case. Cases solved by iteration
+	// (one-sided members, second order) and by the held-mechanism path
+	// are not folded: they stay whole in Result.Cases.
+	Fold func(index int, c *CaseResult) (keep bool)
 }

@@ -5,6 +5,7 @@ import (
 	"errors"
 	"fmt"
 	"runtime"
+	"sync"
 	"time"
 
 	"gusset/engine/fault"
@@ -100,6 +101,8 @@ type run struct {
 	svd       bool // the model has springs: the stability report needs the SVD
 	sys       *system
 	path      Path
+	fold      *caseFold // see keep; nil until a case is folded
+	foldOnce  sync.Once
 }
 
 // check resolves the requested cases, numbers the freedoms, validates the
@@ -294,7 +297,7 @@ func (r *run) recoverAll(solutions *solutions) error {
 			return err
 		}
 		cr.ID, cr.Combination = rq.id, rq.combination
-		r.res.Cases[i] = *cr
+		r.keep(i, cr)
 		return nil
 	}, func(done int) { r.rep.Progress("recovering", done, len(requests), nil) })
 	if err != nil {
@@ -302,8 +305,7 @@ func (r *run) recoverAll(solutions *solutions) error {
 	}
 	r.rep.Progress("recovering", len(requests), len(requests), nil)
 	r.res.Stats.Recover = time.Since(start)
-	r.res.Unchecked = uncheckedNotes(r.m, r.res.Cases, maxUncheckedNotes)
-	r.res.Warnings = append(r.res.Warnings, bendingCaveat(r.m, r.res.Cases)...)
+	r.caseNotes()
 	return nil
 }
 
