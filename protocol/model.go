@@ -25,6 +25,9 @@ type Model struct {
 	LoadCases []LoadCase `json:"load_cases,omitempty"`
 	// Combinations are factored sums of load cases.
 	Combinations []Combination `json:"combinations,omitempty"`
+	// Patterns generate combinations for pattern loading (every on/off
+	// pattern of variable cases), which solve reports and envelopes.
+	Patterns []Pattern `json:"patterns,omitempty"`
 }
 
 // Units names the unit of length and of force. Both default to m and kN.

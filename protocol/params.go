@@ -20,6 +20,10 @@ type SolveParams struct {
 	// styled by the sense of their axial force; a 3D model in an
 	// isometric view, a plan and an elevation.
 	Picture bool `json:"picture,omitempty"`
+	// Envelope, when given, adds the envelope of the chosen cases to the
+	// result: per node, support and member the largest and smallest value
+	// of each result and the case that governs it.
+	Envelope *EnvelopeParams `json:"envelope,omitempty"`
 }
 
 // ReciprocateParams are the params of reciprocate: the reciprocal force

@@ -23,6 +23,9 @@ type SolveResult struct {
 	// Picture is the SVG drawing of the first reported case, when asked
 	// for.
 	Picture string `json:"picture,omitempty"`
+	// Envelope is the envelope of the cases params.envelope names, when
+	// asked for.
+	Envelope *Envelope `json:"envelope,omitempty"`
 	// Caution: results are for preliminary design.
 	Caution string `json:"caution"`
 }

@@ -67,6 +67,7 @@ func specOf(w *protocol.Model) *model.Spec {
 	for i, c := range w.Combinations {
 		s.Combos[i] = model.CombinationSpec{ID: c.ID, Factors: c.Factors}
 	}
+	s.Patterns = patternSpecs(w.Patterns)
 	return s
 }
 

@@ -14,11 +14,18 @@ import (
 
 // solve runs the stiffness analysis of the request's model.
 func (a *Adapter) solve(ctx context.Context, r *request[protocol.SolveParams]) (*protocol.SolveResult, error) {
-	res, err := a.analyseWith(ctx, r.Model, stiffness.Options{Cases: r.Params.Cases, Reporter: r.Stream, Stations: stationOption(r.Params.Stations)})
+	plan, err := planEnvelope(r.Model, r.Params)
 	if err != nil {
 		return nil, err
 	}
+	res, err := a.analyseWith(ctx, r.Model, stiffness.Options{Cases: plan.solve, Reporter: r.Stream, Stations: stationOption(r.Params.Stations),
+		Fold: plan.fold()})
+	if err != nil {
+		return nil, err
+	}
+	env := plan.finish(r.Model, res)
 	out := solveResult(r.Model, res)
+	out.Envelope = env
 	for _, w := range r.Warnings {
 		out.Warnings = append(out.Warnings, w.Path+": "+w.Message)
 	}

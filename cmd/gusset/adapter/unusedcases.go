@@ -21,7 +21,9 @@ var caseProblem = regexp.MustCompile(`^/params/model/(load_cases|combinations)/(
 // counts as used.
 func dropUnusedBadCases(w *protocol.Model, selected []string, err error) ([]protocol.Problem, bool) {
 	var pe *protocol.Error
-	if selected == nil || !errors.As(err, &pe) || pe.Data == nil || len(pe.Data.Problems) == 0 {
+	// A pattern's generated combinations use its cases unseen here, so a
+	// model with patterns keeps every case.
+	if selected == nil || len(w.Patterns) > 0 || !errors.As(err, &pe) || pe.Data == nil || len(pe.Data.Problems) == 0 {
 		return nil, false
 	}
 	used := map[string]bool{}

@@ -73,5 +73,6 @@ func WireModel(s *model.Spec) *protocol.Model {
 	for _, c := range s.Combos {
 		w.Combinations = append(w.Combinations, protocol.Combination{ID: c.ID, Factors: c.Factors})
 	}
+	w.Patterns = patternWire(s.Patterns)
 	return w
 }
