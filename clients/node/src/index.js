@@ -9,5 +9,6 @@
 
 export { Client, Call, Sweep } from './client.js';
 export { memberResult, memberResults, momentDiagram } from './members.js';
+export { governing, memberEnvelope, onOffPattern } from './envelope.js';
 export { BUILD_HINT, defaultHints, findBinary } from './binary.js';
 export * from './errors.js';

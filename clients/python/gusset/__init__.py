@@ -20,6 +20,7 @@ design against the local codes and standards.
 from .binary import BUILD_HINT, find_binary
 from .client import Call, Client, Progress, Sweep
 from .members import member_result, member_results, moment_diagram
+from .envelope import governing, member_envelope, on_off_pattern
 from .errors import (
     Cancelled,
     ClientClosed,
@@ -55,6 +56,9 @@ from .errors import (
 __version__ = "0.1.0"
 
 __all__ = [
+    "governing",
+    "member_envelope",
+    "on_off_pattern",
     "BUILD_HINT",
     "Call",
     "Cancelled",
