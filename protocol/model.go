@@ -157,6 +157,9 @@ type Member struct {
 	// part of it normal to the member. Default global z, or global y for a
 	// vertical member.
 	Orientation []float64 `json:"orientation,omitempty" jsonschema:"minItems=3,maxItems=3"`
+	// Releases (beams only) lists the rotations released at each end: a
+	// hinge that carries no moment about those axes there.
+	Releases *MemberReleases `json:"releases,omitempty"`
 	// BucklingFactor is the effective-length factor k for Euler buckling,
 	// π²EI/(kL)²; default 1.
 	BucklingFactor *float64 `json:"buckling_factor,omitempty"`

@@ -48,6 +48,7 @@ func (c *compiler) members() {
 				ms.ID, ms.Section, listIDs("; sections are: ", len(s.Sections), func(i int) string { return s.Sections[i].ID }))
 		}
 		c.memberKind(i)
+		c.memberReleases(i)
 		if ms.Orientation != nil {
 			c.orientation(i)
 		}

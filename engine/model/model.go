@@ -62,6 +62,11 @@ type Member struct {
 	// BucklingCurve is the EN 1993-1-1 buckling curve ("a0", "a", "b",
 	// "c" or "d") for the compression check; empty when not given.
 	BucklingCurve string
+	// Releases holds, per end (first, second), the rotation components
+	// released at that end of a beam, in the member's local axes: bit 0
+	// torsion (rx), bit 1 bending about local y (ry), bit 2 bending about
+	// local z (rz); see ReleaseBit. Zero for a member without releases.
+	Releases [2]uint8
 }
 
 // Material is a compiled material. Optional limits are 0 when not given

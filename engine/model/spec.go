@@ -110,6 +110,10 @@ type MemberSpec struct {
 	// BucklingCurve is the EN 1993-1-1 buckling curve, "a0", "a", "b",
 	// "c" or "d"; empty means not given.
 	BucklingCurve string
+	// Releases lists, per end (first, second), the rotation components
+	// released there in the member's local axes: "rx" (torsion), "ry",
+	// "rz" (bending); a 2D beam has "rz" only. Nil lists mean none.
+	Releases [2][]string
 }
 
 // SupportSpec fixes a subset of a node's freedoms, with optional springs

@@ -97,6 +97,9 @@ func Analyse(ctx context.Context, m *model.Model, opt Options) (*Report, error) 
 	if err := checkOrientations(m); err != nil {
 		return nil, err
 	}
+	if _, err := FreeRotations(m); err != nil {
+		return nil, err
+	}
 	l := NewLayout(m)
 	r := newReport(m, l)
 	if r.Freedoms > opt.DenseLimit || r.Columns > opt.DenseLimit {

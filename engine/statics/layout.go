@@ -38,9 +38,11 @@ type Column struct {
 // Layout describes the rows and columns of a model's equilibrium matrix.
 type Layout struct {
 	// Rows are the unconstrained freedoms, node by node, components in the
-	// order X, Y, (Z), then rotations at nodes that a beam touches.
+	// order X, Y, (Z), then rotations at nodes that a beam touches, less
+	// the rotations that no member end resists (FreeRotations).
 	Rows []Freedom
-	// Columns are the member forces, member by member.
+	// Columns are the member forces, member by member, less those that
+	// end releases make zero (Released).
 	Columns []Column
 	// Constraints counts the fixed components at nodes where the component
 	// exists (translations everywhere, rotations only at beam nodes).
@@ -90,16 +92,27 @@ func NodeComponents(dim int, rotational bool) []int {
 	return []int{model.X, model.Y, model.Z}
 }
 
+// beamQuantities and planeBeamQuantities are the force quantities of a
+// 3D and a 2D beam, in column order.
+var (
+	beamQuantities      = [...]Quantity{Axial, Torsion, MomentZ1, MomentZ2, MomentY1, MomentY2}
+	planeBeamQuantities = [...]Quantity{Axial, MomentZ1, MomentZ2}
+)
+
 // NewLayout returns the layout of m's equilibrium matrix.
 func NewLayout(m *model.Model) *Layout {
 	rot := RotationalNodes(m)
 	fixed := FixedComponents(m)
+	free, _ := FreeRotations(m) // a skew free rotation is reported by Analyse
 	l := &Layout{}
 	for n := range m.NodeCount() {
 		for _, c := range NodeComponents(m.Dim, rot[n]) {
 			if fixed[n][c] {
 				l.Constraints++
 				continue
+			}
+			if free != nil && c >= model.RX && free[n]&model.ReleaseBit(c) != 0 {
+				continue // no member resists it: no freedom (release.go)
 			}
 			l.Rows = append(l.Rows, Freedom{Node: n, Component: c})
 		}
@@ -110,12 +123,15 @@ func NewLayout(m *model.Model) *Layout {
 			continue
 		}
 		l.HasBeams = true
+		qs := beamQuantities[:]
 		if m.Dim == 2 {
-			l.Columns = append(l.Columns, Column{e, Axial}, Column{e, MomentZ1}, Column{e, MomentZ2})
-			continue
+			qs = planeBeamQuantities[:]
 		}
-		l.Columns = append(l.Columns, Column{e, Axial}, Column{e, Torsion},
-			Column{e, MomentZ1}, Column{e, MomentZ2}, Column{e, MomentY1}, Column{e, MomentY2})
+		for _, q := range qs {
+			if !Released(&m.Members[e], q) {
+				l.Columns = append(l.Columns, Column{e, q})
+			}
+		}
 	}
 	return l
 }

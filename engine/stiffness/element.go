@@ -18,6 +18,7 @@ type element struct {
 	axes    [3][3]float64
 	length  float64
 	ea      float64
+	rel     condensation // the end releases (release.go)
 }
 
 // build fills el for member e. The model has been validated, so axes exist.
@@ -83,6 +84,7 @@ func (el *element) build(m *model.Model, nb *numbering, e int) {
 			set(3, p+3, -gj)
 		}
 	}
+	el.release(&mem, m.Dim)
 	el.fillTransform(m.Dim, p, n)
 }
 

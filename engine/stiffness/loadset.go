@@ -67,6 +67,7 @@ func (ls *loadSet) equivalent(f []float64, m *model.Model, el *element, e int) {
 			el.addMemberLoad(f, wl.load, wl.factor)
 		}
 	}
+	el.condenseLoads(f) // end releases (release.go)
 }
 
 // rightHandSide returns the loads on the unconstrained freedoms (nodal plus

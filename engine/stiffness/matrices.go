@@ -102,6 +102,9 @@ func MemberFreedoms(m *model.Model, e int) int {
 // local (row-major, 2·MemberFreedoms(m, e) square, symmetric) given in
 // the member's local axes: it is turned to global axes (Tᵀ·local·T),
 // scaled by Scale, and its entries at unconstrained freedoms are added.
+// For a beam with end releases, local is first reduced as its stiffness
+// is condensed (the released rotations following the unreleased
+// freedoms; see condenseMatrix in release.go); local is not modified.
 // m must be the model given to Assemble.
 func (mx *Matrices) AddMember(dst *sparse.Matrix, m *model.Model, e int, local []float64) {
 	var el element
@@ -109,6 +112,12 @@ func (mx *Matrices) AddMember(dst *sparse.Matrix, m *model.Model, e int, local [
 	n := el.size
 	if len(local) != n*n {
 		panic("stiffness: AddMember with a local matrix of the wrong size")
+	}
+	var reduced [144]float64
+	if el.rel.n > 0 || el.rel.twist != [2]bool{} {
+		copy(reduced[:n*n], local)
+		el.condenseMatrix(reduced[:n*n])
+		local = reduced[:n*n]
 	}
 	// g = tᵀ·local·t
 	var lt, g [144]float64

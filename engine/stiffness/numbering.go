@@ -85,6 +85,7 @@ func (nb *numbering) setSupports(m *model.Model) (fixed []bool) {
 		nb.supportOf[i] = -1
 	}
 	fixed = make([]bool, nb.total)
+	nb.holdFreeRotations(m, fixed)
 	for si, s := range m.Supports {
 		for c := range 6 {
 			if !hasComponent(m.Dim, c, nb.rotational[s.Node]) {

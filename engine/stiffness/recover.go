@@ -244,6 +244,7 @@ func recoverMember(m *model.Model, nb *numbering, ls *loadSet, u []float64, cr *
 	sec := &m.Sections[m.Members[e].Section]
 	sc.loading.gather(ls, m, el, e, loaded)
 	if el.beam {
+		el.restoreReleased(ul[:n]) // end releases (release.go)
 		alongBeam(&cr.Members[e], el, sec, &m.Materials[m.Members[e].Material], p[:n], ul[:n], &sc.loading, &sc.field)
 	} else {
 		alongBar(&cr.Members[e], el, p[:n], cr.Displacements[m.Members[e].Ends[0]], cr.Displacements[m.Members[e].Ends[1]])

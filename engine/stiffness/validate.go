@@ -59,6 +59,7 @@ func validate(m *model.Model, nb *numbering) error {
 			add(fmt.Sprintf("/sections/%d/torsion_constant", i), "section %q: 3D beams need a positive torsion constant", sec.ID)
 		}
 	}
+	validateReleases(m, add)
 	for ci, lc := range m.Cases {
 		for li, nl := range lc.Nodal {
 			moment := nl.Moment[2] != 0

@@ -20,6 +20,7 @@ design against the local codes and standards.
 from .binary import BUILD_HINT, find_binary
 from .client import Call, Client, Progress, Sweep
 from .members import member_result, member_results, moment_diagram
+from .releases import released
 from .envelope import governing, member_envelope, on_off_pattern
 from .errors import (
     Cancelled,
@@ -96,5 +97,6 @@ __all__ = [
     "member_result",
     "member_results",
     "moment_diagram",
+    "released",
     "from_wire",
 ]

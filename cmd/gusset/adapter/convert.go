@@ -45,6 +45,9 @@ func specOf(w *protocol.Model) *model.Spec {
 		s.Members[i] = model.MemberSpec{ID: m.ID, BucklingCurve: m.BucklingCurve, Ends: memberEnds(m.Ends), Material: m.Material, Section: m.Section,
 			Type: m.Type, Orientation: m.Orientation, BucklingFactor: m.BucklingFactor}
 	}
+	for i, m := range w.Members {
+		s.Members[i].Releases = releasesSpec(m.Releases)
+	}
 	s.Supports = make([]model.SupportSpec, len(w.Supports))
 	for i, p := range w.Supports {
 		s.Supports[i] = model.SupportSpec{Node: p.Node, Fix: p.Fix, Springs: p.Springs, Displacement: p.Displacement}

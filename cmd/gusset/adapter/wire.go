@@ -55,6 +55,9 @@ func WireModel(s *model.Spec) *protocol.Model {
 		w.Members = append(w.Members, protocol.Member{ID: m.ID, Ends: []string{m.Ends[0], m.Ends[1]}, Material: m.Material, Section: m.Section,
 			Type: m.Type, Orientation: m.Orientation, BucklingFactor: m.BucklingFactor, BucklingCurve: m.BucklingCurve})
 	}
+	for i, m := range s.Members {
+		w.Members[i].Releases = releasesWire(m.Releases)
+	}
 	for _, p := range s.Supports {
 		w.Supports = append(w.Supports, protocol.Support{Node: p.Node, Fix: p.Fix, Springs: p.Springs, Displacement: p.Displacement})
 	}
