@@ -150,9 +150,11 @@ type Member struct {
 	Material string `json:"material"`
 	// Section is a section id.
 	Section string `json:"section"`
-	// Type is "bar" (pin-jointed, axial force only; the default) or "beam"
-	// (rigid-jointed: axial, shear, bending, and torsion in 3D).
-	Type string `json:"type,omitempty" jsonschema:"enum=bar,enum=beam"`
+	// Type is "bar" (pin-jointed, axial force only; the default), "beam"
+	// (rigid-jointed: axial, shear, bending, and torsion in 3D) or
+	// "cable" (a tension-only bar: slack, with neither stiffness nor
+	// force, when the loads would compress it).
+	Type string `json:"type,omitempty" jsonschema:"enum=bar,enum=beam,enum=cable"`
 	// Orientation (3D beams) is a vector that fixes the local y axis: the
 	// part of it normal to the member. Default global z, or global y for a
 	// vertical member.
@@ -167,6 +169,17 @@ type Member struct {
 	// compression check: "a0", "a", "b", "c" or "d" (Table 6.1); default
 	// "d", the lowest, with a note in the result's unchecked list.
 	BucklingCurve string `json:"buckling_curve,omitempty" jsonschema:"enum=a0,enum=a,enum=b,enum=c,enum=d"`
+	// Behaviour makes a bar one-sided: "tension-only" (slack when the
+	// loads would compress it) or "compression-only" (out when they would
+	// stretch it); absent means both. A model with one-sided members is
+	// solved case by case by an active-set iteration (see the case's
+	// iteration report). Bars and cables only: a beam is refused.
+	Behaviour string `json:"behaviour,omitempty" jsonschema:"enum=tension-only,enum=compression-only"`
+	// Pretension is an initial axial force of a bar or cable (force
+	// units, tension positive, at least 0), applied as the equivalent
+	// initial strain −pretension/(E·A): a member between fixed ends
+	// carries exactly it. A slack member loses it.
+	Pretension *float64 `json:"pretension,omitempty" jsonschema:"minimum=0"`
 }
 
 // Support fixes freedoms of a node, with optional springs and prescribed

@@ -24,6 +24,10 @@ type SolveParams struct {
 	// result: per node, support and member the largest and smallest value
 	// of each result and the case that governs it.
 	Envelope *EnvelopeParams `json:"envelope,omitempty"`
+	// SecondOrder, when present, turns on the second-order (P-Δ)
+	// analysis: the geometric stiffness of the axial forces is added and
+	// each case is solved on its own, iterated to convergence.
+	SecondOrder *SecondOrder `json:"second_order,omitempty"`
 }
 
 // ReciprocateParams are the params of reciprocate: the reciprocal force

@@ -79,6 +79,10 @@ type CaseResult struct {
 	MaxUtilisation Extreme `json:"max_utilisation"`
 	// UncheckedMembers counts the members with a null utilisation.
 	UncheckedMembers int `json:"unchecked_members"`
+	// Iteration reports how the case converged when it was solved on its
+	// own by iteration (one-sided members or second order); absent for a
+	// case solved by superposition.
+	Iteration *CaseIteration `json:"iteration,omitempty"`
 	// Residual is the scaled equilibrium residual ‖K·u − f‖/‖f‖.
 	Residual float64 `json:"residual"`
 	// BalanceError is ‖Σloads + Σreactions‖ relative to the larger of the

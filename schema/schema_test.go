@@ -44,7 +44,7 @@ func TestValidatorPointers(t *testing.T) {
 		{"boolean coordinate", `true`, ``, "/params/model/nodes/1/at/1"},
 		{"unknown field", `0`, `,"colour":"red"`, "/params/model/members/0"},
 		{"huge number", `1e400`, ``, "/params/model/nodes/1/at/1"},
-		{"bad type", `0`, `,"type":"cable"`, "/params/model/members/0/type"},
+		{"bad type", `0`, `,"type":"rope"`, "/params/model/members/0/type"},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {

@@ -159,7 +159,7 @@ func TestCompileProblems(t *testing.T) {
 		{"zero length by position", triangle, func(s *Spec) { s.Nodes[1].At = []Value{Num(0), Num(0)} }, fault.InvalidModel, "members/0/ends/1", `member "AB" has zero length: its ends "A" and "B"`},
 		{"missing material", triangle, func(s *Spec) { s.Members[2].Material = "oak" }, fault.InvalidModel, "members/2/material", `material "oak", which does not exist; materials are: "steel"`},
 		{"missing section", triangle, func(s *Spec) { s.Members[2].Section = "box" }, fault.InvalidModel, "members/2/section", `section "box"`},
-		{"member type", triangle, func(s *Spec) { s.Members[2].Type = "cable" }, fault.InvalidModel, "members/2/type", `"bar" or "beam"`},
+		{"member type", triangle, func(s *Spec) { s.Members[2].Type = "rope" }, fault.InvalidModel, "members/2/type", `"bar", "cable" or "beam"`},
 		{"member id twice", triangle, func(s *Spec) { s.Members[2].ID = "AB" }, fault.InvalidModel, "members/2/id", "used twice"},
 		{"orientation in 2D", triangle, func(s *Spec) { s.Members[0].Orientation = []float64{0, 0, 1} }, fault.InvalidModel, "members/0/orientation", "only a beam in a 3D model"},
 		{"orientation parallel", portal, func(s *Spec) { s.Members[0].Orientation = []float64{0, 0, 2} }, fault.InvalidModel, "members/0/orientation", "parallel"},

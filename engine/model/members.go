@@ -49,6 +49,7 @@ func (c *compiler) members() {
 		}
 		c.memberKind(i)
 		c.memberReleases(i)
+		c.memberBehaviour(i)
 		if ms.Orientation != nil {
 			c.orientation(i)
 		}
@@ -106,13 +107,15 @@ func (c *compiler) memberKind(i int) {
 	switch ms.Type {
 	case "", "bar":
 		mem.Kind = Bar
+	case "cable":
+		mem.Kind, mem.Cable, mem.Behaviour = Bar, true, TensionOnly
 	case "beam":
 		mem.Kind = Beam
 		if mem.Section >= 0 && c.beamOnSection[mem.Section] < 0 {
 			c.beamOnSection[mem.Section] = i
 		}
 	default:
-		c.problem("members/"+strconv.Itoa(i)+"/type", "member %q has type %q; use \"bar\" or \"beam\"", ms.ID, ms.Type)
+		c.problem("members/"+strconv.Itoa(i)+"/type", "member %q has type %q; use \"bar\", \"cable\" or \"beam\"", ms.ID, ms.Type)
 	}
 }
 

@@ -67,7 +67,27 @@ type Member struct {
 	// torsion (rx), bit 1 bending about local y (ry), bit 2 bending about
 	// local z (rz); see ReleaseBit. Zero for a member without releases.
 	Releases [2]uint8
+	// Behaviour is the sense of axial force a bar can take: Both, or
+	// TensionOnly (cables) or CompressionOnly, which make the analysis
+	// iterate on the set of active members.
+	Behaviour Behaviour
+	// Cable marks a member given as type "cable": a tension-only bar.
+	Cable bool
+	// Pretension is the initial axial force of a bar or cable (force
+	// units, tension positive, never negative), applied as the
+	// equivalent initial strain −Pretension/(E·A); 0 when none.
+	Pretension float64
 }
+
+// Behaviour is the sense of axial force a member can take.
+type Behaviour uint8
+
+// Member behaviours.
+const (
+	Both            Behaviour = iota // tension and compression
+	TensionOnly                      // slack (no stiffness, no force) when it would be compressed
+	CompressionOnly                  // inactive when it would be stretched
+)
 
 // Material is a compiled material. Optional limits are 0 when not given
 // (a given limit is always positive).

@@ -114,6 +114,13 @@ type MemberSpec struct {
 	// released there in the member's local axes: "rx" (torsion), "ry",
 	// "rz" (bending); a 2D beam has "rz" only. Nil lists mean none.
 	Releases [2][]string
+	// Behaviour is "tension-only" or "compression-only" for a bar that
+	// takes force in one sense only; empty means both senses (a cable is
+	// tension-only whatever it says).
+	Behaviour string
+	// Pretension is an initial axial force (tension positive, force
+	// units) of a bar or cable; nil means none.
+	Pretension *float64
 }
 
 // SupportSpec fixes a subset of a node's freedoms, with optional springs

@@ -159,6 +159,9 @@ type Stats struct {
 // factor, and ctx.Err() when ctx is cancelled.
 func Buckling(ctx context.Context, m *model.Model, opt Options) (*Result, error) {
 	opt = opt.withDefaults()
+	if err := refuseOneSided(m); err != nil {
+		return nil, err
+	}
 	caseID, err := defaultCase(m, opt.Case)
 	if err != nil {
 		return nil, err

@@ -30,6 +30,9 @@ import (
 // lowest eigenvalue, and ctx.Err() when ctx is cancelled.
 func Vibration(ctx context.Context, m *model.Model, opt Options) (*Result, error) {
 	opt = opt.withDefaults()
+	if err := refuseOneSided(m); err != nil {
+		return nil, err
+	}
 	start := time.Now()
 	mx, err := stiffness.Assemble(ctx, m, stiffness.Options{Workers: opt.Workers, Reporter: opt.Reporter})
 	if err != nil {

@@ -39,6 +39,15 @@
 // so they act, unfactored, in every load case and every combination;
 // combinations are otherwise the factored sums of their cases.
 //
+// Members with a one-sided Behaviour (cables, tension-only and
+// compression-only bars) and Options.SecondOrder (P-Δ) break
+// superposition: such a solve takes each case and combination on its own
+// through an iteration (iterate.go, activeset.go) that refactorises K with
+// the member state on one symbolic analysis, or updates the last factor by
+// the rank-one terms of the few bars that switched (lowrank.go), and
+// reports how it converged in CaseResult.Iteration. Pretension, like
+// settlement, belongs to its member and acts unfactored in every case.
+//
 // Sign conventions: tension positive. End forces are the forces the nodes
 // exert on the member, in its local axes, so a member in tension N has
 // local x end forces −N at end 1 and +N at end 2. Reactions are the forces

@@ -18,6 +18,9 @@ type loadSet struct {
 	byMember   [][]weightedLoad // per member: its loads (nil when none)
 	selfWeight float64          // factor on the self-weight of every member
 	hasMember  bool
+	// state, when not nil, is the iterated solve's member state that
+	// recovery applies (inactive members, pretension, P-Δ).
+	state *memberState
 }
 
 func newLoadSet(m *model.Model, nb *numbering, terms []model.Term) *loadSet {

@@ -61,6 +61,10 @@ type Options struct {
 	// negative value none. The exact extremes along each member are found
 	// whatever the stations.
 	Stations int
+	// SecondOrder, when not nil, adds the P-Δ geometric stiffness of the
+	// axial forces and iterates each case to convergence (see
+	// SecondOrder); nil is a first-order analysis.
+	SecondOrder *SecondOrder
 	// Fold, when not nil, receives each case's result as soon as it is
 	// recovered, with its index in Result.Cases, one call at a time (from
 	// the recovering goroutines, in no fixed order). When it returns
@@ -70,7 +74,8 @@ type Options struct {
 	// cases into a running summary (package envelope) holds one case per
 	// worker at a time instead of all of them. Result.Unchecked and the
 	// warnings still cover every case. Cases solved by iteration
-	// (one-sided members, second order) and by the held-mechanism path
-	// are not folded: they stay whole in Result.Cases.
+	// (one-sided members, second order) are folded one by one as each
+	// converges; those of the held-mechanism path are not folded: they
+	// stay whole in Result.Cases.
 	Fold func(index int, c *CaseResult) (keep bool)
 }

@@ -230,6 +230,7 @@ func recoverMember(m *model.Model, nb *numbering, ls *loadSet, u []float64, cr *
 	}
 	el.toLocal(ul[:], ug[:])
 	el.localForces(p[:], ul[:])
+	ls.state.adjust(m, el, e, ul[:n], p[:])
 	loaded := ls.memberLoads(e)
 	if loaded {
 		ls.equivalent(fl[:], m, el, e)

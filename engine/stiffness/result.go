@@ -92,6 +92,10 @@ type CaseResult struct {
 	// (signed; about local z, or local y in 3D where that is larger), with
 	// Node −1; Member is −1 when no member is a beam.
 	MaxMoment Peak
+	// Iteration reports the iteration of a case solved on its own (a
+	// model with one-sided members, or a second-order analysis); nil for
+	// a case solved by superposition.
+	Iteration *Iteration
 }
 
 // Stats describes a solve.

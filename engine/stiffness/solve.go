@@ -62,6 +62,9 @@ func solve(ctx context.Context, m *model.Model, opt Options, an *Analysis) (*Res
 	if err := r.countStability(); err != nil {
 		return nil, err
 	}
+	if r.iterated() {
+		return r.solveIterated()
+	}
 	if err := r.assemble(); err != nil {
 		return nil, err
 	}

@@ -46,6 +46,12 @@ const assembleParallel = 8192
 // its range: each value receives the same additions in the same order as
 // with one worker, so the matrix is bit-identical for any worker count.
 func assemble(ctx context.Context, m *model.Model, nb *numbering, pat *pattern, workers int, rep progress.Reporter) (*system, error) {
+	return assembleState(ctx, m, nb, pat, workers, rep, nil)
+}
+
+// assembleState is assemble with each member's stiffness changed as st
+// says (see memberState.modify; nil changes nothing).
+func assembleState(ctx context.Context, m *model.Model, nb *numbering, pat *pattern, workers int, rep progress.Reporter, st *memberState) (*system, error) {
 	a := pat.k
 	sys := &system{k: a, settle: make([]float64, nb.equations)}
 	if workers <= 0 {
@@ -77,10 +83,10 @@ func assemble(ctx context.Context, m *model.Model, nb *numbering, pat *pattern, 
 					crashes[w] = &panicValue{r}
 				}
 			}()
-			errs[w] = assembleRange(ctx, m, nb, pat, sys, bounds[w], bounds[w+1], nil)
+			errs[w] = assembleRange(ctx, m, nb, pat, sys, bounds[w], bounds[w+1], nil, st)
 		}()
 	}
-	errs[0] = assembleRange(ctx, m, nb, pat, sys, bounds[0], bounds[1], rep)
+	errs[0] = assembleRange(ctx, m, nb, pat, sys, bounds[0], bounds[1], rep, st)
 	wg.Wait()
 	for _, c := range crashes {
 		if c != nil {
@@ -118,8 +124,9 @@ func assemble(ctx context.Context, m *model.Model, nb *numbering, pat *pattern, 
 
 // assembleRange adds, in member order, the element entries whose column
 // belongs to a node in [lo, hi) and the settlement terms whose row does.
-// rep, when not nil, receives the progress.
-func assembleRange(ctx context.Context, m *model.Model, nb *numbering, pat *pattern, sys *system, lo, hi int, rep progress.Reporter) error {
+// rep, when not nil, receives the progress; st, when not nil, changes
+// the members' stiffness.
+func assembleRange(ctx context.Context, m *model.Model, nb *numbering, pat *pattern, sys *system, lo, hi int, rep progress.Reporter, st *memberState) error {
 	val := sys.k.Val
 	var el element
 	var kg [144]float64
@@ -141,6 +148,7 @@ func assembleRange(ctx context.Context, m *model.Model, nb *numbering, pat *patt
 		}
 		el.build(m, nb, e)
 		el.globalStiffness(kg[:])
+		st.modify(&el, e, kg[:])
 		n := el.size
 		for i := range n {
 			eqs[i] = nb.equation[el.dofs[i]]

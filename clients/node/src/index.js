@@ -11,5 +11,6 @@ export { Client, Call, Sweep } from './client.js';
 export { memberResult, memberResults, momentDiagram } from './members.js';
 export { released } from './releases.js';
 export { governing, memberEnvelope, onOffPattern } from './envelope.js';
+export { amplification, slackMembers } from './iteration.js';
 export { BUILD_HINT, defaultHints, findBinary } from './binary.js';
 export * from './errors.js';

@@ -22,6 +22,7 @@ from .client import Call, Client, Progress, Sweep
 from .members import member_result, member_results, moment_diagram
 from .releases import released
 from .envelope import governing, member_envelope, on_off_pattern
+from .iteration import amplification, slack_members
 from .errors import (
     Cancelled,
     ClientClosed,
@@ -57,6 +58,8 @@ from .errors import (
 __version__ = "0.1.0"
 
 __all__ = [
+    "amplification",
+    "slack_members",
     "governing",
     "member_envelope",
     "on_off_pattern",

@@ -727,6 +727,10 @@ class Client:
         all). The result holds, per case, displacements, axial forces,
         reactions, stresses and utilisation, aligned with the model's
         arrays, and the stability report. Tension is positive.
+        ``second_order={"tolerance": 1e-6, "max_iterations": 50}`` (either
+        field optional) asks for a P-Delta analysis; it and one-sided
+        members (cables, ``behaviour``) add an ``iteration`` report per
+        case (see ``slack_members`` and ``amplification``).
         """
         return self.call("solve", _whole(model, cases=cases, **options), timeout)  # type: ignore[no-any-return]
 

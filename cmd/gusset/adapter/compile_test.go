@@ -159,7 +159,9 @@ func fastPathAgrees(t *testing.T, v *schema.Validator, k int) {
 		name   string
 		mutate func(m map[string]any)
 	}{
-		{"member type", func(m map[string]any) { member(m, k)["type"] = "cable" }},
+		{"member type", func(m map[string]any) { member(m, k)["type"] = "rope" }},
+		{"member behaviour", func(m map[string]any) { member(m, k)["behaviour"] = "tension" }},
+		{"member pretension negative", func(m map[string]any) { member(m, k)["pretension"] = -1.0 }},
 		{"member unknown field", func(m map[string]any) { member(m, k)["colour"] = "red" }},
 		{"member id empty", func(m map[string]any) { member(m, k)["id"] = "" }},
 		{"member ends count", func(m map[string]any) { member(m, k)["ends"] = []any{"n0"} }},

@@ -43,7 +43,8 @@ func specOf(w *protocol.Model) *model.Spec {
 	s.Members = make([]model.MemberSpec, len(w.Members))
 	for i, m := range w.Members {
 		s.Members[i] = model.MemberSpec{ID: m.ID, BucklingCurve: m.BucklingCurve, Ends: memberEnds(m.Ends), Material: m.Material, Section: m.Section,
-			Type: m.Type, Orientation: m.Orientation, BucklingFactor: m.BucklingFactor}
+			Type: m.Type, Orientation: m.Orientation, BucklingFactor: m.BucklingFactor,
+			Behaviour: m.Behaviour, Pretension: m.Pretension}
 	}
 	for i, m := range w.Members {
 		s.Members[i].Releases = releasesSpec(m.Releases)

@@ -19,7 +19,7 @@ func (a *Adapter) solve(ctx context.Context, r *request[protocol.SolveParams]) (
 		return nil, err
 	}
 	res, err := a.analyseWith(ctx, r.Model, stiffness.Options{Cases: plan.solve, Reporter: r.Stream, Stations: stationOption(r.Params.Stations),
-		Fold: plan.fold()})
+		Fold: plan.fold(), SecondOrder: secondOrderOption(r.Params.SecondOrder)})
 	if err != nil {
 		return nil, err
 	}
@@ -128,6 +128,7 @@ func solveResult(m *model.Model, r *stiffness.Result) *protocol.SolveResult {
 			cr.Reactions[j] = protocol.Reaction{Node: m.NodeIDs[m.Supports[j].Node], Force: re.Force, Moment: re.Moment}
 		}
 		caseSummaries(m, &r.Cases[i], &cr)
+		cr.Iteration = iterationWire(m, c.Iteration)
 		out.Cases[i] = cr
 	}
 	return out
