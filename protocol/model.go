@@ -195,6 +195,15 @@ type Support struct {
 	// Displacement maps fixed components to a prescribed displacement
 	// (settlement), in length units or radians.
 	Displacement map[string]float64 `json:"displacement,omitempty"`
+	// Directions (an inclined support) gives the support axes of its own:
+	// one or two vectors of dimension entries each. The first is the
+	// local x axis. In 2D local y is x turned a quarter turn
+	// anticlockwise. In 3D a second vector fixes local y (its part normal
+	// to x); with one, local y is global z × x, or global y when x is
+	// vertical; local z = x × y. Fix, springs and displacement then name
+	// components along these axes (rotations about them in 3D), and the
+	// reaction is reported in both axes. Absent means the global axes.
+	Directions [][]float64 `json:"directions,omitempty" jsonschema:"minItems=1,maxItems=2"`
 }
 
 // LoadCase is one load case.
@@ -208,6 +217,9 @@ type LoadCase struct {
 	Loads []NodalLoad `json:"loads,omitempty"`
 	// MemberLoads are loads along members.
 	MemberLoads []MemberLoad `json:"member_loads,omitempty"`
+	// AreaLoads are loads spread over panels of a 3D model (see
+	// AreaLoad).
+	AreaLoads []AreaLoad `json:"area_loads,omitempty"`
 }
 
 // NodalLoad is a force and optional moment at a node.

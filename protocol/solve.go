@@ -98,6 +98,11 @@ type Reaction struct {
 	Force []float64 `json:"force"`
 	// Moment has one entry (about z) in 2D and three in 3D.
 	Moment []float64 `json:"moment"`
+	// LocalForce and LocalMoment are the same reaction along the axes of
+	// a support with directions (local x, y and z), present only for
+	// such supports.
+	LocalForce  []float64 `json:"local_force,omitempty"`
+	LocalMoment []float64 `json:"local_moment,omitempty"`
 }
 
 // Extreme is a largest value and where it occurs.

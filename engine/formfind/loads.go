@@ -57,6 +57,11 @@ func newLoading(m *model.Model, id string, warn func(path, format string, args .
 	var problems []fault.Problem
 	for _, t := range terms {
 		lc := &m.Cases[t.Case]
+		if len(lc.Areas) > 0 {
+			problems = append(problems, fault.Problem{Path: fmt.Sprintf("/model/load_cases/%d/area_loads", t.Case),
+				Message: "form finding takes no area loads: a panel's shares depend on a geometry not yet found; give the loads at the nodes"})
+			continue
+		}
 		for j, nl := range lc.Nodal {
 			for k := 0; k < d; k++ {
 				l.nodal[nl.Node*d+k] += t.Factor * nl.Force[k]

@@ -127,6 +127,9 @@ func (m *Model) WithParameters(values map[string]float64) (*Model, error) {
 			}
 		}
 	}
+	if copied.coords {
+		problems = append(problems, out.respreadAreas()...)
+	}
 	if len(problems) > 0 {
 		return nil, parameterError(problems)
 	}

@@ -99,7 +99,8 @@ type compiler struct {
 	bindings []binding
 
 	nodeIndex map[string]int
-	tol       float64 // coincidence tolerance, length units
+	tol       float64        // coincidence tolerance, length units
+	byEnds    map[[2]int]int // node pair -> member, for area loads
 
 	// The programs of expressions that defaults and thermal strains derive
 	// from, so their bindings can recompute the derived values.

@@ -59,6 +59,7 @@ func (c *compiler) supports() {
 		if c.dim == 0 {
 			continue
 		}
+		c.supportDirections(i)
 		for k, name := range ss.Fix {
 			comp := componentIndex(name, c.dim)
 			path := base + "/fix/" + strconv.Itoa(k)
@@ -131,6 +132,7 @@ func (c *compiler) loadCases() {
 		for j := range ls.MemberLoads {
 			c.memberLoad(ci, j, memberIndex)
 		}
+		c.areaLoads(ci, c.membersByEnds)
 	}
 }
 

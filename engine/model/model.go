@@ -127,6 +127,12 @@ type Support struct {
 	Fixed        [6]bool
 	Spring       [6]float64 // stiffness, 0 when none
 	Displacement [6]float64 // prescribed value of a fixed component
+	// Inclined reports a support with directions of its own; Axes then
+	// holds its local x, y and z axes (unit vectors in global
+	// components) as rows, and Fixed, Spring and Displacement refer to
+	// them: rotations too, about the local axes. See supportAxes.
+	Inclined bool
+	Axes     [3][3]float64
 }
 
 // LoadCase is a compiled load case.
@@ -135,6 +141,11 @@ type LoadCase struct {
 	SelfWeight  bool
 	Nodal       []NodalLoad
 	MemberLoads []MemberLoad
+	// Areas are the case's area loads. Their shares are appended to Nodal
+	// (from AreaNodal on) and MemberLoads (from AreaMemberLoads on), and
+	// recomputed when the geometry changes (see area.go).
+	Areas                      []AreaLoad
+	AreaNodal, AreaMemberLoads int
 }
 
 // NodalLoad is a force and moment at a node, in global axes. Entries beyond
@@ -167,6 +178,12 @@ type MemberLoad struct {
 	EndValue [3]float64
 	Distance float64
 	Strain   float64
+	// Partial, for a uniform or linear load, bounds it to the stretch
+	// from Start to End (distances from the first end, Start < End):
+	// Value is the intensity at Start, EndValue at End. Area loads
+	// spread to members make such loads; the wire has none.
+	Partial    bool
+	Start, End float64
 }
 
 // Combination is a compiled factored sum of cases.

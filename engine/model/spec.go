@@ -131,6 +131,11 @@ type SupportSpec struct {
 	Fix          []string
 	Springs      map[string]float64 // component -> stiffness (force/length or moment/radian)
 	Displacement map[string]float64 // component -> prescribed value (must also be fixed)
+	// Directions, when given, are one or two vectors (Dimension entries
+	// each) fixing the support's own axes (see Support.Axes); Fix,
+	// Springs and Displacement then name components along those axes.
+	// Nil means the global axes.
+	Directions [][]float64
 }
 
 // LoadCaseSpec is one load case.
@@ -139,6 +144,7 @@ type LoadCaseSpec struct {
 	SelfWeight  bool
 	Loads       []NodalLoadSpec
 	MemberLoads []MemberLoadSpec
+	AreaLoads   []AreaLoadSpec
 }
 
 // NodalLoadSpec is a force (Dimension entries) and optional moment (one

@@ -355,5 +355,6 @@ func shape(m *model.Model, mx *stiffness.Matrices, rot []bool, y []float64, unit
 			rotation[n][comp-model.RX] = c * v
 		}
 	}
+	turnShape(m, disp, rotation, unit)
 	return disp, rotation
 }

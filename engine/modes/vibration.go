@@ -188,8 +188,17 @@ func influence(m *model.Model, mx *stiffness.Matrices) [][]float64 {
 	for d := range r {
 		r[d] = make([]float64, mx.K.N)
 	}
+	axes := model.NodeAxes(m)
 	for i, c := range mx.Component {
-		if c < m.Dim {
+		switch {
+		case c >= m.Dim:
+		case axes != nil && axes[mx.Node[i]] != nil:
+			// A node in a support's axes: a unit global translation
+			// along d has the local component axes[c][d].
+			for d := range m.Dim {
+				r[d][i] = axes[mx.Node[i]][c][d] / mx.Scale[i]
+			}
+		default:
 			r[c][i] = 1 / mx.Scale[i]
 		}
 	}

@@ -124,6 +124,7 @@ func Analyse(ctx context.Context, m *model.Model, opt Options) (*Report, error) 
 	r.Mechanisms = r.Freedoms - r.Rank
 	r.selfStressStates(l, v, lc)
 	r.mechanismModes(m, l, u, lc)
+	r.turnModes(m)
 	return r, nil
 }
 

@@ -36,7 +36,12 @@ func equilibrium(m *model.Model, l *Layout, lengthScale float64) *mat.Dense {
 		rowOf[6*f.Node+f.Component] = i
 	}
 	a := mat.NewDense(len(l.Rows), len(l.Columns), nil)
+	nodeAxes := model.NodeAxes(m)
 	add := func(node, comp, col int, v float64) {
+		if nodeAxes != nil && nodeAxes[node] != nil {
+			addInclined(a, rowOf, m.Dim, nodeAxes[node], node, comp, col, v)
+			return
+		}
 		if r := rowOf[6*node+comp]; r >= 0 {
 			a.Set(r, col, a.At(r, col)+v)
 		}

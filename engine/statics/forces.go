@@ -46,6 +46,8 @@ func Forces(ctx context.Context, m *model.Model, loads []float64) (*Equilibrium,
 		return nil, err
 	}
 	switch {
+	case model.NodeAxes(m) != nil:
+		return nil, fault.New(fault.InvalidModel, "the model has inclined supports: their reactions need the stiffness method")
 	case rep.Beams > 0:
 		return nil, fault.New(fault.InvalidModel, "the model has beams: member forces need the stiffness method")
 	case !rep.Computed:

@@ -18,6 +18,9 @@ type memberScratch struct {
 type pointLoad struct {
 	at    float64
 	force [3]float64
+	// da and db change the distributed load a + b·x from here on (a
+	// partial load starting or ending here, see partial.go).
+	da, db [3]float64
 }
 
 // memberLoading is the loading of one member in local axes: a distributed
@@ -55,6 +58,10 @@ func (ld *memberLoading) gather(ls *loadSet, m *model.Model, el *element, e int,
 		switch ml.Kind {
 		case model.Uniform, model.Linear:
 			q1, q2 := el.intensities(ml)
+			if ml.Partial {
+				ld.addPartial(ml, q1, q2, wl.factor, L)
+				continue
+			}
 			for c := range 3 {
 				ld.a[c] += wl.factor * q1[c]
 				ld.b[c] += wl.factor * (q2[c] - q1[c]) / L
@@ -85,7 +92,7 @@ func (ld *memberLoading) gather(ls *loadSet, m *model.Model, el *element, e int,
 		// exist there.
 		ld.a[2], ld.b[2] = 0, 0
 		for i := range ld.points {
-			ld.points[i].force[2] = 0
+			ld.points[i].force[2], ld.points[i].da[2], ld.points[i].db[2] = 0, 0, 0
 		}
 	}
 }
@@ -180,6 +187,9 @@ func (f *field) moveTo(x float64, inclusive bool) {
 		f.axial -= pl.force[0]
 		f.y.shear -= pl.force[1]
 		f.z.shear -= pl.force[2]
+		f.qa, f.qb = f.qa+pl.da[0], f.qb+pl.db[0]
+		f.y.a, f.y.b = f.y.a+pl.da[1], f.y.b+pl.db[1]
+		f.z.a, f.z.b = f.z.a+pl.da[2], f.z.b+pl.db[2]
 		f.next++
 	}
 	f.advance(x - f.x0)
@@ -245,7 +255,7 @@ func (ld *memberLoading) transverse() bool {
 		return true
 	}
 	for _, p := range ld.points {
-		if p.force[1] != 0 || p.force[2] != 0 {
+		if p.force[1] != 0 || p.force[2] != 0 || p.da[1] != 0 || p.da[2] != 0 || p.db[1] != 0 || p.db[2] != 0 {
 			return true
 		}
 	}

@@ -87,13 +87,14 @@ func (el *element) addMemberLoad(f []float64, ml *model.MemberLoad, factor float
 	switch ml.Kind {
 	case model.Uniform, model.Linear:
 		q1, q2 := el.intensities(ml)
+		x1, x2 := stretchOf(ml, L)
 		for _, g := range gauss3 {
 			xi := g[0]
 			var q [3]float64
 			for c := range 3 {
 				q[c] = q1[c] + (q2[c]-q1[c])*xi
 			}
-			el.addShape(f, xi, q, factor*g[1]*L)
+			el.addShape(f, (x1+(x2-x1)*xi)/L, q, factor*g[1]*(x2-x1))
 		}
 	case model.Point:
 		el.addShape(f, ml.Distance/L, el.localVector(ml.Value, ml.Local), factor)

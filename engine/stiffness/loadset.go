@@ -77,8 +77,9 @@ func (ls *loadSet) equivalent(f []float64, m *model.Model, el *element, e int) {
 // equivalent member loads), without the settlement terms.
 func (ls *loadSet) rightHandSide(m *model.Model, nb *numbering) []float64 {
 	rhs := make([]float64, nb.equations)
+	nodal := nb.inAxes(ls.nodal)
 	for eq, f := range nb.freedomOf {
-		rhs[eq] = ls.nodal[f]
+		rhs[eq] = nodal[f]
 	}
 	if !ls.hasMember {
 		return rhs
@@ -92,6 +93,7 @@ func (ls *loadSet) rightHandSide(m *model.Model, nb *numbering) []float64 {
 		el.build(m, nb, e)
 		ls.equivalent(fl[:], m, &el, e)
 		el.toGlobal(fg[:], fl[:])
+		nb.turnForces(&el, fg[:])
 		for i := range el.size {
 			if eq := nb.equation[el.dofs[i]]; eq >= 0 {
 				rhs[eq] += fg[i]

@@ -139,6 +139,7 @@ func (mx *Matrices) AddMember(dst *sparse.Matrix, m *model.Model, e int, local [
 			g[i*n+j] = s
 		}
 	}
+	mx.nb.turnElement(&el, g[:])
 	mem := m.Members[e]
 	k := -1
 	if mem.Ends[0] != mem.Ends[1] {

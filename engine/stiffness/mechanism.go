@@ -188,12 +188,14 @@ func mechanismError(m *model.Model, nb *numbering, deficient []int, modes [][]fl
 					involved[nb.freedomOf[i]] = true
 				}
 			}
+			nb.turnMode(mode)
 			detail.Modes = append(detail.Modes, mode)
 		}
 	} else {
 		for _, eq := range deficient[:min(len(deficient), maxModes)] {
 			mode := newMode(m, nb)
 			mode.set(m, nb, nb.freedomOf[eq], 1)
+			nb.turnMode(mode)
 			detail.Modes = append(detail.Modes, mode)
 		}
 	}

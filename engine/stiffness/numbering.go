@@ -24,6 +24,10 @@ type numbering struct {
 	// (the first that fixes or springs it), or -1.
 	supportOf     []int
 	anyPrescribed bool
+	// axes gives, per node, the axes of an inclined support there (its
+	// freedoms are then components along them, see incline.go), or is nil
+	// when no support is inclined.
+	axes []*[3][3]float64
 }
 
 // componentOffset returns the position of component c within a node's
@@ -81,6 +85,7 @@ func (nb *numbering) setSupports(m *model.Model) (fixed []bool) {
 	nb.spring = make([]float64, nb.total)
 	nb.supportOf = make([]int, nb.total)
 	nb.anyPrescribed = false
+	nb.axes = model.NodeAxes(m)
 	for i := range nb.supportOf {
 		nb.supportOf[i] = -1
 	}

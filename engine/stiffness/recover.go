@@ -12,11 +12,12 @@ import (
 // forces on the freedoms gathered in member order), the reactions, the
 // external forces and balance, and the equilibrium residual.
 func recoverCase(m *model.Model, nb *numbering, sys *system, ls *loadSet, u []float64, workers, stations int) (*CaseResult, error) {
+	nb.fromAxes(u) // u arrives with inclined nodes in their supports' axes
 	cr := newCaseResult(m, nb, u, stations)
 	nodeForce, equivalent := recoverMembers(m, nb, ls, u, cr, workers)
 	reactions(m, nb, ls, u, cr, nodeForce)
 	externalForces(m, nb, ls, cr, equivalent)
-	cr.Residual = residual(nb, sys, ls, u, nodeForce, equivalent)
+	cr.Residual = residual(nb, sys, nb.inAxes(ls.nodal), nb.inAxes(u), nb.inAxes(nodeForce), nb.inAxes(equivalent))
 	summarise(m, cr)
 	if !cr.finite() {
 		return nil, overflowError(m)
@@ -118,7 +119,7 @@ func reactions(m *model.Model, nb *numbering, ls *loadSet, u []float64, cr *Case
 	_, rotational := m.DOFsPerNode()
 	for f := range nb.total {
 		si := nb.supportOf[f]
-		if si < 0 {
+		if si < 0 || nb.inclined(nb.node[f]) {
 			continue
 		}
 		var r float64
@@ -144,6 +145,7 @@ func reactions(m *model.Model, nb *numbering, ls *loadSet, u []float64, cr *Case
 			cr.Reactions[si].Moment[c-model.RX] += r
 		}
 	}
+	inclinedReactions(m, nb, ls, u, cr, nodeForce)
 	for si := range cr.Reactions {
 		if cr.Reactions[si].Force == nil {
 			cr.Reactions[si].Force = make([]float64, m.Dim)
@@ -201,11 +203,11 @@ func externalForces(m *model.Model, nb *numbering, ls *loadSet, cr *CaseResult, 
 // freedoms: what the members take (their fixed-end forces included) plus
 // the springs equals the nodal loads; the scale is the right-hand side
 // K·u = f of the solve.
-func residual(nb *numbering, sys *system, ls *loadSet, u, nodeForce, equivalent []float64) float64 {
+func residual(nb *numbering, sys *system, nodal, u, nodeForce, equivalent []float64) float64 {
 	var resid, rhs float64
 	for eq, f := range nb.freedomOf {
-		resid += sq(nodeForce[f] + nb.spring[f]*u[f] - ls.nodal[f])
-		rhs += sq(ls.nodal[f] + equivalent[f] + sys.settle[eq])
+		resid += sq(nodeForce[f] + nb.spring[f]*u[f] - nodal[f])
+		rhs += sq(nodal[f] + equivalent[f] + sys.settle[eq])
 	}
 	if rhs > 0 {
 		return math.Sqrt(resid / rhs)

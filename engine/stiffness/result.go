@@ -36,6 +36,11 @@ type Result struct {
 type Reaction struct {
 	Force  []float64
 	Moment []float64
+	// LocalForce and LocalMoment are the same reaction along the axes of
+	// an inclined support (model.Support.Axes; Dim and 1 or 3 entries),
+	// nil for a support in global axes.
+	LocalForce  []float64
+	LocalMoment []float64
 }
 
 // CaseResult is the response of the structure to one load case or

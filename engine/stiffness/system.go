@@ -149,6 +149,7 @@ func assembleRange(ctx context.Context, m *model.Model, nb *numbering, pat *patt
 		el.build(m, nb, e)
 		el.globalStiffness(kg[:])
 		st.modify(&el, e, kg[:])
+		nb.turnElement(&el, kg[:])
 		n := el.size
 		for i := range n {
 			eqs[i] = nb.equation[el.dofs[i]]

@@ -10,6 +10,7 @@
 export { Client, Call, Sweep } from './client.js';
 export { memberResult, memberResults, momentDiagram } from './members.js';
 export { released } from './releases.js';
+export { areaLoad, inclinedSupport, localReactions } from './panels.js';
 export { governing, memberEnvelope, onOffPattern } from './envelope.js';
 export { amplification, slackMembers } from './iteration.js';
 export { BUILD_HINT, defaultHints, findBinary } from './binary.js';

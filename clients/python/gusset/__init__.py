@@ -21,6 +21,7 @@ from .binary import BUILD_HINT, find_binary
 from .client import Call, Client, Progress, Sweep
 from .members import member_result, member_results, moment_diagram
 from .releases import released
+from .panels import area_load, inclined_support, local_reactions
 from .envelope import governing, member_envelope, on_off_pattern
 from .iteration import amplification, slack_members
 from .errors import (
@@ -101,5 +102,8 @@ __all__ = [
     "member_results",
     "moment_diagram",
     "released",
+    "area_load",
+    "inclined_support",
+    "local_reactions",
     "from_wire",
 ]

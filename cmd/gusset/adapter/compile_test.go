@@ -181,6 +181,16 @@ func fastPathAgrees(t *testing.T, v *schema.Validator, k int) {
 		{"support fix repeated", func(m map[string]any) { support(m, k)["fix"] = []any{"x", "x"} }},
 		{"support node empty", func(m map[string]any) { support(m, k)["node"] = 7.0 }},
 		{"support spring string", func(m map[string]any) { support(m, k)["springs"] = map[string]any{"x": "stiff"} }},
+		{"support directions three", func(m map[string]any) {
+			support(m, k)["directions"] = []any{[]any{1.0, 0.0, 0.0}, []any{0.0, 1.0, 0.0}, []any{0.0, 0.0, 1.0}}
+		}},
+		{"support directions none", func(m map[string]any) { support(m, k)["directions"] = []any{} }},
+		{"area load two nodes", func(m map[string]any) {
+			m["load_cases"].([]any)[0].(map[string]any)["area_loads"] = []any{map[string]any{"nodes": []any{"n0", "n1"}, "pressure": 1.0}}
+		}},
+		{"area load span", func(m map[string]any) {
+			m["load_cases"].([]any)[0].(map[string]any)["area_loads"] = []any{map[string]any{"nodes": []any{"n0", "n1", "n2"}, "pressure": 1.0, "span": "both"}}
+		}},
 		{"member material missing", func(m map[string]any) { delete(member(m, k), "material") }},
 		{"member ends numbers", func(m map[string]any) { member(m, k)["ends"] = []any{1.0, 2.0} }},
 	}

@@ -51,7 +51,7 @@ func specOf(w *protocol.Model) *model.Spec {
 	}
 	s.Supports = make([]model.SupportSpec, len(w.Supports))
 	for i, p := range w.Supports {
-		s.Supports[i] = model.SupportSpec{Node: p.Node, Fix: p.Fix, Springs: p.Springs, Displacement: p.Displacement}
+		s.Supports[i] = model.SupportSpec{Node: p.Node, Fix: p.Fix, Springs: p.Springs, Displacement: p.Displacement, Directions: p.Directions}
 	}
 	s.LoadCases = make([]model.LoadCaseSpec, len(w.LoadCases))
 	for i, c := range w.LoadCases {
@@ -65,6 +65,7 @@ func specOf(w *protocol.Model) *model.Spec {
 				Distance: optional(l.Distance), Strain: optional(l.Strain), TemperatureChange: optional(l.TemperatureChange),
 			})
 		}
+		lc.AreaLoads = areaLoadSpecs(c.AreaLoads)
 		s.LoadCases[i] = lc
 	}
 	s.Combos = make([]model.CombinationSpec, len(w.Combinations))

@@ -125,7 +125,8 @@ func solveResult(m *model.Model, r *stiffness.Result) *protocol.SolveResult {
 			AxialForces: c.AxialForce, EndForces: c.EndForces, Stresses: c.Stress, Residual: c.Residual, BalanceError: c.BalanceError}
 		cr.Reactions = make([]protocol.Reaction, len(c.Reactions))
 		for j, re := range c.Reactions {
-			cr.Reactions[j] = protocol.Reaction{Node: m.NodeIDs[m.Supports[j].Node], Force: re.Force, Moment: re.Moment}
+			cr.Reactions[j] = protocol.Reaction{Node: m.NodeIDs[m.Supports[j].Node], Force: re.Force, Moment: re.Moment,
+				LocalForce: re.LocalForce, LocalMoment: re.LocalMoment}
 		}
 		caseSummaries(m, &r.Cases[i], &cr)
 		cr.Iteration = iterationWire(m, c.Iteration)

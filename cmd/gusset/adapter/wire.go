@@ -59,7 +59,7 @@ func WireModel(s *model.Spec) *protocol.Model {
 		w.Members[i].Releases = releasesWire(m.Releases)
 	}
 	for _, p := range s.Supports {
-		w.Supports = append(w.Supports, protocol.Support{Node: p.Node, Fix: p.Fix, Springs: p.Springs, Displacement: p.Displacement})
+		w.Supports = append(w.Supports, protocol.Support{Node: p.Node, Fix: p.Fix, Springs: p.Springs, Displacement: p.Displacement, Directions: p.Directions})
 	}
 	for _, c := range s.LoadCases {
 		lc := protocol.LoadCase{ID: c.ID, SelfWeight: c.SelfWeight}
@@ -71,6 +71,7 @@ func WireModel(s *model.Spec) *protocol.Model {
 				Value: nums(l.Value), EndValue: nums(l.EndValue), Distance: opt(l.Distance), Strain: opt(l.Strain),
 				TemperatureChange: opt(l.TemperatureChange)})
 		}
+		lc.AreaLoads = areaLoadWire(c.AreaLoads)
 		w.LoadCases = append(w.LoadCases, lc)
 	}
 	for _, c := range s.Combos {
