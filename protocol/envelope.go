@@ -31,6 +31,24 @@ type Envelope struct {
 	Reactions []ReactionEnvelope `json:"reactions"`
 	// Members holds per member its results' ranges.
 	Members []MemberEnvelope `json:"members"`
+	// MaxUtilisation is the largest utilisation over the members checked
+	// in every enveloped case, with its member (at) and governing case
+	// (value 0 and no member when none is); unchecked_members counts the
+	// others, whose utilisation is null.
+	MaxUtilisation EnvelopeExtreme `json:"max_utilisation"`
+	// UncheckedMembers counts the members with a null utilisation.
+	UncheckedMembers int `json:"unchecked_members"`
+}
+
+// EnvelopeExtreme is a largest value over the enveloped cases, its member
+// and governing case.
+type EnvelopeExtreme struct {
+	// Value is the value.
+	Value float64 `json:"value"`
+	// At is the member's id, empty when there is none.
+	At string `json:"at"`
+	// Case is the id of the governing case, empty when there is none.
+	Case string `json:"case"`
 }
 
 // EnvelopeValue is an extreme over the enveloped cases.

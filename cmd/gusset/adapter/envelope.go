@@ -196,8 +196,20 @@ func envelopeWire(m *model.Model, env *envelope.Envelope) *protocol.Envelope {
 	// Distances along members, one backing array: the axial range and up
 	// to five internal forces, two ends each.
 	w.distances = make([]float64, 0, 2*(1+stiffness.RangeCount)*len(env.Members))
+	best := -1
 	for e := range env.Members {
-		out.Members[e] = w.member(m, e, &env.Members[e])
+		mem := &env.Members[e]
+		out.Members[e] = w.member(m, e, mem)
+		switch {
+		case mem.Unchecked >= 0 || mem.Utilisation.Max.Case < 0:
+			out.UncheckedMembers++
+		case best < 0 || mem.Utilisation.Max.Value > env.Members[best].Utilisation.Max.Value:
+			best = e
+		}
+	}
+	if best >= 0 {
+		u := env.Members[best].Utilisation.Max
+		out.MaxUtilisation = protocol.EnvelopeExtreme{Value: u.Value, At: m.Members[best].ID, Case: env.Cases[u.Case]}
 	}
 	return out
 }
