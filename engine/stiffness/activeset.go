@@ -331,6 +331,7 @@ func (it *iteration) inverseStep(st *memberState, u []float64) []float64 {
 		el.geometric(kg[:], st.axial[e])
 		mulSquare(gl[:], kg[:], ul[:], n)
 		el.toGlobal(gg[:], gl[:])
+		nb.turnForces(&el, gg[:])
 		for i := range n {
 			if eq := nb.equation[el.dofs[i]]; eq >= 0 {
 				w[eq] += gg[i]
@@ -348,9 +349,17 @@ func (it *iteration) inverseStep(st *memberState, u []float64) []float64 {
 	return v
 }
 
-// global returns u (one entry per freedom, as the system solves for it)
-// in global axes.
-func global(nb *numbering, u []float64) []float64 { return u }
+// global returns u (one entry per freedom, an inclined support's node in
+// its axes, as the system solves for it) in global axes: u itself when no
+// support is inclined, a turned copy otherwise.
+func global(nb *numbering, u []float64) []float64 {
+	if nb.axes == nil {
+		return u
+	}
+	g := append([]float64(nil), u...)
+	nb.fromAxes(g)
+	return g
+}
 
 func dot(a, b []float64) float64 {
 	var s float64

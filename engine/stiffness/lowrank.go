@@ -97,6 +97,7 @@ func (lr *lowRank) column(it *iteration, e int) sparseEntry {
 	for c := range p {
 		w[c], w[p+c] = -el.axes[0][c], el.axes[0][c]
 	}
+	nb.turnForces(&el, w[:])
 	root := math.Sqrt(el.ea / el.length)
 	var g sparseEntry
 	for i := range el.size {

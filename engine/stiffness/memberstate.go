@@ -148,6 +148,7 @@ func pretensionLoads(m *model.Model, nb *numbering, st *memberState, rhs []float
 		clear(fl[:el.size])
 		fl[0], fl[el.perNode] = t, -t
 		el.toGlobal(fg[:], fl[:])
+		nb.turnForces(&el, fg[:])
 		for i := range el.size {
 			if eq := nb.equation[el.dofs[i]]; eq >= 0 {
 				rhs[eq] += fg[i]
