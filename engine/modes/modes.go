@@ -64,6 +64,11 @@ type Options struct {
 	// "assembling", "factorising" and "lanczos" (done counts basis
 	// vectors); nil reports nothing.
 	Reporter progress.Reporter
+	// Analysis, when not nil, is a stiffness.NewAnalysis of m's topology
+	// (a sweep holds one for all its steps) whose numbering, pattern and
+	// order are reused rather than worked out again. Results do not
+	// depend on it.
+	Analysis *stiffness.Analysis
 }
 
 func (opt Options) withDefaults() Options {
@@ -166,13 +171,16 @@ func Buckling(ctx context.Context, m *model.Model, opt Options) (*Result, error)
 	if err != nil {
 		return nil, err
 	}
-	sol, err := stiffness.Solve(ctx, m, stiffness.Options{Cases: []string{caseID}, Workers: opt.Workers,
+	// One analysis of the topology serves the static solve and the
+	// eigenvalue problem: the matrix is ordered once.
+	an := analysisFor(m, opt, stiffness.Options{Cases: []string{caseID}, Workers: opt.Workers,
 		Reporter: opt.Reporter, SkipCondition: true, StabilityLimit: -1})
+	sol, err := an.Solve(ctx, m)
 	if err != nil {
 		return nil, err
 	}
 	start := time.Now()
-	mx, err := stiffness.Assemble(ctx, m, stiffness.Options{Workers: opt.Workers, Reporter: opt.Reporter})
+	mx, err := an.Matrices(ctx, m)
 	if err != nil {
 		return nil, err
 	}

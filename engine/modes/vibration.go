@@ -34,7 +34,7 @@ func Vibration(ctx context.Context, m *model.Model, opt Options) (*Result, error
 		return nil, err
 	}
 	start := time.Now()
-	mx, err := stiffness.Assemble(ctx, m, stiffness.Options{Workers: opt.Workers, Reporter: opt.Reporter})
+	mx, err := assembleFor(ctx, m, opt)
 	if err != nil {
 		return nil, err
 	}

@@ -7,6 +7,7 @@ import (
 	"gusset/engine/fault"
 	"gusset/engine/model"
 	"gusset/engine/modes"
+	"gusset/engine/stiffness"
 )
 
 // The modal metrics ModelEvaluatorModal computes with package modes.
@@ -28,6 +29,11 @@ type Modal struct {
 	// Count is the number of buckling factors sought per case, the least
 	// positive among them counting; 0 means modes.DefaultCount.
 	Count int
+
+	// analysis is the stiffness analysis of the swept model's topology,
+	// made once by ModelEvaluatorModal for the modal metrics of every
+	// step (numbering, pattern and order reused).
+	analysis *stiffness.Analysis
 }
 
 // modalMetrics adds the modal metrics wanted to out for the model mm. A
@@ -48,7 +54,7 @@ func modalMetrics(ctx context.Context, mm *model.Model, want map[string]bool, mo
 		}
 		least := math.Inf(1)
 		for _, id := range cases {
-			res, err := modes.Buckling(ctx, mm, modes.Options{Case: id, Count: modal.Count, Workers: 1})
+			res, err := modes.Buckling(ctx, mm, modes.Options{Case: id, Count: modal.Count, Workers: 1, Analysis: modal.analysis})
 			if err != nil {
 				return err
 			}
@@ -62,7 +68,7 @@ func modalMetrics(ctx context.Context, mm *model.Model, want map[string]bool, mo
 		out[MetricCriticalLoadFactor] = least
 	}
 	if want[MetricFirstFrequency] {
-		res, err := modes.Vibration(ctx, mm, modes.Options{Count: 1 + mechanismCount(mm), Workers: 1})
+		res, err := modes.Vibration(ctx, mm, modes.Options{Count: 1 + mechanismCount(mm), Workers: 1, Analysis: modal.analysis})
 		if err != nil {
 			return err
 		}

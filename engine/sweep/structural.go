@@ -11,6 +11,7 @@ import (
 	"gusset/engine/fault"
 	"gusset/engine/loadpath"
 	"gusset/engine/model"
+	"gusset/engine/stiffness"
 )
 
 // The metrics ModelEvaluator computes.
@@ -102,6 +103,9 @@ func ModelEvaluatorModal(m *model.Model, names, metrics []string, solve Solver, 
 	opt.Size = opt.Size || want[MetricVolume] || want[MetricMass] || want[MetricCarbon]
 	needLoadPath := opt.Size || want[MetricLoadPath]
 	names = append([]string(nil), names...)
+	if want[MetricCriticalLoadFactor] || want[MetricFirstFrequency] {
+		modal.analysis = stiffness.NewAnalysis(m, stiffness.Options{Workers: 1})
+	}
 
 	return func(ctx context.Context, values []float64) (map[string]float64, error) {
 		if len(values) != len(names) {
