@@ -85,13 +85,19 @@ func FreeRotations(m *model.Model) (free []uint8, err error) {
 			}
 		}
 	}
+	inclined := make([]bool, m.NodeCount())
 	for _, sp := range m.Supports {
+		inclined[sp.Node] = inclined[sp.Node] || sp.Inclined
 		for c := model.RX; c <= model.RZ; c++ {
 			if !sp.Fixed[c] && !(sp.Spring[c] > 0) {
 				continue
 			}
 			var d [3]float64
-			d[c-model.RX] = 1
+			if sp.Inclined {
+				d = sp.Axes[c-model.RX]
+			} else {
+				d[c-model.RX] = 1
+			}
 			for i := range 3 {
 				for j := range 3 {
 					resist[sp.Node][i][j] += d[i] * d[j]
@@ -115,6 +121,14 @@ func FreeRotations(m *model.Model) (free []uint8, err error) {
 			e := blame[n]
 			return nil, fault.At(fault.InvalidModel, fmt.Sprintf("/members/%d/releases", e),
 				"member %q: the releases leave node %q free to rotate about an axis along no global axis, which no member resists; release the torsion (\"rx\") there too, or fix the node's rotations in a support",
+				m.Members[e].ID, m.NodeIDs[n])
+		}
+		if all := model.ReleaseBit(model.RX) | model.ReleaseBit(model.RY) | model.ReleaseBit(model.RZ); bits != 0 && bits != all && inclined[n] {
+			// The node's freedoms are in the support's axes, the free
+			// rotations in global ones.
+			e := blame[n]
+			return nil, fault.At(fault.InvalidModel, fmt.Sprintf("/members/%d/releases", e),
+				"member %q: the releases leave node %q free to rotate about some axes but not others, at a support with directions of its own; release all three rotations there, or fix the node's rotations in the support",
 				m.Members[e].ID, m.NodeIDs[n])
 		}
 		free[n] = bits

@@ -8,10 +8,8 @@ import (
 )
 
 // TestReleaseCounts checks Maxwell's count with end releases (the
-// extended rule c − n + k = s − m, Pellegrino & Calladine, "Matrix
-// analysis of statically and kinematically indeterminate frameworks",
-// Int. J. Solids Struct. 22, 1986, with c counting independent member
-// forces): each released end removes a member force, and a rotation no
+// extended rule c − n + k = s − m, with c counting independent member
+// forces: Maxwell's rule in its extended form, from memory): each released end removes a member force, and a rotation no
 // member end resists is no freedom. Determinacy here is by hand: a
 // cantilever with its tip released in bending, or released in all three
 // rotations, is still determinate; a portal fixed at both feet is

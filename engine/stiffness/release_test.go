@@ -426,6 +426,20 @@ func TestReleaseFaults(t *testing.T) {
 		fe.Problems[0].Path != "/members/0/releases" || !strings.Contains(fe.Message, "torsion") {
 		t.Errorf("skew free rotation: err = %v", err)
 	}
+	// At a support with axes of its own, a partial set of free rotations
+	// (global axes) would not match the node's freedoms (the support's).
+	b2 := newBuilder(3, beamE, 8e7, beamA, beamI, beamI, 2*beamI)
+	n0, n1 := b2.node(0, 0, 0), b2.node(4, 0, 0)
+	e2 := b2.beam(n0, n1)
+	b2.release(e2, 1, model.RY, model.RZ)
+	b2.fix(n0, fixed3...)
+	s := b2.fix(n1, model.X, model.Y, model.Z)
+	b2.m.Supports[s].Inclined = true
+	b2.m.Supports[s].Axes = [3][3]float64{{0.6, 0.8, 0}, {-0.8, 0.6, 0}, {0, 0, 1}}
+	_, err = Solve(context.Background(), b2.m, Options{})
+	if !errors.As(err, &fe) || fe.Kind != fault.InvalidModel || len(fe.Problems) == 0 || fe.Problems[0].Path != "/members/0/releases" {
+		t.Errorf("partial free rotations at an inclined support: err = %v", err)
+	}
 	// Releasing the torsion too makes the end a ball joint: it solves.
 	b.release(e, 1, model.RX)
 	b.force(nb, [3]float64{0, 0, -1}, [3]float64{})
