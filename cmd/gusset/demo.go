@@ -147,6 +147,9 @@ func (d *demo) run() error {
 	if err := d.crossBeam(); err != nil {
 		return err
 	}
+	if err := d.deckBay(); err != nil {
+		return err
+	}
 
 	lp, sizing, err := d.quantities()
 	if err != nil {

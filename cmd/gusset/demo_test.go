@@ -32,6 +32,14 @@ func TestDemo(t *testing.T) {
 	// loads on an 8-panel truss 2 m deep: the mid-span chord force is
 	// M/h = (wL²/8)/h = 1080/2 = 540 kN (method of sections, any statics
 	// text).
+	// The deck bay against statics by hand (demo_deck.go): wL²/8 on the
+	// middle cross-beam, PL/4 on a chord, the panels' total on the
+	// bearings.
+	for _, want := range []string{"largest moment 16.9 kN·m at 1.50 m", "north chord: largest moment 33.7", "the bearings carry 90.0 kN up"} {
+		if !strings.Contains(out, want) {
+			t.Errorf("demo output lacks %q", want)
+		}
+	}
 	if !strings.Contains(out, "largest compression  -540.0 kN (U4-U5)") {
 		t.Errorf("crowd case chord force not as derived by sections:\n%s", out)
 	}
