@@ -1,6 +1,7 @@
 package render
 
 import (
+	"cmp"
 	"fmt"
 	"io"
 	"math"
@@ -211,7 +212,7 @@ func (sc *spaceCurves) drawMomentPanel(c *canvas, f frame, pts func(bc *BeamCurv
 		order[i] = i
 	}
 	slices.SortStableFunc(order, func(i, j int) int {
-		return -cmpFloat(math.Abs(peak(&sc.curves[i])[0]), math.Abs(peak(&sc.curves[j])[0]))
+		return cmp.Compare(math.Abs(peak(&sc.curves[j])[0]), math.Abs(peak(&sc.curves[i])[0]))
 	})
 	for _, i := range order[:min(beamLabels, len(order))] {
 		bc := &sc.curves[i]
@@ -224,17 +225,6 @@ func (sc *spaceCurves) drawMomentPanel(c *canvas, f frame, pts func(bc *BeamCurv
 		c.circle(x, y, 2.5, TensionColour)
 		labelInside(c, f, x, y, 4, -6, fmt.Sprintf("%.4g %s", pk[0], unit))
 	}
-}
-
-// cmpFloat orders a and b.
-func cmpFloat(a, b float64) int {
-	switch {
-	case a < b:
-		return -1
-	case a > b:
-		return 1
-	}
-	return 0
 }
 
 // drawDeflectedPanel draws the undeformed members dotted and the

@@ -193,11 +193,7 @@ func Form(w io.Writer, m *model.Model, axial []float64, opt Options) error {
 	if title == "" {
 		title = "Axial forces"
 	}
-	notes := []string{fmt.Sprintf("Largest axial force %.4g %s.", maxT, unitOr(m.Units.Force, "kN"))}
-	if note := memberLabelNote(written, len(m.Members), unitOr(m.Units.Force, "kN")); note != "" {
-		notes = append(notes, note)
-	}
-	c.caption(20, y+10, title, notes...)
+	c.caption(20, y+10, title, withLabelNote([]string{fmt.Sprintf("Largest axial force %.4g %s.", maxT, unitOr(m.Units.Force, "kN"))}, written, m)...)
 	return c.close()
 }
 

@@ -5,6 +5,8 @@ import (
 	"fmt"
 	"math"
 	"slices"
+
+	"gusset/engine/model"
 )
 
 // crowdedMembers is the member count above which a member's axial force is
@@ -58,13 +60,13 @@ func (c *canvas) labelMemberForces(f frame, axial []float64, ends func(e int) (x
 	return written
 }
 
-// memberLabelNote is the caption sentence for a picture that wrote the
-// forces of only some of its members; "" when it wrote them all or none
-// was asked for.
-func memberLabelNote(written, members int, forceUnit string) string {
-	if written >= members {
-		return ""
+// withLabelNote appends to a caption's notes the sentence for a picture
+// of m that wrote the forces of only written of its members; notes as
+// they are when it wrote them all or none was asked for.
+func withLabelNote(notes []string, written int, m *model.Model) []string {
+	if written >= len(m.Members) {
+		return notes
 	}
-	return fmt.Sprintf("Forces (%s) written where they fit: %d of %d members, largest first; axial_forces lists all.",
-		forceUnit, written, members)
+	return append(notes, fmt.Sprintf("Forces (%s) written where they fit: %d of %d members, largest first; axial_forces lists all.",
+		unitOr(m.Units.Force, "kN"), written, len(m.Members)))
 }

@@ -81,9 +81,7 @@ func FormAndForce(w io.Writer, m *model.Model, d *reciprocal.Diagram, opt Option
 		fmt.Sprintf("Each force-diagram segment is %s its member, its length the axial force. Sense read clockwise round each joint, from the space before to the space after.", orient),
 		fmt.Sprintf("Largest closure error at a node %.3g %s; largest segment misfit %.3g %s.", d.MaxClosure, unitOr(m.Units.Force, "kN"), d.MaxMisfit, unitOr(m.Units.Force, "kN")),
 	}
-	if note := memberLabelNote(written, len(m.Members), unitOr(m.Units.Force, "kN")); note != "" {
-		notes = append(notes, note)
-	}
+	notes = withLabelNote(notes, written, m)
 	if len(d.Disagreements) > 0 {
 		notes = append(notes, fmt.Sprintf("Warning: %d members read from the diagram disagree with the given sign.", len(d.Disagreements)))
 	}

@@ -130,14 +130,10 @@ func Solved(w io.Writer, m *model.Model, disp [][]float64, axial []float64, opt 
 	if title == "" {
 		title = "Deflected shape and axial forces"
 	}
-	notes := []string{
+	c.caption(20, y+10, title, withLabelNote([]string{
 		fmt.Sprintf("Undeformed shape dotted grey beneath; displacements drawn ×%s.", fmt.Sprint(magnify)),
 		fmt.Sprintf("Largest displacement %.4g %s; largest axial force %.4g %s.", maxU, unitOr(m.Units.Length, "m"), maxT, unitOr(m.Units.Force, "kN")),
-	}
-	if note := memberLabelNote(written, len(m.Members), unitOr(m.Units.Force, "kN")); note != "" {
-		notes = append(notes, note)
-	}
-	c.caption(20, y+10, title, notes...)
+	}, written, m)...)
 	return c.close()
 }
 
