@@ -152,17 +152,13 @@ func (it *iteration) trialForces(ls *loadSet, u []float64, oneSided bool) []floa
 	u = global(nb, u)
 	out := make([]float64, len(m.Members))
 	var el element
-	var ug, ul, p, fl [12]float64
+	var ul, p, fl [12]float64
 	for e := range m.Members {
 		if oneSided && m.Members[e].Behaviour == model.Both {
 			continue
 		}
 		el.build(m, nb, e)
-		n := el.size
-		for i := range n {
-			ug[i] = u[el.dofs[i]]
-		}
-		el.toLocal(ul[:], ug[:])
+		n := el.localDisplacements(ul[:], u)
 		el.localForces(p[:], ul[:])
 		if ls.memberLoads(e) {
 			ls.equivalent(fl[:], m, &el, e)
@@ -279,7 +275,7 @@ func (it *iteration) rayleigh(st *memberState, u []float64) float64 {
 	}
 	u = global(nb, u)
 	var el element
-	var ug, ul, ku [12]float64
+	var ul, ku [12]float64
 	var kg [144]float64
 	var elastic, geometric float64
 	for e := range m.Members {
@@ -287,11 +283,7 @@ func (it *iteration) rayleigh(st *memberState, u []float64) float64 {
 			continue
 		}
 		el.build(m, nb, e)
-		n := el.size
-		for i := range n {
-			ug[i] = u[el.dofs[i]]
-		}
-		el.toLocal(ul[:], ug[:])
+		n := el.localDisplacements(ul[:], u)
 		el.localForces(ku[:], ul[:])
 		elastic += dot(ul[:n], ku[:n])
 		el.geometric(kg[:], st.axial[e])
@@ -316,18 +308,14 @@ func (it *iteration) inverseStep(st *memberState, u []float64) []float64 {
 	u = global(nb, u)
 	w := make([]float64, nb.equations)
 	var el element
-	var ug, ul, gl, gg [12]float64
+	var ul, gl, gg [12]float64
 	var kg [144]float64
 	for e := range m.Members {
 		if !st.active(e) || st.axial[e] == 0 {
 			continue
 		}
 		el.build(m, nb, e)
-		n := el.size
-		for i := range n {
-			ug[i] = u[el.dofs[i]]
-		}
-		el.toLocal(ul[:], ug[:])
+		n := el.localDisplacements(ul[:], u)
 		el.geometric(kg[:], st.axial[e])
 		mulSquare(gl[:], kg[:], ul[:], n)
 		el.toGlobal(gg[:], gl[:])

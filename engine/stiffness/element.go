@@ -180,6 +180,18 @@ func (el *element) globalStiffness(dst []float64) {
 // toLocal writes t·g into dst.
 func (el *element) toLocal(dst, g []float64) { mulSquare(dst, el.t[:], g, el.size) }
 
+// localDisplacements sets ul to the element's end displacements in its
+// local axes, read from the nodal displacements u (global axes, by
+// freedom), and returns the element's size.
+func (el *element) localDisplacements(ul, u []float64) int {
+	var ug [12]float64
+	for i := range el.size {
+		ug[i] = u[el.dofs[i]]
+	}
+	el.toLocal(ul, ug[:])
+	return el.size
+}
+
 // toGlobal writes tᵀ·l into dst.
 func (el *element) toGlobal(dst, l []float64) {
 	n := el.size

@@ -224,13 +224,9 @@ const recoverParallel = 8192
 // into fg and, when it carries member loads (the result), their equivalent
 // nodal loads into fe; el is scratch space.
 func recoverMember(m *model.Model, nb *numbering, ls *loadSet, u []float64, cr *CaseResult, e int, el *element, sc *memberScratch, fg, fe []float64) bool {
-	var ug, ul, p, fl [12]float64
+	var ul, p, fl [12]float64
 	el.build(m, nb, e)
-	n := el.size
-	for i := range n {
-		ug[i] = u[el.dofs[i]]
-	}
-	el.toLocal(ul[:], ug[:])
+	n := el.localDisplacements(ul[:], u)
 	el.localForces(p[:], ul[:])
 	ls.state.adjust(m, el, e, ul[:n], p[:])
 	loaded := ls.memberLoads(e)
