@@ -48,11 +48,29 @@ func FreeRotations(m *model.Model) (free []uint8, err error) {
 	if !m.HasReleases() {
 		return nil, nil
 	}
+	resist, blame := memberResistance(m)
+	inclined := supportResistance(m, resist)
 	rot := RotationalNodes(m)
-	// resist[n] is Σ d·dᵀ over the directions d (unit vectors, global
-	// axes) about which some member end at node n resists rotation.
-	resist := make([][3][3]float64, m.NodeCount())
-	blame := make([]int, m.NodeCount()) // a released member at the node
+	free = make([]uint8, m.NodeCount())
+	for n := range free {
+		if !rot[n] || blame[n] < 0 {
+			continue
+		}
+		if free[n], err = nodeFreeRotations(m, n, &resist[n], blame[n], inclined[n]); err != nil {
+			return nil, err
+		}
+	}
+	return free, nil
+}
+
+// memberResistance returns, per node, Σ d·dᵀ over the directions d (unit
+// vectors, global axes) about which some beam end at the node resists
+// rotation, and blame: a member with releases at each node (−1 where none
+// ends), which an error about the node points at. Beams whose axes cannot
+// be formed are skipped: the callers' orientation checks report them.
+func memberResistance(m *model.Model) (resist [][3][3]float64, blame []int) {
+	resist = make([][3][3]float64, m.NodeCount())
+	blame = make([]int, m.NodeCount())
 	for i := range blame {
 		blame[i] = -1
 	}
@@ -63,7 +81,7 @@ func FreeRotations(m *model.Model) (free []uint8, err error) {
 		}
 		axes, ok := MemberAxes(m, e)
 		if !ok {
-			continue // reported by the callers' orientation checks
+			continue
 		}
 		for side, n := range mem.Ends {
 			if mem.HasReleases() {
@@ -76,16 +94,19 @@ func FreeRotations(m *model.Model) (free []uint8, err error) {
 				if mem.Released(side, c) || (c == model.RX && Released(mem, Torsion)) {
 					continue
 				}
-				d := axes[c-model.RX]
-				for i := range 3 {
-					for j := range 3 {
-						resist[n][i][j] += d[i] * d[j]
-					}
-				}
+				addOuter(&resist[n], axes[c-model.RX])
 			}
 		}
 	}
-	inclined := make([]bool, m.NodeCount())
+	return resist, blame
+}
+
+// supportResistance adds to resist, per node, d·dᵀ for each rotation
+// direction d a support fixes or springs (the support's own axes where it
+// has directions, else the global ones), and returns which nodes have a
+// support with directions of its own.
+func supportResistance(m *model.Model, resist [][3][3]float64) (inclined []bool) {
+	inclined = make([]bool, m.NodeCount())
 	for _, sp := range m.Supports {
 		inclined[sp.Node] = inclined[sp.Node] || sp.Inclined
 		for c := model.RX; c <= model.RZ; c++ {
@@ -98,42 +119,46 @@ func FreeRotations(m *model.Model) (free []uint8, err error) {
 			} else {
 				d[c-model.RX] = 1
 			}
-			for i := range 3 {
-				for j := range 3 {
-					resist[sp.Node][i][j] += d[i] * d[j]
-				}
-			}
+			addOuter(&resist[sp.Node], d)
 		}
 	}
-	free = make([]uint8, m.NodeCount())
-	for n := range free {
-		if !rot[n] || blame[n] < 0 {
-			continue
+	return inclined
+}
+
+// addOuter adds d·dᵀ to s.
+func addOuter(s *[3][3]float64, d [3]float64) {
+	for i := range 3 {
+		for j := range 3 {
+			s[i][j] += d[i] * d[j]
 		}
-		if m.Dim == 2 {
-			if resist[n][2][2] <= freeTolerance {
-				free[n] = model.ReleaseBit(model.RZ)
-			}
-			continue
-		}
-		bits, aligned := freeAxes(&resist[n])
-		if !aligned {
-			e := blame[n]
-			return nil, fault.At(fault.InvalidModel, fmt.Sprintf("/members/%d/releases", e),
-				"member %q: the releases leave node %q free to rotate about an axis along no global axis, which no member resists; release the torsion (\"rx\") there too, or fix the node's rotations in a support",
-				m.Members[e].ID, m.NodeIDs[n])
-		}
-		if all := model.ReleaseBit(model.RX) | model.ReleaseBit(model.RY) | model.ReleaseBit(model.RZ); bits != 0 && bits != all && inclined[n] {
-			// The node's freedoms are in the support's axes, the free
-			// rotations in global ones.
-			e := blame[n]
-			return nil, fault.At(fault.InvalidModel, fmt.Sprintf("/members/%d/releases", e),
-				"member %q: the releases leave node %q free to rotate about some axes but not others, at a support with directions of its own; release all three rotations there, or fix the node's rotations in the support",
-				m.Members[e].ID, m.NodeIDs[n])
-		}
-		free[n] = bits
 	}
-	return free, nil
+}
+
+// nodeFreeRotations returns the free rotation bits of node n, a rotational
+// node where member blame has releases, from its resisting directions s;
+// inclined says the node has a support with directions of its own. It
+// fails as FreeRotations documents.
+func nodeFreeRotations(m *model.Model, n int, s *[3][3]float64, blame int, inclined bool) (uint8, error) {
+	if m.Dim == 2 {
+		if s[2][2] <= freeTolerance {
+			return model.ReleaseBit(model.RZ), nil
+		}
+		return 0, nil
+	}
+	bits, aligned := freeAxes(s)
+	if !aligned {
+		return 0, fault.At(fault.InvalidModel, fmt.Sprintf("/members/%d/releases", blame),
+			"member %q: the releases leave node %q free to rotate about an axis along no global axis, which no member resists; release the torsion (\"rx\") there too, or fix the node's rotations in a support",
+			m.Members[blame].ID, m.NodeIDs[n])
+	}
+	if all := model.ReleaseBit(model.RX) | model.ReleaseBit(model.RY) | model.ReleaseBit(model.RZ); bits != 0 && bits != all && inclined {
+		// The node's freedoms are in the support's axes, the free
+		// rotations in global ones.
+		return 0, fault.At(fault.InvalidModel, fmt.Sprintf("/members/%d/releases", blame),
+			"member %q: the releases leave node %q free to rotate about some axes but not others, at a support with directions of its own; release all three rotations there, or fix the node's rotations in a support",
+			m.Members[blame].ID, m.NodeIDs[n])
+	}
+	return bits, nil
 }
 
 // freeAxes returns the global rotation components along which the
