@@ -59,7 +59,7 @@ func (it *iteration) request(rq request, last bool) (*CaseResult, error) {
 	}
 	final := ls.forState(p.st) // ls or a copy: this request's own
 	final.state = p.st
-	cr, err := recoverCase(m, nb, p.sys, final, p.u, r.opt.Workers, stationCount(r.opt.Stations))
+	cr, err := recoverCase(m, nb, p.sys, final, p.u, r.opt.Workers, r.opt.recovery())
 	if err != nil {
 		return nil, err
 	}

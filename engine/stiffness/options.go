@@ -61,6 +61,9 @@ type Options struct {
 	// negative value none. The exact extremes along each member are found
 	// whatever the stations.
 	Stations int
+	// Recovery selects how much is worked out along each member after the
+	// displacements; the zero value, RecoverAll, works out everything.
+	Recovery Recovery
 	// SecondOrder, when not nil, adds the P-Δ geometric stiffness of the
 	// axial forces and iterates each case to convergence (see
 	// SecondOrder); nil is a first-order analysis.
@@ -78,4 +81,42 @@ type Options struct {
 	// converges; those of the held-mechanism path are not folded: they
 	// stay whole in Result.Cases.
 	Fold func(index int, c *CaseResult) (keep bool)
+}
+
+// Recovery selects how much Solve works out for each member once the
+// displacements are known.
+type Recovery int
+
+const (
+	// RecoverAll works out every result of CaseResult: the members' end
+	// and axial forces, their results along the length (stations, exact
+	// extremes, energies) and their checks.
+	RecoverAll Recovery = iota
+	// RecoverForces works out the nodal results (displacements,
+	// rotations, reactions, external forces, sums, balance and residual)
+	// and each member's end forces, axial force and stress, which are what
+	// Maxwell's load path and the material volume need, and nothing along
+	// the members: CaseResult.Members and Utilisation are nil (no member
+	// is checked, and Result.Unchecked does not list them), MaxMoment is
+	// unset (Member and Node −1) and MaxDisplacement is that of the nodes
+	// when every member is a bar (exact then: a bar's displacement is
+	// linear along it) and unset (Member and Node −1) otherwise. The
+	// values it does work out are those of RecoverAll, bit for bit. A
+	// sweep whose metrics need nothing more chooses it.
+	RecoverForces
+)
+
+// recovery is what recoverCase works out along each member: stations per
+// beam (0 for none) and, when forcesOnly, nothing but the end forces.
+type recovery struct {
+	stations   int
+	forcesOnly bool
+}
+
+// recovery resolves opt's Stations and Recovery.
+func (opt Options) recovery() recovery {
+	if opt.Recovery == RecoverForces {
+		return recovery{forcesOnly: true}
+	}
+	return recovery{stations: stationCount(opt.Stations)}
 }

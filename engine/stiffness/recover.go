@@ -10,15 +10,16 @@ import (
 // case's results, sharing the members of a large model among up to workers
 // goroutines. Its phases: lay out the result, recover the members (their
 // forces on the freedoms gathered in member order), the reactions, the
-// external forces and balance, and the equilibrium residual.
-func recoverCase(m *model.Model, nb *numbering, sys *system, ls *loadSet, u []float64, workers, stations int) (*CaseResult, error) {
+// external forces and balance, and the equilibrium residual. along says
+// how much to work out along each member (Options.Recovery).
+func recoverCase(m *model.Model, nb *numbering, sys *system, ls *loadSet, u []float64, workers int, along recovery) (*CaseResult, error) {
 	nb.fromAxes(u) // u arrives with inclined nodes in their supports' axes
-	cr := newCaseResult(m, nb, u, stations)
+	cr := newCaseResult(m, nb, u, along)
 	nodeForce, equivalent := recoverMembers(m, nb, ls, u, cr, workers)
 	reactions(m, nb, ls, u, cr, nodeForce)
 	externalForces(m, nb, ls, cr, equivalent)
 	cr.Residual = residual(nb, sys, nb.inAxes(ls.nodal), nb.inAxes(u), nb.inAxes(nodeForce), nb.inAxes(equivalent))
-	summarise(m, cr)
+	summarise(m, cr, along.forcesOnly)
 	if !cr.finite() {
 		return nil, overflowError(m)
 	}
@@ -27,8 +28,10 @@ func recoverCase(m *model.Model, nb *numbering, sys *system, ls *loadSet, u []fl
 
 // newCaseResult allocates a case's result with its displacements copied
 // from u. The rows of the per-node and per-member arrays share one backing
-// array each: one allocation instead of one per node or member.
-func newCaseResult(m *model.Model, nb *numbering, u []float64, stations int) *CaseResult {
+// array each: one allocation instead of one per node or member. The
+// members' results along their length and checks are left out (nil) when
+// along.forcesOnly.
+func newCaseResult(m *model.Model, nb *numbering, u []float64, along recovery) *CaseResult {
 	_, rotational := m.DOFsPerNode()
 	cr := &CaseResult{
 		Displacements: make([][]float64, m.NodeCount()),
@@ -37,10 +40,12 @@ func newCaseResult(m *model.Model, nb *numbering, u []float64, stations int) *Ca
 		EndForces:     make([][]float64, len(m.Members)),
 		Reactions:     make([]Reaction, len(m.Supports)),
 		Stress:        make([]float64, len(m.Members)),
-		Utilisation:   make([]float64, len(m.Members)),
-		Members:       make([]MemberResult, len(m.Members)),
 		LoadSum:       make([]float64, m.Dim),
 		ReactionSum:   make([]float64, m.Dim),
+	}
+	if !along.forcesOnly {
+		cr.Utilisation = make([]float64, len(m.Members))
+		cr.Members = make([]MemberResult, len(m.Members))
 	}
 	nodal := make([]float64, 0, nb.total)
 	for n := range cr.Displacements {
@@ -58,7 +63,7 @@ func newCaseResult(m *model.Model, nb *numbering, u []float64, stations int) *Ca
 	for e := range m.Members {
 		cr.EndForces[e] = ends[endOff[e]:endOff[e+1]:endOff[e+1]]
 	}
-	layoutStations(m, cr, stations)
+	layoutStations(m, cr, along.stations)
 	return cr
 }
 
@@ -220,7 +225,9 @@ func residual(nb *numbering, sys *system, nodal, u, nodeForce, equivalent []floa
 const recoverParallel = 8192
 
 // recoverMember computes member e's end forces (into cr.EndForces[e],
-// which has its length), axial force, stress and utilisation into cr, the forces it exerts on its freedoms (global axes)
+// which has its length), axial force and stress into cr and, unless
+// cr.Members is nil (RecoverForces), its results along its length and its
+// utilisation; the forces it exerts on its freedoms (global axes)
 // into fg and, when it carries member loads (the result), their equivalent
 // nodal loads into fe; el is scratch space.
 func recoverMember(m *model.Model, nb *numbering, ls *loadSet, u []float64, cr *CaseResult, e int, el *element, sc *memberScratch, fg, fe []float64) bool {
@@ -241,6 +248,10 @@ func recoverMember(m *model.Model, nb *numbering, ls *loadSet, u []float64, cr *
 	cr.AxialForce[e] = -p[0]
 	el.toGlobal(fg, p[:])
 	sec := &m.Sections[m.Members[e].Section]
+	cr.Stress[e] = cr.AxialForce[e] / sec.Area
+	if cr.Members == nil {
+		return loaded // RecoverForces: nothing along the member
+	}
 	sc.loading.gather(ls, m, el, e, loaded)
 	if el.beam {
 		el.restoreReleased(ul[:n]) // end releases (release.go)
@@ -251,7 +262,6 @@ func recoverMember(m *model.Model, nb *numbering, ls *loadSet, u []float64, cr *
 			cr.Members[e].Unchecked |= barBending
 		}
 	}
-	cr.Stress[e] = cr.AxialForce[e] / sec.Area
 	cr.Utilisation[e] = checkMember(m, e, &cr.Members[e])
 	return loaded
 }

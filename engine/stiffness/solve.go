@@ -295,7 +295,7 @@ func (r *run) recoverAll(solutions *solutions) error {
 				u[f] = nb.prescribed[f]
 			}
 		}
-		cr, err := recoverCase(r.m, nb, r.sys, newLoadSet(r.m, nb, rq.terms), u, inner, stationCount(r.opt.Stations))
+		cr, err := recoverCase(r.m, nb, r.sys, newLoadSet(r.m, nb, rq.terms), u, inner, r.opt.recovery())
 		if err != nil {
 			return err
 		}

@@ -281,15 +281,20 @@ func norm(v []float64) float64 {
 // summarise sets the case's largest displacement (nodes and member
 // interiors) and largest moment. A member's interior wins over a node only
 // when strictly larger, so a peak at a member's end is reported at its
-// node.
-func summarise(m *model.Model, cr *CaseResult) {
+// node. Without the members' results (forcesOnly) the nodes' largest
+// displacement is the answer only when every member is a bar, whose
+// displacement is linear along it; otherwise both stay unset.
+func summarise(m *model.Model, cr *CaseResult, forcesOnly bool) {
 	cr.MaxDisplacement = Peak{Node: -1, Member: -1}
+	cr.MaxMoment = Peak{Node: -1, Member: -1}
+	if forcesOnly && !allBars(m) {
+		return
+	}
 	for n, d := range cr.Displacements {
 		if v := norm(d); n == 0 || v > cr.MaxDisplacement.Value {
 			cr.MaxDisplacement = Peak{Value: v, Node: n, Member: -1}
 		}
 	}
-	cr.MaxMoment = Peak{Node: -1, Member: -1}
 	for e := range cr.Members {
 		r := &cr.Members[e]
 		if v := r.PeakDisplacement.Value; v > cr.MaxDisplacement.Value {
@@ -304,6 +309,16 @@ func summarise(m *model.Model, cr *CaseResult) {
 			}
 		}
 	}
+}
+
+// allBars reports whether every member of m is a bar.
+func allBars(m *model.Model) bool {
+	for _, mem := range m.Members {
+		if mem.Kind != model.Bar {
+			return false
+		}
+	}
+	return true
 }
 
 // finite reports whether every number of r is finite.
