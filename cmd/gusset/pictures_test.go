@@ -34,6 +34,18 @@ func TestPicturesHaveNoLabelCollisions(t *testing.T) {
 		`"nodes":[{"id":"base","at":[0,0,0]},{"id":"knee","at":[0,0,3]},{"id":"tip","at":[4,0,3]}],` +
 		`"members":[{"id":"column","ends":["base","knee"],"material":"steel","section":"s","type":"beam"},{"id":"arm","ends":["knee","tip"],"material":"steel","section":"s","type":"beam"}],` +
 		`"supports":[{"node":"base","fix":["x","y","z","rx","ry","rz"]}],"load_cases":[{"id":"tip","loads":[{"node":"tip","force":[0,2,-10]}]}]}}}` + "\n")
+	// A pitched portal hinged at its crown (both rafters released there),
+	// for the hinge marks of the 2D moment picture; the demo's deck bay
+	// has them in 3D.
+	in.WriteString(`{"jsonrpc":"2.0","id":"hinged-portal","method":"solve","params":{"picture":true,"model":{"dimension":2,` +
+		`"materials":[{"id":"steel","elastic_modulus":2.1e8}],"sections":[{"id":"frame","area":0.005,"second_moment":8e-5}],` +
+		`"nodes":[{"id":"A","at":[0,0]},{"id":"B","at":[0,4]},{"id":"C","at":[4,5]},{"id":"D","at":[8,4]},{"id":"E","at":[8,0]}],` +
+		`"members":[{"id":"AB","ends":["A","B"],"material":"steel","section":"frame","type":"beam"},` +
+		`{"id":"BC","ends":["B","C"],"material":"steel","section":"frame","type":"beam","releases":{"second":["rz"]}},` +
+		`{"id":"CD","ends":["C","D"],"material":"steel","section":"frame","type":"beam","releases":{"first":["rz"]}},` +
+		`{"id":"DE","ends":["D","E"],"material":"steel","section":"frame","type":"beam"}],` +
+		`"supports":[{"node":"A","fix":["x","y"]},{"node":"E","fix":["x","y"]}],"load_cases":[{"id":"wind and roof","loads":[{"node":"B","force":[10,0]}],` +
+		`"member_loads":[{"member":"BC","kind":"uniform","value":[0,-10]},{"member":"CD","kind":"uniform","value":[0,-10]}]}]}}}` + "\n")
 	runCapture([]string{"run", "-", "--pictures", pictures}, in.String())
 	files, _ := filepath.Glob(filepath.Join(dir, "*.svg"))
 	more, _ := filepath.Glob(filepath.Join(pictures, "*.svg"))
@@ -57,12 +69,23 @@ func TestPicturesHaveNoLabelCollisions(t *testing.T) {
 	for i, svg := range regexp.MustCompile(`(?s)<svg.*?</svg>`).FindAll(report, -1) {
 		docs["report.html#"+string(rune('a'+i))] = svg
 	}
-	spaceMoments := false
+	spaceMoments, planeHinges, spaceHinges := false, 0, 0
 	for _, doc := range docs {
 		spaceMoments = spaceMoments || strings.Contains(string(doc), "My about local y")
+		if hinges := strings.Count(string(doc), `class="hinge"`); strings.Contains(string(doc), "My about local y") {
+			spaceHinges += hinges
+		} else {
+			planeHinges += hinges
+		}
 	}
 	if !spaceMoments {
 		t.Error("the space frame's picture has no moment diagrams")
+	}
+	// The portal's two rafter ends at its crown (2D), the deck bay's three
+	// cross-beams released at both ends (3D): the labels are checked
+	// against these marks below.
+	if planeHinges < 2 || spaceHinges < 6 {
+		t.Errorf("hinge marks: %d in plane pictures, %d in space pictures; want at least 2 and 6", planeHinges, spaceHinges)
 	}
 	for name, doc := range docs {
 		rep, err := render.CheckLabels(doc)
@@ -74,7 +97,7 @@ func TestPicturesHaveNoLabelCollisions(t *testing.T) {
 			t.Errorf("%s: no text found to check", name)
 		}
 		if rep.Defects() > 0 {
-			t.Errorf("%s: %d label defects: %v %v %v", name, rep.Defects(), rep.TextOverlaps, rep.ArrowOverlaps, rep.UnhaloedOnLine)
+			t.Errorf("%s: %d label defects: %v %v %v %v", name, rep.Defects(), rep.TextOverlaps, rep.ArrowOverlaps, rep.HingeOverlaps, rep.UnhaloedOnLine)
 		}
 	}
 }

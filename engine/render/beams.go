@@ -115,10 +115,19 @@ func Beams(w io.Writer, m *model.Model, nodeDisp [][]float64, curves []BeamCurve
 	if title == "" {
 		title = "Moments and deflections along the members"
 	}
-	c.caption(20, top2+h2+30, title,
+	c.caption(20, top2+h2+30, title, withHingeNote(len(releasedEnds(m, model.RZ)) > 0,
 		fmt.Sprintf("Moment scale: 1 %s of drawing = %.4g %s; largest moment %.4g %s.", lengthUnit, momentScale, momentUnit, maxM, momentUnit),
-		fmt.Sprintf("Displacements magnified ×%.4g; largest displacement %.4g %s (undeformed members dotted grey).", magnify, maxU, lengthUnit))
+		fmt.Sprintf("Displacements magnified ×%.4g; largest displacement %.4g %s (undeformed members dotted grey).", magnify, maxU, lengthUnit))...)
 	return c.close()
+}
+
+// withHingeNote returns notes, followed by the sentence on hinge marks
+// when any are drawn.
+func withHingeNote(hinges bool, notes ...string) []string {
+	if hinges {
+		notes = append(notes, hingeNote)
+	}
+	return notes
 }
 
 // niceAbove returns the smallest 1, 2 or 5 × 10ᵏ not below x > 0.
@@ -175,6 +184,11 @@ func drawMoments(c *canvas, f frame, m *model.Model, curves []BeamCurve, byMembe
 			pts.String(), TensionBandColour, TensionColour)
 	}
 	drawSupports(c, f, m)
+	for _, end := range releasedEnds(m, model.RZ) {
+		mem := m.Members[end[0]]
+		a, b := node(m, mem.Ends[end[1]]), node(m, mem.Ends[1-end[1]])
+		c.hingeMark(f.x(a[0]), f.y(a[1]), f.x(b[0]), f.y(b[1]))
+	}
 	order := make([]int, len(curves))
 	for i := range order {
 		order[i] = i
@@ -198,7 +212,7 @@ func drawMoments(c *canvas, f frame, m *model.Model, curves []BeamCurve, byMembe
 		s, off := bc.PeakMoment[1], -bc.PeakMoment[0]/scale
 		p := [2]float64{a[0] + s*t[0] + off*n[0], a[1] + s*t[1] + off*n[1]}
 		c.circle(f.x(p[0]), f.y(p[1]), 2.5, TensionColour)
-		c.text(f.x(p[0])+4, f.y(p[1])-6, fmt.Sprintf("%.4g %s", bc.PeakMoment[0], unit), "small label", "start")
+		labelInside(c, f, f.x(p[0]), f.y(p[1]), 4, -6, fmt.Sprintf("%.4g %s", bc.PeakMoment[0], unit))
 	}
 }
 
@@ -237,7 +251,7 @@ func drawDeflected(c *canvas, f frame, m *model.Model, nodeDisp [][]float64, byM
 	drawSupports(c, f, m)
 	if best > 0 {
 		c.circle(f.x(bestAt[0]), f.y(bestAt[1]), 3, DeflectedColour)
-		c.text(f.x(bestAt[0])+5, f.y(bestAt[1])+14, fmt.Sprintf("largest %.4g %s", best, unit), "small label", "start")
+		labelInside(c, f, f.x(bestAt[0]), f.y(bestAt[1]), 5, 14, fmt.Sprintf("largest %.4g %s", best, unit))
 	}
 }
 

@@ -72,9 +72,9 @@ func Beams3D(w io.Writer, m *model.Model, nodeDisp [][]float64, curves []BeamCur
 	if title == "" {
 		title = "Moments and deflections along the members"
 	}
-	c.caption(20, 36+ph+30, title,
+	c.caption(20, 36+ph+30, title, withHingeNote(len(releasedEnds(m, model.RY))+len(releasedEnds(m, model.RZ)) > 0,
 		fmt.Sprintf("Isometric views; moments drawn on the tension side. Moment scale: 1 %s of drawing = %.4g %s; largest moment %.4g %s.", lengthUnit, sc.momentScale, momentUnit, sc.maxM, momentUnit),
-		fmt.Sprintf("Displacements magnified ×%.4g; largest displacement %.4g %s (undeformed members dotted grey).", sc.magnify, sc.maxU, lengthUnit))
+		fmt.Sprintf("Displacements magnified ×%.4g; largest displacement %.4g %s (undeformed members dotted grey).", sc.magnify, sc.maxU, lengthUnit))...)
 	return c.close()
 }
 
@@ -183,8 +183,9 @@ func (sc *spaceCurves) drawMembersAndSupports(c *canvas, f frame, class string, 
 }
 
 // drawMomentPanel draws one moment diagram (pts gives its ordinates) as a
-// filled band on each member and labels the largest peaks of My when
-// aboutY, else of Mz.
+// filled band on each member, marks the member ends released about the
+// panel's axis (local y when aboutY, else local z) and labels the largest
+// peaks of My when aboutY, else of Mz.
 func (sc *spaceCurves) drawMomentPanel(c *canvas, f frame, pts func(bc *BeamCurve, k int) [3]float64, aboutY bool, unit string) {
 	sc.drawMembersAndSupports(c, f, "", 1.6, ` stroke="`+InkColour+`"`)
 	for i := range sc.curves {
@@ -200,6 +201,16 @@ func (sc *spaceCurves) drawMomentPanel(c *canvas, f frame, pts func(bc *BeamCurv
 		fmt.Fprintf(&s, "%s,%s", num(x), num(y))
 		c.printf(`<polygon points="%s" fill="%s" fill-opacity="0.75" stroke="%s" stroke-width="1.2"/>`+"\n",
 			s.String(), TensionBandColour, TensionColour)
+	}
+	axis := model.RZ
+	if aboutY {
+		axis = model.RY
+	}
+	for _, end := range releasedEnds(sc.m, axis) {
+		mem := sc.m.Members[end[0]]
+		x, y := pt(f, sc.m.Node(mem.Ends[end[1]]))
+		ox, oy := pt(f, sc.m.Node(mem.Ends[1-end[1]]))
+		c.hingeMark(x, y, ox, oy)
 	}
 	peak := func(bc *BeamCurve) [2]float64 {
 		if aboutY {

@@ -33,10 +33,12 @@ type canvas struct {
 	err error
 	// placed holds the estimated boxes of the labels written by label, so
 	// that later labels can step aside; heads the boxes of the arrowheads
-	// drawn and segments the lines drawn, which labels avoid too.
+	// drawn and segments the lines drawn, which labels avoid too; marks
+	// the boxes of the hinge marks (hingeMark), which labels keep off.
 	placed   []rect
 	heads    []rect
 	segments []segment
+	marks    []rect
 }
 
 // rect is an axis-aligned box in picture coordinates.

@@ -10,23 +10,28 @@ import (
 )
 
 // LabelReport counts the label defects of a picture, as a reader would
-// see them: texts whose estimated boxes overlap another text or an
-// arrowhead, and texts without a white halo lying on a drawn line.
+// see them: texts whose estimated boxes overlap another text, an
+// arrowhead or a hinge mark (the open circle of a released member end),
+// and texts without a white halo lying on a drawn line. Hinges counts the
+// hinge marks read.
 type LabelReport struct {
 	Texts          int
+	Hinges         int
 	TextOverlaps   []string
 	ArrowOverlaps  []string
+	HingeOverlaps  []string
 	UnhaloedOnLine []string
 }
 
 // Defects is the number of defects found.
 func (r LabelReport) Defects() int {
-	return len(r.TextOverlaps) + len(r.ArrowOverlaps) + len(r.UnhaloedOnLine)
+	return len(r.TextOverlaps) + len(r.ArrowOverlaps) + len(r.HingeOverlaps) + len(r.UnhaloedOnLine)
 }
 
 // CheckLabels reads an SVG picture and reports its label defects. It
 // reads <text> elements (position, anchor, class; rotated texts are left
-// out) and <line> elements (an arrowhead where marker-end is set), with
+// out), <line> elements (an arrowhead where marker-end is set) and the
+// <circle> elements of class "hinge" (their bounding boxes), with
 // the same box estimates the placement uses; it is meant for tests of
 // every picture Gusset writes, including pictures drawn outside this
 // package.
@@ -47,11 +52,13 @@ type checkedText struct {
 }
 
 // pictureMarks are the marks of a picture CheckLabels compares: its
-// unrotated texts, its lines (leaders left out) and its arrowheads' boxes.
+// unrotated texts, its lines (leaders left out), its arrowheads' boxes and
+// its hinge marks' boxes.
 type pictureMarks struct {
-	texts []checkedText
-	segs  []segment
-	heads []rect
+	texts  []checkedText
+	segs   []segment
+	heads  []rect
+	hinges []rect
 }
 
 // readMarks decodes the <text> and <line> elements of an SVG picture.
@@ -83,6 +90,11 @@ func readMarks(svg []byte) (pictureMarks, error) {
 			return v
 		}
 		switch el.Name.Local {
+		case "circle":
+			if attr("class") == "hinge" {
+				x, y, r := f("cx"), f("cy"), f("r")
+				pm.hinges = append(pm.hinges, rect{x - r, y - r, x + r, y + r})
+			}
 		case "line":
 			if attr("class") == "leader" {
 				continue // a leader ends at its label by design
@@ -115,7 +127,7 @@ func readMarks(svg []byte) (pictureMarks, error) {
 // that lies on a line without a halo.
 func (pm pictureMarks) report() LabelReport {
 	var rep LabelReport
-	rep.Texts = len(pm.texts)
+	rep.Texts, rep.Hinges = len(pm.texts), len(pm.hinges)
 	for i, a := range pm.texts {
 		for _, b := range pm.texts[:i] {
 			if a.box.overlaps(shrink(b.box)) {
@@ -125,6 +137,12 @@ func (pm pictureMarks) report() LabelReport {
 		for _, h := range pm.heads {
 			if shrink(a.box).overlaps(h) {
 				rep.ArrowOverlaps = append(rep.ArrowOverlaps, fmt.Sprintf("%q on an arrowhead", a.s))
+				break
+			}
+		}
+		for _, h := range pm.hinges {
+			if shrink(a.box).overlaps(h) {
+				rep.HingeOverlaps = append(rep.HingeOverlaps, fmt.Sprintf("%q on a hinge mark", a.s))
 				break
 			}
 		}

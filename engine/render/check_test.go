@@ -65,7 +65,7 @@ func drawWithoutLabelDefects(t *testing.T, name string, draw func(*bytes.Buffer)
 		t.Fatal(err)
 	}
 	if rep.Defects() != 0 {
-		t.Errorf("%s: %d label defects: %v %v %v", name, rep.Defects(), rep.TextOverlaps, rep.ArrowOverlaps, rep.UnhaloedOnLine)
+		t.Errorf("%s: %d label defects: %v %v %v %v", name, rep.Defects(), rep.TextOverlaps, rep.ArrowOverlaps, rep.HingeOverlaps, rep.UnhaloedOnLine)
 	}
 	return &b
 }

@@ -147,14 +147,14 @@ func labelCandidates(x, y float64, s, class, anchor string, steps [][2]float64) 
 	return candidates
 }
 
-// clearCandidate returns the first candidate clear of labels, arrowheads
-// and segments (best) and the first clear of labels and arrowheads only
-// (fallback), each -1 when there is none.
+// clearCandidate returns the first candidate clear of labels, arrowheads,
+// hinge marks and segments (best) and the first clear of labels,
+// arrowheads and hinge marks only (fallback), each -1 when there is none.
 func (c *canvas) clearCandidate(candidates [][2]float64, s, class, anchor string) (best, fallback int) {
 	best, fallback = -1, -1
 	for i, p := range candidates {
 		b := labelBox(p[0], p[1], s, class, anchor)
-		if c.collides(b, c.placed) || c.collides(b, c.heads) {
+		if c.collides(b, c.placed) || c.collides(b, c.heads) || c.collides(b, c.marks) {
 			continue
 		}
 		if fallback < 0 {
