@@ -51,6 +51,15 @@ func DecodeStrict(data []byte, v any) error {
 type decoder struct {
 	data []byte
 	pos  int
+	// last holds the last string decoded into each string field, by the
+	// field's slot: a model's members mostly repeat one material, section
+	// and type, and a repeated value is then not allocated again.
+	last []string
+	// The lists being decoded, reused: each list is then allocated once,
+	// at its length.
+	numberList []Number
+	floatList  []float64
+	stringList []string
 }
 
 // maxDepth bounds the nesting DecodeStrict follows (encoding/json's own
@@ -342,8 +351,9 @@ func (d *decoder) elements(each func() error) error {
 // list decodes the array at pos with one into a slice of T: never nil,
 // as encoding/json makes an empty array an empty slice. A null element
 // gets null's value, or declines the input when null is nil.
-func list[T any](d *decoder, one func() (T, error), null func() (T, bool)) ([]T, error) {
-	out := []T{}
+func list[T any](d *decoder, scratch *[]T, one func() (T, error), null func() (T, bool)) ([]T, error) {
+	out := (*scratch)[:0]
+	defer func() { *scratch = out[:0] }()
 	err := d.elements(func() error {
 		if d.data[d.pos] == 'n' {
 			v, ok := null()
@@ -357,23 +367,23 @@ func list[T any](d *decoder, one func() (T, error), null func() (T, bool)) ([]T,
 		out = append(out, v)
 		return err
 	})
-	return out, err
+	return append(make([]T, 0, len(out)), out...), err
 }
 
 func (d *decoder) numbers(dst *[]Number) (err error) {
 	// A null into a Number is its own decoding's error: declined.
-	*dst, err = list(d, func() (n Number, err error) { return n, d.number(&n) }, func() (Number, bool) { return Number{}, false })
+	*dst, err = list(d, &d.numberList, func() (n Number, err error) { return n, d.number(&n) }, func() (Number, bool) { return Number{}, false })
 	return err
 }
 
 func (d *decoder) floats(dst *[]float64) (err error) {
 	// A null leaves a float as it is: zero here.
-	*dst, err = list(d, d.parseFloat, func() (float64, bool) { return 0, true })
+	*dst, err = list(d, &d.floatList, d.parseFloat, func() (float64, bool) { return 0, true })
 	return err
 }
 
 func (d *decoder) strings(dst *[]string) (err error) {
-	*dst, err = list(d, d.str, func() (string, bool) { return "", true })
+	*dst, err = list(d, &d.stringList, d.str, func() (string, bool) { return "", true })
 	return err
 }
 
@@ -382,10 +392,17 @@ func (d *decoder) strings(dst *[]string) (err error) {
 func (d *decoder) array(v reflect.Value, c *codec, depth int) error {
 	out := reflect.New(c.t).Elem() // addressable, so that it grows
 	out.Set(reflect.MakeSlice(c.t, 0, 0))
-	n := 0
+	n, counted := 0, c.elem.how != asStruct
 	err := d.elements(func() error {
 		if n == out.Cap() {
-			out.Grow(max(4, n))
+			grow := max(4, n)
+			if n >= presizeAfter && !counted {
+				// A long array of objects (a model's nodes or members):
+				// size it once rather than allocate and copy it again
+				// at every doubling.
+				grow, counted = max(grow, d.remaining()), true
+			}
+			out.Grow(grow)
 		}
 		out.SetLen(n + 1)
 		n++
@@ -393,6 +410,41 @@ func (d *decoder) array(v reflect.Value, c *codec, depth int) error {
 	})
 	v.Set(out)
 	return err
+}
+
+// presizeAfter is the number of elements of an array of objects after
+// which DecodeStrict counts the rest before it grows the slice.
+const presizeAfter = 64
+
+// remaining returns the number of elements from pos, the start of an
+// element, to the end of the array that holds it, by counting the array's
+// own commas outside strings. It does not check the syntax (the decode
+// does): on malformed input the count is only a poor capacity.
+func (d *decoder) remaining() int {
+	b := d.data
+	depth, n := 0, 1
+	for i := d.pos; i < len(b); i++ {
+		switch b[i] {
+		case '"':
+			for i++; i < len(b) && b[i] != '"'; i++ {
+				if b[i] == '\\' {
+					i++
+				}
+			}
+		case '[', '{':
+			depth++
+		case ']', '}':
+			if depth == 0 {
+				return n
+			}
+			depth--
+		case ',':
+			if depth == 0 {
+				n++
+			}
+		}
+	}
+	return n
 }
 
 // how tells how DecodeStrict decodes a type.
@@ -426,15 +478,18 @@ type codec struct {
 	ownNull bool // a null goes to the type's own decoding
 }
 
-// field is a struct field: its index and codec.
+// field is a struct field: its index and codec, and for a string field
+// its slot in decoder.last.
 type field struct {
 	index int
 	codec *codec
+	slot  int
 }
 
 var (
-	codecsMu sync.Mutex
-	codecs   = map[reflect.Type]*codec{}
+	codecsMu    sync.Mutex
+	codecs      = map[reflect.Type]*codec{}
+	stringSlots int // string fields numbered so far
 )
 
 // codecOf returns t's codec, built once per type.
@@ -525,7 +580,11 @@ func structFields(c *codec) bool {
 		if name == "" {
 			name = f.Name
 		}
-		c.fields[name] = field{index: i, codec: buildCodec(f.Type)}
+		fc := buildCodec(f.Type)
+		c.fields[name] = field{index: i, codec: fc, slot: stringSlots}
+		if fc.how == asString {
+			stringSlots++
+		}
 	}
 	return true
 }
@@ -579,8 +638,25 @@ func (d *decoder) object(v reflect.Value, c *codec, depth int) error {
 			return errUnhandled
 		}
 		seen[f.index] = true
+		if f.codec.how == asString && d.pos < len(d.data) && d.data[d.pos] == '"' {
+			b, err := d.strBytes()
+			v.Field(f.index).SetString(d.intern(f.slot, b))
+			return err
+		}
 		return d.value(v.Field(f.index), f.codec, depth+1)
 	})
+}
+
+// intern returns b as a string, the last one decoded into the field of
+// that slot when it is the same.
+func (d *decoder) intern(slot int, b []byte) string {
+	if slot >= len(d.last) {
+		d.last = append(d.last, make([]string, slot+1-len(d.last))...)
+	}
+	if d.last[slot] != string(b) {
+		d.last[slot] = string(b)
+	}
+	return d.last[slot]
 }
 
 // mapping decodes an object into the map v with string keys, which is nil

@@ -100,29 +100,73 @@ func (c *conn) handleOpen(line []byte) bool {
 }
 
 // readLine reads one line without its newline. A line longer than limit is
-// consumed and reported as tooLong with no data.
+// consumed and reported as tooLong with no data. The line is returned in
+// a buffer of its own, allocated once at its exact size: a line longer
+// than the reader's buffer is gathered in blocks of lineBlock bytes first
+// (growing one buffer by append would allocate about five times the line,
+// since append grows large slices by a quarter, and touch as many fresh
+// pages).
 func readLine(r *bufio.Reader, limit int) (line []byte, tooLong bool, err error) {
-	var buf []byte
-	for {
-		chunk, err := r.ReadSlice('\n')
-		if len(buf)+len(chunk) > limit+2 { // allow for \r\n
-			tooLong = true
-		}
-		if !tooLong {
-			buf = append(buf, chunk...)
-		}
-		if err == bufio.ErrBufferFull {
-			continue
-		}
-		if tooLong {
-			return nil, true, err
-		}
-		buf = bytes.TrimRight(buf, "\r\n")
-		if len(buf) > limit {
-			return nil, true, err
-		}
-		return buf, false, err
+	chunk, err := r.ReadSlice('\n')
+	if err != bufio.ErrBufferFull {
+		return lineOf(limit, err, chunk)
 	}
+	var blocks [][]byte
+	block := make([]byte, 0, lineBlock)
+	size := 0
+	for {
+		size += len(chunk)
+		if size > limit+2 { // allow for \r\n
+			tooLong, blocks, block = true, nil, block[:0]
+		}
+		for !tooLong && len(chunk) > 0 {
+			if len(block) == cap(block) {
+				blocks = append(blocks, block)
+				block = make([]byte, 0, lineBlock)
+			}
+			n := min(len(chunk), cap(block)-len(block))
+			block, chunk = append(block, chunk[:n]...), chunk[n:]
+		}
+		if err != bufio.ErrBufferFull {
+			break
+		}
+		chunk, err = r.ReadSlice('\n')
+	}
+	if tooLong {
+		return nil, true, err
+	}
+	return lineOf(limit, err, append(blocks, block)...)
+}
+
+// lineBlock is the size of the blocks readLine gathers a long line in.
+const lineBlock = 1 << 20
+
+// lineOf joins parts into one new buffer of the exact size without the
+// line's ending (its trailing \r and \n bytes, which may straddle two
+// parts), or reports tooLong when that exceeds limit.
+func lineOf(limit int, err error, parts ...[]byte) ([]byte, bool, error) {
+	size := 0
+	for _, p := range parts {
+		size += len(p)
+	}
+	for k := len(parts) - 1; k >= 0; k-- {
+		p, i := parts[k], len(parts[k])
+		for i > 0 && (p[i-1] == '\n' || p[i-1] == '\r') {
+			i--
+		}
+		size -= len(p) - i
+		if i > 0 {
+			break
+		}
+	}
+	if size > limit {
+		return nil, true, err
+	}
+	line := make([]byte, 0, size)
+	for _, p := range parts {
+		line = append(line, p[:min(len(p), size-len(line))]...)
+	}
+	return line, false, err
 }
 
 // parse decodes the envelope. It returns either a call or an error
@@ -134,9 +178,14 @@ func (s *Server) parse(line []byte) (*call, *protocol.Response) {
 			"The line is not valid UTF-8. Send requests as UTF-8 JSON, one per line."))
 	}
 	// Members are taken by their exact names (RFC 8259 §4): decoding into a
-	// struct would also accept "ID" or "Method". The params stay raw.
-	var members map[string]json.RawMessage
-	err := json.Unmarshal(line, &members)
+	// struct would also accept "ID" or "Method". The params stay raw, and
+	// alias the line: ObjectMembers checks the syntax in one pass without
+	// copying, and leaves what it declines to encoding/json.
+	members, ok := protocol.ObjectMembers(line)
+	var err error
+	if !ok {
+		err = json.Unmarshal(line, &members)
+	}
 	if err == nil {
 		cl, resp := s.request(members)
 		if _, hasID := members["id"]; !hasID && resp != nil && resp.Error.Code != protocol.CodeInvalidRequest {
