@@ -124,7 +124,7 @@ func (c *compiler) areaLoad(ci, j int, base string, memberIndex func() map[[2]in
 	}
 	seen := make(map[int]int)
 	for k, id := range as.Nodes {
-		n, found := c.nodeIndex[id]
+		n, found := c.nodeIndex.find(id)
 		switch {
 		case !found:
 			c.problem(base+"/nodes/"+strconv.Itoa(k), "area load names node %q, which does not exist", id)

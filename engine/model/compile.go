@@ -98,9 +98,10 @@ type compiler struct {
 	exprs    map[string]compiled
 	bindings []binding
 
-	nodeIndex map[string]int
-	tol       float64        // coincidence tolerance, length units
-	byEnds    map[[2]int]int // node pair -> member, for area loads
+	nodeIndex   *idIndex
+	memberIndex *idIndex       // first member of each id
+	tol         float64        // coincidence tolerance, length units
+	byEnds      map[[2]int]int // node pair -> member, for area loads
 
 	// The programs of expressions that defaults and thermal strains derive
 	// from, so their bindings can recompute the derived values.
@@ -466,8 +467,7 @@ func (c *compiler) nodes() {
 	s, m := c.spec, c.m
 	n := len(s.Nodes)
 	m.NodeIDs = make([]string, n)
-	c.nodeIndex = make(map[string]int, n)
-	c.ids("node", "nodes", n, func(i int) string { return s.Nodes[i].ID }, c.nodeIndex)
+	c.nodeIndex = c.newIDIndex("node", "nodes", n, func(i int) string { return s.Nodes[i].ID })
 	if c.dim == 0 {
 		return
 	}

@@ -44,7 +44,7 @@ func (c *compiler) supports() {
 		ss := &s.Supports[i]
 		sup := &m.Supports[i]
 		base := "supports/" + strconv.Itoa(i)
-		j, ok := c.nodeIndex[ss.Node]
+		j, ok := c.nodeIndex.find(ss.Node)
 		if !ok {
 			sup.Node = -1
 			c.problem(base+"/node", "support names node %q, which does not exist", ss.Node)
@@ -110,7 +110,6 @@ func (c *compiler) loadCases() {
 	m.Cases = make([]LoadCase, len(s.LoadCases))
 	caseIndex := make(map[string]int, len(s.LoadCases))
 	c.ids("load case", "load_cases", len(s.LoadCases), func(i int) string { return s.LoadCases[i].ID }, caseIndex)
-	var memberIndex map[string]int
 	for ci := range s.LoadCases {
 		ls := &s.LoadCases[ci]
 		lc := &m.Cases[ci]
@@ -120,17 +119,9 @@ func (c *compiler) loadCases() {
 		for j := range ls.Loads {
 			c.nodalLoad(ci, j)
 		}
-		if len(ls.MemberLoads) > 0 && memberIndex == nil {
-			memberIndex = make(map[string]int, len(s.Members))
-			for i := range s.Members {
-				if _, dup := memberIndex[s.Members[i].ID]; !dup {
-					memberIndex[s.Members[i].ID] = i
-				}
-			}
-		}
 		lc.MemberLoads = make([]MemberLoad, len(ls.MemberLoads))
 		for j := range ls.MemberLoads {
-			c.memberLoad(ci, j, memberIndex)
+			c.memberLoad(ci, j)
 		}
 		c.areaLoads(ci, c.membersByEnds)
 	}
@@ -142,7 +133,7 @@ func (c *compiler) nodalLoad(ci, j int) {
 	// The path is built only when needed: large models have a load at
 	// almost every node, and nearly all of them are plain numbers.
 	base := func() string { return "load_cases/" + strconv.Itoa(ci) + "/loads/" + strconv.Itoa(j) }
-	if n, ok := c.nodeIndex[ls.Node]; ok {
+	if n, ok := c.nodeIndex.find(ls.Node); ok {
 		load.Node = n
 	} else {
 		load.Node = -1
@@ -185,7 +176,7 @@ func (c *compiler) nodalLoad(ci, j int) {
 	}
 }
 
-func (c *compiler) memberLoad(ci, j int, memberIndex map[string]int) {
+func (c *compiler) memberLoad(ci, j int) {
 	ls := &c.spec.LoadCases[ci].MemberLoads[j]
 	load := &c.m.Cases[ci].MemberLoads[j]
 	base := memberLoadPath(ci, j)
@@ -193,7 +184,7 @@ func (c *compiler) memberLoad(ci, j int, memberIndex map[string]int) {
 		return binding{target: targetMemberLoads, group: ci,
 			set: func(m *Model, x float64) { set(&m.Cases[ci].MemberLoads[j], x) }}
 	}
-	e, ok := memberIndex[ls.Member]
+	e, ok := c.memberIndex.find(ls.Member)
 	if ok {
 		load.Member = e
 	} else {

@@ -13,8 +13,7 @@ func (c *compiler) members() {
 	s, m := c.spec, c.m
 	n := len(s.Members)
 	m.Members = make([]Member, n)
-	memberIndex := make(map[string]int, n)
-	c.ids("member", "members", n, func(i int) string { return s.Members[i].ID }, memberIndex)
+	c.memberIndex = c.newIDIndex("member", "members", n, func(i int) string { return s.Members[i].ID })
 	materialIndex := make(map[string]int, len(s.Materials))
 	c.ids("material", "materials", len(s.Materials), func(i int) string { return s.Materials[i].ID }, materialIndex)
 	sectionIndex := make(map[string]int, len(s.Sections))
@@ -79,7 +78,7 @@ func (c *compiler) members() {
 func (c *compiler) memberEnds(i int) {
 	ms, mem := &c.spec.Members[i], &c.m.Members[i]
 	for k, end := range ms.Ends {
-		j, ok := c.nodeIndex[end]
+		j, ok := c.nodeIndex.find(end)
 		if !ok {
 			mem.Ends[k] = -1
 			c.problem("members/"+strconv.Itoa(i)+"/ends/"+strconv.Itoa(k),
