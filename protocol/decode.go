@@ -271,6 +271,9 @@ func (d *decoder) strBytes() ([]byte, error) {
 	start := d.pos + 1
 	ascii := true
 	for i := start; i < len(b); i++ {
+		if plainText[b[i]] {
+			continue
+		}
 		switch c := b[i]; {
 		case c == '"':
 			if !ascii && !utf8.Valid(b[start:i]) {
@@ -286,6 +289,15 @@ func (d *decoder) strBytes() ([]byte, error) {
 	}
 	return nil, errUnhandled
 }
+
+// plainText marks the bytes a string holds as they are: printable ASCII
+// other than the quote and the backslash.
+var plainText = func() (t [256]bool) {
+	for c := 0x20; c < 0x80; c++ {
+		t[c] = c != '"' && c != '\\'
+	}
+	return t
+}()
 
 // number reads a Number: a plain number, or a string holding an
 // expression.
@@ -424,6 +436,9 @@ func (d *decoder) remaining() int {
 	b := d.data
 	depth, n := 0, 1
 	for i := d.pos; i < len(b); i++ {
+		if !structural[b[i]] {
+			continue
+		}
 		switch b[i] {
 		case '"':
 			for i++; i < len(b) && b[i] != '"'; i++ {
@@ -446,6 +461,9 @@ func (d *decoder) remaining() int {
 	}
 	return n
 }
+
+// structural marks the bytes remaining looks at.
+var structural = [256]bool{'"': true, '[': true, '{': true, ']': true, '}': true, ',': true}
 
 // how tells how DecodeStrict decodes a type.
 type how uint8
@@ -474,8 +492,15 @@ type codec struct {
 	t       reflect.Type
 	elem    *codec
 	fields  map[string]field
-	count   int  // a struct's fields
-	ownNull bool // a null goes to the type's own decoding
+	order   []namedField // a struct's fields in declaration order
+	count   int          // a struct's fields
+	ownNull bool         // a null goes to the type's own decoding
+}
+
+// namedField is a struct field with its JSON name.
+type namedField struct {
+	name string
+	field
 }
 
 // field is a struct field: its index and codec, and for a string field
@@ -537,7 +562,7 @@ func buildPlain(c *codec) {
 	case reflect.Struct:
 		c.how, c.fields, c.count = asStruct, map[string]field{}, t.NumField()
 		if !structFields(c) {
-			c.how, c.fields = unhandled, nil
+			c.how, c.fields, c.order = unhandled, nil, nil
 		}
 	case reflect.Slice:
 		c.how, c.elem = asSlice, buildCodec(t.Elem())
@@ -582,6 +607,7 @@ func structFields(c *codec) bool {
 		}
 		fc := buildCodec(f.Type)
 		c.fields[name] = field{index: i, codec: fc, slot: stringSlots}
+		c.order = append(c.order, namedField{name, c.fields[name]})
 		if fc.how == asString {
 			stringSlots++
 		}
@@ -632,8 +658,9 @@ func (d *decoder) object(v reflect.Value, c *codec, depth int) error {
 	if c.count > len(seen) {
 		seen = make([]bool, c.count)
 	}
+	next := 0 // where the next key is looked for first
 	return d.members(func(key []byte) error {
-		f, ok := c.fields[string(key)]
+		f, ok := c.field(key, &next)
 		if !ok || seen[f.index] {
 			return errUnhandled
 		}
@@ -645,6 +672,21 @@ func (d *decoder) object(v reflect.Value, c *codec, depth int) error {
 		}
 		return d.value(v.Field(f.index), f.codec, depth+1)
 	})
+}
+
+// field returns the field named key. Encoders write an object's keys in
+// the order of its type's fields, some left out, so the fields from next
+// on are tried first, by name, and next moves past the one found; a key
+// out of that order is looked up by hash.
+func (c *codec) field(key []byte, next *int) (field, bool) {
+	for k := *next; k < len(c.order); k++ {
+		if c.order[k].name == string(key) {
+			*next = k + 1
+			return c.order[k].field, true
+		}
+	}
+	f, ok := c.fields[string(key)]
+	return f, ok
 }
 
 // intern returns b as a string, the last one decoded into the field of

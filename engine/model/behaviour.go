@@ -13,23 +13,24 @@ import (
 // pretension on a compression-only bar (which could never hold it).
 func (c *compiler) memberBehaviour(i int) {
 	ms, mem := &c.spec.Members[i], &c.m.Members[i]
-	at := "members/" + strconv.Itoa(i)
+	// The path is built only for a problem: nearly every member has none.
+	at := func() string { return "members/" + strconv.Itoa(i) }
 	switch ms.Behaviour {
 	case "":
 	case "tension-only":
 		mem.Behaviour = TensionOnly
 	case "compression-only":
 		if mem.Cable {
-			c.problem(at+"/behaviour", "member %q is a cable, which is tension-only; remove behaviour %q or make it a bar", ms.ID, ms.Behaviour)
+			c.problem(at()+"/behaviour", "member %q is a cable, which is tension-only; remove behaviour %q or make it a bar", ms.ID, ms.Behaviour)
 			return
 		}
 		mem.Behaviour = CompressionOnly
 	default:
-		c.problem(at+"/behaviour", "member %q has behaviour %q; use \"tension-only\" or \"compression-only\" (or leave it out for both)", ms.ID, ms.Behaviour)
+		c.problem(at()+"/behaviour", "member %q has behaviour %q; use \"tension-only\" or \"compression-only\" (or leave it out for both)", ms.ID, ms.Behaviour)
 		return
 	}
 	if ms.Behaviour != "" && ms.Type == "beam" {
-		c.problem(at+"/behaviour", "member %q is a beam, which takes bending whatever the sense of its axial force; behaviour is for bars and cables", ms.ID)
+		c.problem(at()+"/behaviour", "member %q is a beam, which takes bending whatever the sense of its axial force; behaviour is for bars and cables", ms.ID)
 	}
 	if ms.Pretension == nil {
 		return
@@ -37,11 +38,11 @@ func (c *compiler) memberBehaviour(i int) {
 	t := *ms.Pretension
 	switch {
 	case ms.Type == "beam":
-		c.problem(at+"/pretension", "member %q is a beam; pretension is for bars and cables", ms.ID)
+		c.problem(at()+"/pretension", "member %q is a beam; pretension is for bars and cables", ms.ID)
 	case !(t >= 0) || math.IsInf(t, 0):
-		c.problem(at+"/pretension", "member %q needs a pretension that is a finite force of at least 0, got %v", ms.ID, t)
+		c.problem(at()+"/pretension", "member %q needs a pretension that is a finite force of at least 0, got %v", ms.ID, t)
 	case t > 0 && mem.Behaviour == CompressionOnly:
-		c.problem(at+"/pretension", "member %q is compression-only and cannot hold a pretension (a tension); remove one of them", ms.ID)
+		c.problem(at()+"/pretension", "member %q is compression-only and cannot hold a pretension (a tension); remove one of them", ms.ID)
 	default:
 		mem.Pretension = t
 	}
