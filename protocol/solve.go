@@ -67,7 +67,9 @@ type CaseResult struct {
 	MaxDisplacement Extreme `json:"max_displacement"`
 	// MaxMoment is the bending moment of largest magnitude in any beam
 	// (signed; force·length), its member and distance; value 0 and no
-	// member when the model has no beams.
+	// member when the model has no beams. The bending of a bar loaded
+	// across its length is not analysed and is not in it: unchecked names
+	// each such bar.
 	MaxMoment Extreme `json:"max_moment"`
 	// Members holds per member (aligned with model.members) its results
 	// along its length; null for a bar, whose axial force is constant
@@ -79,6 +81,16 @@ type CaseResult struct {
 	MaxUtilisation Extreme `json:"max_utilisation"`
 	// UncheckedMembers counts the members with a null utilisation.
 	UncheckedMembers int `json:"unchecked_members"`
+	// AxialUtilisation holds per member its axial check alone, as in
+	// utilisation (N/(A·tension_limit) in tension,
+	// |N|/(χ·A·compression_limit) in compression), null where that check
+	// was not made. It is given only when some member's utilisation is
+	// null although its axial check was made (a bar loaded across its
+	// length, whose bending is not analysed; a beam whose bending could not
+	// be checked), so that the part checked is known; it is a part of the
+	// check, never the member's utilisation (unchecked says what is
+	// missing).
+	AxialUtilisation []*float64 `json:"axial_utilisation,omitempty"`
 	// Iteration reports how the case converged when it was solved on its
 	// own by iteration (one-sided members or second order); absent for a
 	// case solved by superposition.

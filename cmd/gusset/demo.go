@@ -189,14 +189,7 @@ func (d *demo) analysis(ids []string) (string, error) {
 		hi, lo := extremes(c.AxialForces)
 		d.say("   %-9s largest tension %7.1f kN (%s), largest compression %7.1f kN (%s)\n", c.ID,
 			c.AxialForces[hi], ids[hi], c.AxialForces[lo], ids[lo])
-		d.say("             deflection %5.1f mm at %s, utilisation %.2f (%s)",
-			1000*c.MaxDisplacement.Value, c.MaxDisplacement.At, c.MaxUtilisation.Value, c.MaxUtilisation.At)
-		if c.UncheckedMembers > 0 {
-			// A largest value over the checked members alone would
-			// flatter: say how many were left out.
-			d.say(" of the checked members; %d not checked (see unchecked)", c.UncheckedMembers)
-		}
-		d.say("\n")
+		d.say("%s\n", wrapped("             "+summaryLine(c), "             ", 104))
 		// The governing case carries the largest member force: the
 		// largest utilisation would pass over a case whose members are
 		// left unchecked (bars under their own weight).
@@ -231,6 +224,9 @@ func (d *demo) quantities() (*protocol.LoadPathResult, map[string]any, error) {
 	for _, c := range lp.Cases {
 		d.say("   %-9s Z = %7.1f kN·m (tension %6.1f, compression %6.1f); M = %7.1f; Maxwell residual %.1e\n",
 			c.ID, c.LoadPath, c.TensionLoadPath, c.CompressionLoadPath, c.Constant, c.RelativeResidual)
+	}
+	if len(lp.Warnings) > 0 {
+		d.say("%s\n", wrapped("   Left out: "+lp.Warnings[0]+moreCases(len(lp.Warnings)-1), "             ", 104))
 	}
 	t := lp.Totals.All
 	d.say("   Steel: %.3f m³, %.0f kg, %.0f kg CO2e; per m² of deck %.1f kg and %.1f kg CO2e\n\n",

@@ -31,12 +31,18 @@ func (cr *CaseResult) BendingShare() (share float64, member int) {
 // LoadPathCaveat returns the warning a load path of case cr needs when
 // members bend or twist: the share of the strain energy the axial measure
 // leaves out, where most of it is, and the largest bending utilisation
-// (or how many beams' bending went unchecked). It is empty when no member
-// bends.
+// (or how many beams' bending went unchecked), and how many bars carry
+// loads across them, whose bending is not analysed at all. It is empty
+// when no member bends.
 func LoadPathCaveat(m *model.Model, cr *CaseResult) string {
+	bars := LoadedBars(cr)
 	share, member := cr.BendingShare()
 	if member < 0 {
-		return ""
+		if bars == 0 {
+			return ""
+		}
+		return fmt.Sprintf("%s %q: the load path counts axial forces only, and %d bars carry loads across them (their own weight, member loads), whose bending is not analysed (see solve's unchecked list): the load path, and volumes sized from it, understate what these members need",
+			caseWord(cr), cr.ID, bars)
 	}
 	worst, unchecked := -1, 0
 	for e := range cr.Members {
@@ -57,6 +63,9 @@ func LoadPathCaveat(m *model.Model, cr *CaseResult) string {
 	}
 	if unchecked > 0 {
 		s += fmt.Sprintf("; the bending of %d beams is not checked (no section modulus or limit; see solve's unchecked list)", unchecked)
+	}
+	if bars > 0 {
+		s += fmt.Sprintf("; %d bars carry loads across them, whose bending is not analysed", bars)
 	}
 	return s + ": the load path, and volumes sized from it, understate what these members need"
 }

@@ -189,6 +189,19 @@ func bendingUtilisation(m *model.Model, sec *model.Section, mat *model.Material,
 	return u, true
 }
 
+// LoadedBars returns how many bars of case cr carry loads across their
+// length (their own weight, member loads): their bending is neither
+// analysed nor checked, and their utilisation is unknown.
+func LoadedBars(cr *CaseResult) int {
+	n := 0
+	for e := range cr.Members {
+		if cr.Members[e].Unchecked&barBending != 0 {
+			n++
+		}
+	}
+	return n
+}
+
 // uncheckedNotes lists, member by member, the checks not made (or made on
 // an assumption) in any of the cases, each with the pointer of the data
 // that would allow it, at most limit of them and then a count.
@@ -262,7 +275,7 @@ func uncheckedNote(m *model.Model, e int, bit uint16) fault.Problem {
 			Message: fmt.Sprintf("beam %q bends but material %q has neither a tension_limit nor a compression_limit: its bending and combined checks are not made", id, mat)}
 	default:
 		return fault.Problem{Path: fmt.Sprintf("/members/%d/type", e),
-			Message: fmt.Sprintf("bar %q carries loads across it, which reach its ends as on a simple span: its bending is neither analysed nor checked; make it a beam", id)}
+			Message: fmt.Sprintf("bar %q carries loads across it, which reach its ends as on a simple span: its bending is neither analysed nor checked (its axial check alone is in axial_utilisation); make it a beam", id)}
 	}
 }
 

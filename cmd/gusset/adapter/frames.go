@@ -75,6 +75,7 @@ func caseSummaries(m *model.Model, c *stiffness.CaseResult, cr *protocol.CaseRes
 			cr.MaxUtilisation = protocol.Extreme{Value: u, At: m.Members[j].ID}
 		}
 	}
+	cr.AxialUtilisation = axialParts(c)
 	cr.MaxDisplacement = wirePeak(m, c.MaxDisplacement)
 	cr.MaxMoment = wirePeak(m, c.MaxMoment)
 	cr.Members = make([]*protocol.MemberResult, len(c.Members))
