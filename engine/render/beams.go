@@ -47,7 +47,10 @@ const beamLabels = 8
 // deflected shape along the members (the stations' displacements,
 // magnified by a stated round factor) over the undeformed model, with
 // the largest displacement labelled. Members without a curve (bars) are
-// drawn straight between their nodes. The caption carries the caution.
+// drawn straight between their nodes. A beam end released in bending
+// (model.Member.Releases, rz) is marked in the moment diagram by an open
+// circle on the beam just inside its node, which the caption explains.
+// The caption carries the caution.
 // It returns the first write error and panics for a 3D model or a curve
 // whose arrays differ in length.
 func Beams(w io.Writer, m *model.Model, nodeDisp [][]float64, curves []BeamCurve, opt Options) error {

@@ -21,7 +21,9 @@ import (
 // along the members (the stations' displacements, magnified by a stated
 // round factor) over the undeformed model. A curve's MomentY holds My.
 // Members without a curve (bars) are drawn straight between their nodes.
-// The caption carries the caution. It returns the first write error and
+// Beam ends released about local z are marked by open circles in the Mz
+// panel, those released about local y in the My panel (hingeMark). The
+// caption carries the caution. It returns the first write error and
 // panics for a 2D model or a curve whose arrays differ in length.
 func Beams3D(w io.Writer, m *model.Model, nodeDisp [][]float64, curves []BeamCurve, opt Options) error {
 	if m.Dim != 3 {
