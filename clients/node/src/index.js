@@ -8,7 +8,7 @@
 // qualified engineer checks the design against the local codes and standards.
 
 export { Client, Call, Sweep } from './client.js';
-export { memberResult, memberResults, momentDiagram } from './members.js';
+export { memberCheck, memberResult, memberResults, momentDiagram } from './members.js';
 export { released } from './releases.js';
 export { areaLoad, inclinedSupport, localReactions } from './panels.js';
 export { governing, memberEnvelope, onOffPattern } from './envelope.js';

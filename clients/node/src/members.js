@@ -44,3 +44,29 @@ export function momentDiagram(caseResult, memberId, axis = 'z') {
   if (!moments || moments.length === 0) return [];
   return moments.map((m, k) => [entry.stations[k], m]);
 }
+
+/**
+ * memberCheck returns the checks of the member called memberId in one case:
+ * `checked` (every check the member needs was made), `utilisation` (the
+ * largest of them, null unless checked) and `axial_utilisation`, the axial
+ * check alone, null where it was not made. For a member not fully checked (a
+ * bar carrying loads across it, a beam without a section modulus) the axial
+ * part is a part of the check, never the whole: the result's `unchecked` says
+ * what is missing.
+ * @param {object} caseResult one entry of a solve result's `cases`
+ * @param {object} model the model it solved (its `members` give the order)
+ * @param {string} memberId
+ * @returns {{checked: boolean, utilisation: ?number, axial_utilisation: ?number}}
+ * @throws {RangeError} when the model has no member of that id
+ */
+export function memberCheck(caseResult, model, memberId) {
+  const index = (model.members ?? []).findIndex((m) => m.id === memberId);
+  if (index < 0) throw new RangeError(`no member ${JSON.stringify(memberId)} in the model`);
+  const utilisation = caseResult.utilisation[index];
+  const entry = caseResult.members?.[index] ?? null;
+  let axial;
+  if (caseResult.axial_utilisation) axial = caseResult.axial_utilisation[index];
+  else if (entry) axial = entry.axial_utilisation ?? null;
+  else axial = utilisation; // a bar checked whole: its only check is axial
+  return { checked: utilisation !== null, utilisation, axial_utilisation: axial };
+}

@@ -19,7 +19,7 @@ design against the local codes and standards.
 
 from .binary import BUILD_HINT, find_binary
 from .client import Call, Client, Progress, Sweep
-from .members import member_result, member_results, moment_diagram
+from .members import member_check, member_result, member_results, moment_diagram
 from .releases import released
 from .panels import area_load, inclined_support, local_reactions
 from .envelope import governing, member_envelope, on_off_pattern
@@ -98,6 +98,7 @@ __all__ = [
     "WrongDimension",
     "error_class",
     "find_binary",
+    "member_check",
     "member_result",
     "member_results",
     "moment_diagram",

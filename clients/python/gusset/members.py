@@ -9,7 +9,7 @@ not keep the member order.
 
 from typing import Any, Dict, Iterator, List, Optional, Tuple
 
-__all__ = ["member_result", "member_results", "moment_diagram"]
+__all__ = ["member_check", "member_result", "member_results", "moment_diagram"]
 
 
 def member_result(case: Dict[str, Any], member_id: str) -> Dict[str, Any]:
@@ -41,3 +41,33 @@ def moment_diagram(case: Dict[str, Any], member_id: str, axis: str = "z") -> Lis
     if not moments:
         return []
     return list(zip(entry["stations"], moments))
+
+
+def member_check(case: Dict[str, Any], model: Dict[str, Any], member_id: str) -> Dict[str, Any]:
+    """member_check returns the checks of the member called member_id in one case.
+
+    case is one entry of a solve result's ``cases`` and model the model it
+    solved (its ``members`` give the order). The dict has ``checked``
+    (every check the member needs was made), ``utilisation`` (the largest
+    of them, None unless checked) and ``axial_utilisation``: the axial
+    check alone, None where it was not made. For a member not fully
+    checked (a bar carrying loads across it, a beam without a section
+    modulus) the axial part is a part of the check, never the whole: the
+    result's ``unchecked`` says what is missing. It raises KeyError when
+    the model has no member of that id.
+    """
+    for index, member in enumerate(model.get("members", [])):
+        if member.get("id") == member_id:
+            break
+    else:
+        raise KeyError("no member %r in the model" % (member_id,))
+    utilisation = case["utilisation"][index]
+    parts = case.get("axial_utilisation")
+    entry = (case.get("members") or [None] * (index + 1))[index]
+    if parts is not None:
+        axial = parts[index]
+    elif entry is not None:
+        axial = entry.get("axial_utilisation")
+    else:
+        axial = utilisation  # a bar checked whole: its only check is axial
+    return {"checked": utilisation is not None, "utilisation": utilisation, "axial_utilisation": axial}
