@@ -60,6 +60,10 @@ type decoder struct {
 	numberList []Number
 	floatList  []float64
 	stringList []string
+	// Blocks the lists are cut from (see carve).
+	numberSlab []Number
+	floatSlab  []float64
+	stringSlab []string
 }
 
 // maxDepth bounds the nesting DecodeStrict follows (encoding/json's own
@@ -363,7 +367,7 @@ func (d *decoder) elements(each func() error) error {
 // list decodes the array at pos with one into a slice of T: never nil,
 // as encoding/json makes an empty array an empty slice. A null element
 // gets null's value, or declines the input when null is nil.
-func list[T any](d *decoder, scratch *[]T, one func() (T, error), null func() (T, bool)) ([]T, error) {
+func list[T any](d *decoder, scratch, slab *[]T, one func() (T, error), null func() (T, bool)) ([]T, error) {
 	out := (*scratch)[:0]
 	defer func() { *scratch = out[:0] }()
 	err := d.elements(func() error {
@@ -379,23 +383,46 @@ func list[T any](d *decoder, scratch *[]T, one func() (T, error), null func() (T
 		out = append(out, v)
 		return err
 	})
-	return append(make([]T, 0, len(out)), out...), err
+	return append(carve(slab, len(out)), out...), err
+}
+
+// slabSize is the number of elements in a block that carve cuts lists
+// from.
+const slabSize = 1024
+
+// carve returns an empty slice with room for n elements, cut from the
+// block slab (allocated again when the rest is too short) when n is small,
+// so that the many short lists of a model (a node's coordinates, a
+// member's ends) are not one allocation each. The slice's capacity is n:
+// appending to it never writes into the block.
+func carve[T any](slab *[]T, n int) []T {
+	switch {
+	case n == 0:
+		return []T{}
+	case n > slabSize/8:
+		return make([]T, 0, n)
+	case len(*slab) < n:
+		*slab = make([]T, slabSize)
+	}
+	out := (*slab)[:0:n]
+	*slab = (*slab)[n:]
+	return out
 }
 
 func (d *decoder) numbers(dst *[]Number) (err error) {
 	// A null into a Number is its own decoding's error: declined.
-	*dst, err = list(d, &d.numberList, func() (n Number, err error) { return n, d.number(&n) }, func() (Number, bool) { return Number{}, false })
+	*dst, err = list(d, &d.numberList, &d.numberSlab, func() (n Number, err error) { return n, d.number(&n) }, func() (Number, bool) { return Number{}, false })
 	return err
 }
 
 func (d *decoder) floats(dst *[]float64) (err error) {
 	// A null leaves a float as it is: zero here.
-	*dst, err = list(d, &d.floatList, d.parseFloat, func() (float64, bool) { return 0, true })
+	*dst, err = list(d, &d.floatList, &d.floatSlab, d.parseFloat, func() (float64, bool) { return 0, true })
 	return err
 }
 
 func (d *decoder) strings(dst *[]string) (err error) {
-	*dst, err = list(d, &d.stringList, d.str, func() (string, bool) { return "", true })
+	*dst, err = list(d, &d.stringList, &d.stringSlab, d.str, func() (string, bool) { return "", true })
 	return err
 }
 

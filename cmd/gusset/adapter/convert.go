@@ -36,18 +36,15 @@ func specOf(w *protocol.Model) *model.Spec {
 		s.Sections[i] = model.SectionSpec{ID: c.ID, Area: areaOf(c.Area), Shape: shapeOf(c.Shape), SectionModulus: optional(c.SectionModulus), SectionModulusY: optional(c.SectionModulusY), SecondMoment: optional(c.SecondMoment),
 			SecondMomentY: optional(c.SecondMomentY), TorsionConstant: optional(c.TorsionConstant)}
 	}
-	s.Nodes = make([]model.NodeSpec, len(w.Nodes))
-	for i, n := range w.Nodes {
-		s.Nodes[i] = model.NodeSpec{ID: n.ID, At: values(n.At), Mass: n.Mass}
-	}
+	s.Nodes = nodeSpecs(w.Nodes)
 	s.Members = make([]model.MemberSpec, len(w.Members))
-	for i, m := range w.Members {
-		s.Members[i] = model.MemberSpec{ID: m.ID, BucklingCurve: m.BucklingCurve, Ends: memberEnds(m.Ends), Material: m.Material, Section: m.Section,
-			Type: m.Type, Orientation: m.Orientation, BucklingFactor: m.BucklingFactor,
-			Behaviour: m.Behaviour, Pretension: m.Pretension}
-	}
-	for i, m := range w.Members {
-		s.Members[i].Releases = releasesSpec(m.Releases)
+	for i := range w.Members {
+		// Field by field into the array, in one pass: no copy of either
+		// struct (a large model's members are tens of megabytes).
+		m, ms := &w.Members[i], &s.Members[i]
+		ms.ID, ms.Ends, ms.Material, ms.Section, ms.Type = m.ID, memberEnds(m.Ends), m.Material, m.Section, m.Type
+		ms.BucklingCurve, ms.Orientation, ms.BucklingFactor = m.BucklingCurve, m.Orientation, m.BucklingFactor
+		ms.Behaviour, ms.Pretension, ms.Releases = m.Behaviour, m.Pretension, releasesSpec(m.Releases)
 	}
 	s.Supports = make([]model.SupportSpec, len(w.Supports))
 	for i, p := range w.Supports {
@@ -74,6 +71,29 @@ func specOf(w *protocol.Model) *model.Spec {
 	}
 	s.Patterns = patternSpecs(w.Patterns)
 	return s
+}
+
+// nodeSpecs converts the nodes; their coordinates share one array (one
+// allocation, not one a node).
+func nodeSpecs(nodes []protocol.Node) []model.NodeSpec {
+	out := make([]model.NodeSpec, len(nodes))
+	coordinates := 0
+	for _, n := range nodes {
+		coordinates += len(n.At)
+	}
+	all := make([]model.Value, 0, coordinates)
+	for i, n := range nodes {
+		var at []model.Value
+		if n.At != nil {
+			start := len(all)
+			for _, x := range n.At {
+				all = append(all, value(x))
+			}
+			at = all[start:len(all):len(all)]
+		}
+		out[i] = model.NodeSpec{ID: n.ID, At: at, Mass: n.Mass}
+	}
+	return out
 }
 
 func value(n protocol.Number) model.Value {
