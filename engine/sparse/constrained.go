@@ -54,20 +54,22 @@ func (g *quotientGraph) sameSet(i, j int) bool {
 // nextPivot returns a principal variable of least approximate degree in
 // the current set, moving on to the next set when the current one is
 // exhausted. eliminate calls it only while variables remain, so a set
-// with a live variable is always found.
+// with a live variable is always found. The count of listed variables
+// tells an exhausted set at once: scanning the empty buckets up to the
+// largest possible degree at each of the dissection's thousands of sets
+// cost more than the rest of the elimination on a large plane grid.
 func (g *quotientGraph) nextPivot() int {
-	for {
-		for g.minDegree < len(g.head) && g.head[g.minDegree] < 0 {
-			g.minDegree++
-		}
-		if g.minDegree < len(g.head) {
-			return g.head[g.minDegree]
-		}
+	for g.listedCount == 0 {
 		g.current++
+		g.minDegree = len(g.head) - 1
 		for _, i := range g.setMem[g.setPtr[g.current]:g.setPtr[g.current+1]] {
 			if g.state[i] == stVariable && g.weight[i] > 0 {
 				g.insert(i)
 			}
 		}
 	}
+	for g.head[g.minDegree] < 0 {
+		g.minDegree++
+	}
+	return g.head[g.minDegree]
 }

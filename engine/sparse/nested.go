@@ -1,5 +1,7 @@
 package sparse
 
+import "slices"
+
 // nestedLeaf is the size, in compressed nodes, below which nested
 // dissection stops splitting a piece.
 const nestedLeaf = 200
@@ -37,7 +39,7 @@ func OrderNested(a *Matrix) []int {
 	d := &dissector{
 		ptr: cptr, adj: cadj, gptr: gptr,
 		tag: make([]int, ng), seen: make([]int, ng), done: make([]int, ng), level: make([]int, ng),
-		set: make([]int, ng),
+		set: make([]int, ng), order: make([]int, 0, ng),
 	}
 	nodes := make([]int, ng)
 	for g := range nodes {
@@ -121,21 +123,23 @@ func compressGraph(n int, ptr, adj []int) (group, gptr, gmem []int) {
 
 // dissector holds the state of nested dissection on the compressed graph.
 type dissector struct {
-	ptr, adj []int // compressed graph
-	gptr     []int // original variables of compressed node g: gptr[g+1]−gptr[g] of them
-	tag      []int // == current stamp for the nodes of the piece being split
-	seen     []int
-	done     []int
-	level    []int
-	stamp    int
-	set      []int // constraint set of each compressed node: its piece or separator
-	nsets    int   // sets numbered so far, in the order they are to be eliminated
+	ptr, adj  []int // compressed graph
+	gptr      []int // original variables of compressed node g: gptr[g+1]−gptr[g] of them
+	tag       []int // == current stamp for the nodes of the piece being split
+	seen      []int
+	done      []int
+	level     []int
+	stamp     int
+	order     []int // scratch of levelStructure, room for every node
+	separator []int // scratch of split
+	set       []int // constraint set of each compressed node: its piece or separator
+	nsets     int   // sets numbered so far, in the order they are to be eliminated
 }
 
 // dissect numbers the constraint sets of the pieces and separators of
-// nodes: both parts before their separator, recursively.
-// It stays whole (recursive kernel): its phases share the stamp t that
-// marks the current piece in d.tag and d.done, and the level structure.
+// nodes: both parts before their separator, recursively. It reorders
+// nodes in place (first part, second part, separator), so the recursion
+// allocates no pieces of its own.
 func (d *dissector) dissect(nodes []int) {
 	if len(nodes) == 0 {
 		return
@@ -151,29 +155,48 @@ func (d *dissector) dissect(nodes []int) {
 	}
 	order, levels := d.levelStructure(nodes[0], t)
 	if len(order) < len(nodes) {
-		// Disconnected: split into all components at once (peeling one at a
-		// time would cost quadratic time on pieces with many components).
-		for _, v := range order {
-			d.done[v] = t
-		}
-		components := [][]int{order}
-		for _, v := range nodes {
-			if d.done[v] == t {
-				continue
-			}
-			comp, _ := d.levelStructure(v, t)
-			for _, u := range comp {
-				d.done[u] = t
-			}
-			components = append(components, comp)
-		}
-		for _, comp := range components {
-			d.dissect(comp)
-		}
+		d.dissectComponents(nodes, order, t)
 		return
 	}
-	// Pseudo-peripheral root: restart from a node of least degree in the
-	// last level while the structure gets deeper.
+	order, levels = d.peripheral(order, levels, t)
+	if len(levels)-1 < 3 {
+		d.leaf(nodes)
+		return
+	}
+	best := d.separatorLevel(order, levels, t)
+	firstSize, secondSize := d.split(nodes, order, levels, best, t)
+	d.dissect(nodes[:firstSize])
+	d.dissect(nodes[firstSize : firstSize+secondSize])
+	d.leaf(nodes[firstSize+secondSize:])
+}
+
+// dissectComponents dissects each connected component of a disconnected
+// piece, the first being order (all at once: peeling one at a time would
+// cost quadratic time on pieces with many components).
+func (d *dissector) dissectComponents(nodes, order []int, t int) {
+	for _, v := range order {
+		d.done[v] = t
+	}
+	components := [][]int{slices.Clone(order)}
+	for _, v := range nodes {
+		if d.done[v] == t {
+			continue
+		}
+		comp, _ := d.levelStructure(v, t)
+		for _, u := range comp {
+			d.done[u] = t
+		}
+		components = append(components, slices.Clone(comp))
+	}
+	for _, comp := range components {
+		d.dissect(comp)
+	}
+}
+
+// peripheral returns the level structure from a pseudo-peripheral root:
+// it restarts from a node of least degree in the last level while the
+// structure gets deeper (at most four times).
+func (d *dissector) peripheral(order, levels []int, t int) ([]int, []int) {
 	for range 4 {
 		last := order[levels[len(levels)-2]:]
 		root := last[0]
@@ -182,20 +205,21 @@ func (d *dissector) dissect(nodes []int) {
 				root = v
 			}
 		}
-		o2, l2 := d.levelStructure(root, t)
-		deeper := len(l2) > len(levels)
-		order, levels = o2, l2
-		if !deeper {
+		depth := len(levels)
+		order, levels = d.levelStructure(root, t)
+		if len(levels) <= depth {
 			break
 		}
 	}
+	return order, levels
+}
+
+// separatorLevel returns the level whose part adjacent to the next level
+// is the separator: among the levels splitting the piece between
+// separatorLow and separatorHigh percent, the one with the fewest such
+// variables; failing any, the level that halves the piece.
+func (d *dissector) separatorLevel(order, levels []int, t int) int {
 	nl := len(levels) - 1
-	if nl < 3 {
-		d.leaf(nodes)
-		return
-	}
-	// The separator is the part of a middle level adjacent to the next one;
-	// among the levels splitting the piece between 30% and 70%, the smallest.
 	total := len(order)
 	best, bestSize := -1, 0
 	for i := 1; i < nl-1; i++ {
@@ -212,24 +236,35 @@ func (d *dissector) dissect(nodes []int) {
 			best++
 		}
 	}
-	var first, second, separator []int
-	first = append(first, order[:levels[best]]...)
+	return best
+}
+
+// split writes into nodes the first part (the levels before best and the
+// nodes of level best not adjacent to level best+1, in breadth-first
+// order), then the second part (the levels after best) and then the
+// separator, and returns the sizes of the two parts.
+func (d *dissector) split(nodes, order, levels []int, best, t int) (firstSize, secondSize int) {
+	pos := copy(nodes, order[:levels[best]])
+	separator := d.separator[:0]
 	for _, v := range order[levels[best]:levels[best+1]] {
 		if d.touchesNext(v, best, t) {
 			separator = append(separator, v)
 		} else {
-			first = append(first, v)
+			nodes[pos] = v
+			pos++
 		}
 	}
-	second = append(second, order[levels[best+1]:]...)
-	d.dissect(first)
-	d.dissect(second)
-	d.leaf(separator)
+	firstSize = pos
+	secondSize = copy(nodes[pos:], order[levels[best+1]:])
+	copy(nodes[pos+secondSize:], separator)
+	d.separator = separator
+	return firstSize, secondSize
 }
 
 // levelStructure runs a breadth-first search from root over the nodes
 // tagged t. Level i is order[levels[i]:levels[i+1]]; d.level holds each
-// node's level.
+// node's level. order lives in the dissector's scratch space, valid until
+// the next call.
 func (d *dissector) levelStructure(root, t int) (order, levels []int) {
 	d.stamp++
 	s := d.stamp
@@ -237,7 +272,7 @@ func (d *dissector) levelStructure(root, t int) (order, levels []int) {
 	// separately.
 	d.seen[root] = s
 	d.level[root] = 0
-	order = []int{root}
+	order = append(d.order[:0], root)
 	levels = []int{0}
 	for lo := 0; lo < len(order); {
 		hi := len(order)

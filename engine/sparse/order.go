@@ -76,7 +76,8 @@ type quotientGraph struct {
 
 	// Degree buckets: doubly linked lists of principal variables by degree.
 	head, next, prev []int
-	minDegree        int
+	minDegree        int // at most the least degree in the buckets
+	listedCount      int // principal variables in the buckets
 
 	// Member lists: the original variables each principal variable stands
 	// for, in the order they will be numbered.
@@ -199,6 +200,7 @@ func (g *quotientGraph) insert(i int) {
 	}
 	g.head[d] = i
 	g.minDegree = min(g.minDegree, d)
+	g.listedCount++
 }
 
 func (g *quotientGraph) remove(i int) {
@@ -210,6 +212,7 @@ func (g *quotientGraph) remove(i int) {
 	if g.next[i] >= 0 {
 		g.prev[g.next[i]] = g.prev[i]
 	}
+	g.listedCount--
 }
 
 // eliminate runs the elimination and returns perm[new] = old.
