@@ -20,13 +20,45 @@ import (
 // inside the members, CaseResult.MaxDisplacement) and the largest
 // utilisation over the cases (0 when no member was checked).
 func StiffnessSolver(m *model.Model, cases []string) Solver {
-	analysis := stiffness.NewAnalysis(m, stiffness.Options{Cases: cases, Workers: 1, StabilityLimit: -1, SkipCondition: true, Stations: -1})
+	return solverRecovering(m, cases, stiffness.RecoverAll)
+}
+
+// StiffnessSolverFor is StiffnessSolver for a sweep that computes the given
+// metrics (as Metrics returns them; nil means every metric). When none of
+// them needs the members' results along their length or their checks
+// (max_utilisation does, and max_displacement on a model with beams, whose
+// largest displacement may lie inside a member), it recovers the forces
+// alone (stiffness.RecoverForces): the load path, volume, mass, carbon and
+// a bar model's largest displacement are the same, bit for bit, at a
+// fraction of the recovery's cost. Its Solutions then have ForcesOnly set
+// and no MaxUtilisation.
+func StiffnessSolverFor(m *model.Model, cases, metrics []string) Solver {
+	if metrics == nil || needsMemberResults(m, metrics) {
+		return solverRecovering(m, cases, stiffness.RecoverAll)
+	}
+	return solverRecovering(m, cases, stiffness.RecoverForces)
+}
+
+// needsMemberResults reports whether a metric needs what
+// stiffness.RecoverForces leaves out.
+func needsMemberResults(m *model.Model, metrics []string) bool {
+	bars := true
+	for _, mem := range m.Members {
+		bars = bars && mem.Kind == model.Bar
+	}
+	return slices.Contains(metrics, MetricMaxUtilisation) || !bars && slices.Contains(metrics, MetricMaxDisplacement)
+}
+
+// solverRecovering is StiffnessSolver recovering as much as recovery says.
+func solverRecovering(m *model.Model, cases []string, recovery stiffness.Recovery) Solver {
+	analysis := stiffness.NewAnalysis(m, stiffness.Options{Cases: cases, Workers: 1, StabilityLimit: -1, SkipCondition: true, Stations: -1,
+		Recovery: recovery})
 	return func(ctx context.Context, mm *model.Model) (*Solution, error) {
 		r, err := analysis.Solve(ctx, mm)
 		if err != nil {
 			return nil, err
 		}
-		sol := &Solution{Cases: loadpath.Solved(r)}
+		sol := &Solution{Cases: loadpath.Solved(r), ForcesOnly: recovery == stiffness.RecoverForces}
 		for i := range r.Cases {
 			u, _ := r.Cases[i].MaxUtilisation()
 			sol.MaxDisplacement = math.Max(sol.MaxDisplacement, r.Cases[i].MaxDisplacement.Value)

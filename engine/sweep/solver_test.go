@@ -16,15 +16,24 @@ import (
 // deflection P·L³/(2h²EA) (unit-load method, Hibbeler, Structural
 // Analysis, ch. 9, from memory), the external forces balancing the load,
 // and through ModelEvaluator the load path Z = P(a² + h²)/h (Michell
-// 1904).
+// 1904); the same through StiffnessSolverFor, which recovers the forces
+// alone for these metrics of a bar model.
 func TestStiffnessSolverTwoBar(t *testing.T) {
-	const a, P, E, A = 2.0, 10.0, 2.1e8, 1e-3
-	m, err := model.Compile(twoBarSpec(a, false))
+	m, err := model.Compile(twoBarSpec(2, false))
 	if err != nil {
 		t.Fatal(err)
 	}
-	solve := StiffnessSolver(m, nil)
-	eval, err := ModelEvaluator(m, []string{"depth"}, []string{MetricLoadPath, MetricMaxDisplacement}, solve, loadpath.Options{})
+	metrics := []string{MetricLoadPath, MetricMaxDisplacement}
+	checkTwoBar(t, m, StiffnessSolver(m, nil), metrics)
+	checkTwoBar(t, m, StiffnessSolverFor(m, nil, metrics), metrics)
+}
+
+// checkTwoBar checks solve on the two-bar truss of twoBarSpec(2, false)
+// (see TestStiffnessSolverTwoBar).
+func checkTwoBar(t *testing.T, m *model.Model, solve Solver, metrics []string) {
+	t.Helper()
+	const a, P, E, A = 2.0, 10.0, 2.1e8, 1e-3
+	eval, err := ModelEvaluator(m, []string{"depth"}, metrics, solve, loadpath.Options{})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -92,4 +101,76 @@ func TestMetricsDefaults(t *testing.T) {
 			}
 		})
 	}
+}
+
+// TestStiffnessSolverFor checks which metrics let StiffnessSolverFor
+// recover the forces alone, that its solutions then equal StiffnessSolver's
+// bit for bit (load-path cases and a bar model's largest displacement;
+// the values themselves are checked against closed forms in
+// TestStiffnessSolverTwoBar), and that ModelEvaluator refuses such a
+// solver for metrics it cannot serve.
+func TestStiffnessSolverFor(t *testing.T) {
+	truss, err := model.Compile(twoBarSpec(2, false))
+	if err != nil {
+		t.Fatal(err)
+	}
+	frame := strut()
+	for _, tc := range []struct {
+		name       string
+		m          *model.Model
+		metrics    []string
+		forcesOnly bool
+	}{
+		{"bars/load_path", truss, []string{MetricLoadPath, MetricVolume}, true},
+		{"bars/max_displacement", truss, []string{MetricMaxDisplacement}, true},
+		{"bars/max_utilisation", truss, []string{MetricLoadPath, MetricMaxUtilisation}, false},
+		{"bars/every metric", truss, nil, false},
+		{"beams/load_path", frame, []string{MetricLoadPath}, true},
+		{"beams/max_displacement", frame, []string{MetricLoadPath, MetricMaxDisplacement}, false},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			param := tc.m.ParamNames[0]
+			mm, err := tc.m.WithParameters(map[string]float64{param: 1.7})
+			if err != nil {
+				t.Fatal(err)
+			}
+			want, err := StiffnessSolver(tc.m, nil)(context.Background(), mm)
+			if err != nil {
+				t.Fatal(err)
+			}
+			got, err := StiffnessSolverFor(tc.m, nil, tc.metrics)(context.Background(), mm)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if got.ForcesOnly != tc.forcesOnly {
+				t.Fatalf("ForcesOnly = %v, want %v", got.ForcesOnly, tc.forcesOnly)
+			}
+			for i := range want.Cases {
+				if !slices.Equal(got.Cases[i].AxialForce, want.Cases[i].AxialForce) {
+					t.Errorf("case %d: axial forces differ", i)
+				}
+				for n := range want.Cases[i].External {
+					if !slices.Equal(got.Cases[i].External[n], want.Cases[i].External[n]) {
+						t.Errorf("case %d: external force at node %d differs", i, n)
+					}
+				}
+			}
+			if !tc.forcesOnly || tc.m == truss {
+				if got.MaxDisplacement != want.MaxDisplacement {
+					t.Errorf("MaxDisplacement %g, want %g", got.MaxDisplacement, want.MaxDisplacement)
+				}
+			}
+		})
+	}
+	eval, err := ModelEvaluator(truss, []string{"depth"}, []string{MetricMaxUtilisation},
+		StiffnessSolverFor(truss, nil, []string{MetricLoadPath}), loadpath.Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer func() {
+		if recover() == nil {
+			t.Error("ModelEvaluator served max_utilisation from a forces-only solver")
+		}
+	}()
+	_, _ = eval(context.Background(), []float64{1})
 }

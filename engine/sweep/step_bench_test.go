@@ -10,6 +10,7 @@ import (
 
 	"gusset/engine/model"
 	"gusset/engine/model/modelgen"
+	"gusset/engine/stiffness"
 )
 
 // raisedGrid returns the double-layer space grid of k × k bays (8k²
@@ -37,47 +38,118 @@ func raisedGrid(k int) *model.Model {
 // side (issue 19's target: at most 0.6), in wall time and in the process's
 // CPU time (user + system, garbage collection included), which a machine
 // shared with other work disturbs less. The collector is set as the
-// server sets it (GOGC=400, see BenchmarkStructuralSweep).
+// server sets it (GOGC=400, see BenchmarkStructuralSweep). The solver is
+// that of a sweep whose metrics need every member result
+// (recovery=all: max_utilisation) or the forces alone (recovery=forces:
+// load path and volume, StiffnessSolverFor).
 func BenchmarkSweepStep(b *testing.B) {
 	defer debug.SetGCPercent(debug.SetGCPercent(400))
 	for _, k := range []int{60, 100} {
-		m := raisedGrid(k)
-		var later []*model.Model
-		for _, depth := range []float64{1.6, 1.8, 2.0, 2.2} {
-			mm, err := m.WithParameters(map[string]float64{"depth": depth})
-			if err != nil {
+		m, later := raisedSteps(b, k)
+		for _, rc := range []struct {
+			name    string
+			metrics []string
+		}{{"all", []string{MetricMaxUtilisation}}, {"forces", []string{MetricLoadPath, MetricVolume}}} {
+			b.Run(fmt.Sprintf("members=%d/recovery=%s", len(m.Members), rc.name), func(b *testing.B) {
+				benchSteps(b, m, later, func() Solver { return StiffnessSolverFor(m, nil, rc.metrics) })
+			})
+		}
+	}
+}
+
+// raisedSteps returns raisedGrid(k) and four models of its later steps,
+// at other depths.
+func raisedSteps(b *testing.B, k int) (*model.Model, []*model.Model) {
+	m := raisedGrid(k)
+	var later []*model.Model
+	for _, depth := range []float64{1.6, 1.8, 2.0, 2.2} {
+		mm, err := m.WithParameters(map[string]float64{"depth": depth})
+		if err != nil {
+			b.Fatal(err)
+		}
+		later = append(later, mm)
+	}
+	return m, later
+}
+
+// benchSteps times, per iteration, a new solver's first step on m and then
+// its steps on the later models (see BenchmarkSweepStep).
+func benchSteps(b *testing.B, m *model.Model, later []*model.Model, newSolver func() Solver) {
+	ctx := context.Background()
+	var first, step, firstCPU, stepCPU time.Duration
+	for range b.N {
+		cpu0 := cpuTime()
+		start := time.Now()
+		solve := newSolver()
+		if _, err := solve(ctx, m); err != nil {
+			b.Fatal(err)
+		}
+		mid := time.Now()
+		cpu1 := cpuTime()
+		for _, mm := range later {
+			if _, err := solve(ctx, mm); err != nil {
 				b.Fatal(err)
 			}
-			later = append(later, mm)
 		}
-		b.Run(fmt.Sprintf("members=%d", len(m.Members)), func(b *testing.B) {
+		first += mid.Sub(start)
+		step += time.Since(mid) / time.Duration(len(later))
+		firstCPU += cpu1 - cpu0
+		stepCPU += (cpuTime() - cpu1) / time.Duration(len(later))
+	}
+	b.ReportMetric(first.Seconds()*1e3/float64(b.N), "first-ms")
+	b.ReportMetric(step.Seconds()*1e3/float64(b.N), "step-ms")
+	b.ReportMetric(step.Seconds()/first.Seconds(), "step/first")
+	b.ReportMetric(firstCPU.Seconds()*1e3/float64(b.N), "first-cpu-ms")
+	b.ReportMetric(stepCPU.Seconds()*1e3/float64(b.N), "step-cpu-ms")
+	b.ReportMetric(stepCPU.Seconds()/firstCPU.Seconds(), "cpu-step/first")
+}
+
+// BenchmarkSweepStepPhases splits a later sweep step of the 80,000-member
+// grid into the stiffness solve's phases (Result.Stats, wall time: check
+// and stability counts are "other"), on an analysis built as the sweep's
+// solver builds it, with the recovery of a sweep needing every member
+// result (all) or the forces alone (forces). The first step is solved
+// outside the timer; each iteration solves the four later steps.
+func BenchmarkSweepStepPhases(b *testing.B) {
+	defer debug.SetGCPercent(debug.SetGCPercent(400))
+	m, later := raisedSteps(b, 100)
+	for _, rc := range []struct {
+		name     string
+		recovery stiffness.Recovery
+	}{{"all", stiffness.RecoverAll}, {"forces", stiffness.RecoverForces}} {
+		b.Run(fmt.Sprintf("members=%d/recovery=%s", len(m.Members), rc.name), func(b *testing.B) {
+			an := stiffness.NewAnalysis(m, stiffness.Options{Workers: 1, StabilityLimit: -1, SkipCondition: true, Stations: -1,
+				Recovery: rc.recovery})
 			ctx := context.Background()
-			var first, step, firstCPU, stepCPU time.Duration
+			if _, err := an.Solve(ctx, m); err != nil {
+				b.Fatal(err)
+			}
+			var sum stiffness.Stats
+			var whole time.Duration
+			b.ResetTimer()
 			for range b.N {
-				cpu0 := cpuTime()
-				start := time.Now()
-				solve := StiffnessSolver(m, nil)
-				if _, err := solve(ctx, m); err != nil {
-					b.Fatal(err)
-				}
-				mid := time.Now()
-				cpu1 := cpuTime()
 				for _, mm := range later {
-					if _, err := solve(ctx, mm); err != nil {
+					start := time.Now()
+					r, err := an.Solve(ctx, mm)
+					if err != nil {
 						b.Fatal(err)
 					}
+					whole += time.Since(start)
+					st := r.Stats
+					sum.Assemble += st.Assemble
+					sum.Factor += st.Factor
+					sum.Solve += st.Solve
+					sum.Recover += st.Recover
 				}
-				first += mid.Sub(start)
-				step += time.Since(mid) / time.Duration(len(later))
-				firstCPU += cpu1 - cpu0
-				stepCPU += (cpuTime() - cpu1) / time.Duration(len(later))
 			}
-			b.ReportMetric(first.Seconds()*1e3/float64(b.N), "first-ms")
-			b.ReportMetric(step.Seconds()*1e3/float64(b.N), "step-ms")
-			b.ReportMetric(step.Seconds()/first.Seconds(), "step/first")
-			b.ReportMetric(firstCPU.Seconds()*1e3/float64(b.N), "first-cpu-ms")
-			b.ReportMetric(stepCPU.Seconds()*1e3/float64(b.N), "step-cpu-ms")
-			b.ReportMetric(stepCPU.Seconds()/firstCPU.Seconds(), "cpu-step/first")
+			steps := float64(b.N * len(later))
+			ms := func(d time.Duration) float64 { return d.Seconds() * 1e3 / steps }
+			b.ReportMetric(ms(whole), "step-ms")
+			b.ReportMetric(ms(sum.Assemble), "assemble-ms")
+			b.ReportMetric(ms(sum.Factor), "factor-ms")
+			b.ReportMetric(ms(sum.Solve), "solve-ms")
+			b.ReportMetric(ms(sum.Recover), "recover-ms")
+			b.ReportMetric(ms(whole-sum.Assemble-sum.Factor-sum.Solve-sum.Recover), "other-ms")
 		})
 	}
 }

@@ -44,6 +44,11 @@ type Solution struct {
 	// checked: MaxUtilisation then covers the checked members only, and
 	// the max_utilisation metric fails rather than flatter.
 	UncheckedMember string
+	// ForcesOnly is set by a solver that recovered the forces alone
+	// (StiffnessSolverFor): MaxUtilisation is then not computed, nor
+	// MaxDisplacement for a model with beams, and ModelEvaluator panics
+	// when asked for those metrics from such a solution.
+	ForcesOnly bool
 }
 
 // Solver analyses one re-parametrised model. It returns a *fault.Error
@@ -137,6 +142,9 @@ func ModelEvaluatorModal(m *model.Model, names, metrics []string, solve Solver, 
 			set(out, want, MetricVolume, res.Totals.All.Volume)
 			set(out, want, MetricMass, res.Totals.All.Mass)
 			set(out, want, MetricCarbon, res.Totals.All.Carbon)
+		}
+		if sol.ForcesOnly && needsMemberResults(mm, metrics) {
+			panic("sweep: a solver that recovers forces only (StiffnessSolverFor) serves metrics that need the members' results")
 		}
 		set(out, want, MetricMaxDisplacement, sol.MaxDisplacement)
 		if want[MetricMaxUtilisation] && sol.UncheckedMember != "" {

@@ -62,7 +62,7 @@ func (a *Adapter) sweep(ctx context.Context, r *request[protocol.SweepParams]) (
 			metrics = append(metrics, c.Metric)
 		}
 	}
-	solver := sweep.StiffnessSolver(m, p.Cases)
+	solver := sweep.StiffnessSolverFor(m, p.Cases, metrics)
 	eval, err := sweep.ModelEvaluatorModal(m, names, metrics, solver, opt, sweep.Modal{Cases: p.Cases})
 	if err != nil {
 		return nil, sweepError(err)
