@@ -10,7 +10,8 @@
 // stiffness system (Matrix Market, lower triangle) with the first load
 // case's right-hand side, then runs, interleaved and repeated, (a) the whole
 // request through the gusset binary (process start to last byte out, and the
-// child's peak resident memory), (b) the engine's phases in process, (c) our
+// child's peak resident memory, measured through a small spawner process:
+// see spawn.go), (b) the engine's phases in process, (c) our
 // sparse Cholesky on the exported system and (d) CHOLMOD's analyse, factorise
 // and solve on the same file, and prints one Markdown report of medians with
 // the ratios, nnz(L), flops, GFLOP/s and the relative difference of the two
@@ -25,6 +26,9 @@ import (
 )
 
 func main() {
+	if len(os.Args) > 1 && os.Args[1] == spawnFlag {
+		os.Exit(spawnMain(os.Args[2:]))
+	}
 	os.Exit(run(os.Args[1:]))
 }
 

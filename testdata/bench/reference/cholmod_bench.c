@@ -12,7 +12,6 @@
 #include <stdio.h>
 #include <stdlib.h>
 #include <time.h>
-#include <sys/resource.h>
 #include <suitesparse/cholmod.h>
 
 static double now(void) {
@@ -21,10 +20,20 @@ static double now(void) {
     return t.tv_sec + 1e-9 * t.tv_nsec;
 }
 
+/* The peak resident memory of this process so far in KiB: VmHWM, the
+ * high-water mark of this address space (new at exec), from
+ * /proc/self/status (proc(5)). Not ru_maxrss, which on Linux starts from
+ * the parent's peak when the parent forked a large address space. */
 static long peak_rss_kib(void) {
-    struct rusage u;
-    getrusage(RUSAGE_SELF, &u);
-    return u.ru_maxrss;
+    FILE *f = fopen("/proc/self/status", "r");
+    char line[256];
+    long kib = -1;
+    if (!f) return -1;
+    while (fgets(line, sizeof line, f)) {
+        if (sscanf(line, "VmHWM: %ld kB", &kib) == 1) break;
+    }
+    fclose(f);
+    return kib;
 }
 
 static int read_rhs(const char *path, double *b, size_t n) {
