@@ -10,7 +10,6 @@ import (
 	"sort"
 	"strconv"
 	"strings"
-	"sync"
 
 	"github.com/santhosh-tekuri/jsonschema/v5"
 
@@ -30,7 +29,8 @@ const MaxProblems = 50
 
 // Validator validates params against the definition of each method.
 type Validator struct {
-	mu      sync.Mutex
+	ready   chan struct{} // closed once schemas (or err) is set
+	err     error
 	schemas map[string]*jsonschema.Schema
 	params  map[string]string // method -> params definition name
 }
@@ -38,19 +38,40 @@ type Validator struct {
 // NewValidator compiles the embedded schema's params definitions for the
 // given methods (method name -> params definition name).
 func NewValidator(params map[string]string) (*Validator, error) {
+	v := StartValidator(params)
+	<-v.ready
+	return v, v.err
+}
+
+// StartValidator is NewValidator with the compiling done on another
+// goroutine: it returns at once, and every validation waits until the
+// schemas are compiled (about 50 ms, which a server spends reading its
+// first request meanwhile). A compile failure, a defect of the build that
+// the schema's tests catch, makes every validation an internal error.
+func StartValidator(params map[string]string) *Validator {
+	v := &Validator{ready: make(chan struct{}), params: params}
+	go func() {
+		defer close(v.ready)
+		v.schemas, v.err = compileParams(params)
+	}()
+	return v
+}
+
+// compileParams compiles the params definition of each method.
+func compileParams(params map[string]string) (map[string]*jsonschema.Schema, error) {
 	c := jsonschema.NewCompiler()
 	if err := c.AddResource(ID, bytes.NewReader(Document)); err != nil {
 		return nil, fmt.Errorf("schema: embedded document: %w", err)
 	}
-	v := &Validator{schemas: map[string]*jsonschema.Schema{}, params: params}
+	schemas := map[string]*jsonschema.Schema{}
 	for method, def := range params {
 		s, err := c.Compile(ID + "#/$defs/" + def)
 		if err != nil {
 			return nil, fmt.Errorf("schema: compiling %s: %w", def, err)
 		}
-		v.schemas[method] = s
+		schemas[method] = s
 	}
-	return v, nil
+	return schemas, nil
 }
 
 // ElideAbove is the array length above which Validate checks only the
@@ -76,6 +97,10 @@ func (v *Validator) ValidateFull(method string, params json.RawMessage) *protoco
 }
 
 func (v *Validator) validate(method string, params json.RawMessage, elide bool) *protocol.Error {
+	<-v.ready
+	if v.err != nil {
+		return protocol.NewError(protocol.CodeInternal, "internal error", v.err.Error())
+	}
 	s := v.schemas[method]
 	if s == nil {
 		return nil

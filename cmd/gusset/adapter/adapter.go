@@ -31,10 +31,8 @@ type Adapter struct {
 // of params and the mapping of engine errors to wire codes.
 func Register(s *jsonrpc.Server) error {
 	s.Limits = s.Limits.WithDefaults()
-	v, err := schema.NewValidator(paramsDefinitions())
-	if err != nil {
-		return err
-	}
+	// The schemas compile while the server starts reading.
+	v := schema.StartValidator(paramsDefinitions())
 	a := &Adapter{Limits: s.Limits, validator: v}
 	for _, e := range methods {
 		s.Handle(e.describe(), e.bind(a))
