@@ -125,45 +125,46 @@ const nestedMinSize = 4000
 // tree and column counts of the order returned: minimum degree is hard to
 // beat on thin structures but falls behind nested dissection on large
 // plane grids and well behind on solid 3D ones. The prediction is exact
-// and cheap (the column counts take O(nnz(A)·α) time, a fraction of either
-// ordering's). With two workers or more the candidates are computed side by
-// side; the choice does not depend on the workers.
+// and cheap (the column counts, from the graph of the groups of
+// indistinguishable variables that both orderings share, take a small
+// fraction of either ordering's time). With two workers or more the
+// candidates are computed side by side; the choice does not depend on the
+// workers.
 func chooseOrder(a *Matrix, workers int) (perm, parent, count []int) {
+	c := compress(a)
 	if a.N < nestedMinSize {
-		perm = Order(a)
-		parent, count = countsFor(a, perm)
-		return perm, parent, count
+		order := c.minimumDegree()
+		parent, count = c.counts(order)
+		return c.expand(order), parent, count
 	}
 	var amd, nested candidate
 	parallelFor(min(workers, 2), 2, func(k int) {
 		if k == 0 {
-			amd = newCandidate(a, Order(a))
+			amd = newCandidate(c, c.minimumDegree())
 		} else {
-			nested = newCandidate(a, OrderNested(a))
+			nested = newCandidate(c, c.nested())
 		}
 	})
 	if nested.better(amd) {
-		return nested.perm, nested.parent, nested.count
+		return c.expand(nested.order), nested.parent, nested.count
 	}
-	return amd.perm, amd.parent, amd.count
+	return c.expand(amd.order), amd.parent, amd.count
 }
 
-// candidate is a fill-reducing order with its elimination tree, column
-// counts, nonzeros in L and flops, kept so that the analysis of the winner
-// does not count again.
+// candidate is a fill-reducing order of the groups of indistinguishable
+// variables with the elimination tree, column counts, nonzeros in L and
+// flops of its order of the variables, kept so that the analysis of the
+// winner does not count again.
 type candidate struct {
-	perm, parent, count []int
-	nonzeros            int
-	flops               float64
+	order, parent, count []int
+	nonzeros             int
+	flops                float64
 }
 
-func newCandidate(a *Matrix, perm []int) candidate {
-	parent, count := countsFor(a, perm)
-	nnz := 0
-	for _, c := range count {
-		nnz += c
-	}
-	return candidate{perm: perm, parent: parent, count: count, nonzeros: nnz, flops: countFlops(count)}
+func newCandidate(c *compressed, order []int) candidate {
+	parent, count := c.counts(order)
+	nnz, flops := nonzerosAndFlops(count)
+	return candidate{order: order, parent: parent, count: count, nonzeros: nnz, flops: flops}
 }
 
 // better reports whether c predicts less fill than o: fewer nonzeros in L,

@@ -31,13 +31,15 @@ const (
 // large matrices and keeps the one with fewer nonzeros in L.
 func OrderNested(a *Matrix) []int {
 	a.check()
-	n := a.N
-	vptr, vadj := a.Adjacency()
-	group, gptr, gmem := compressGraph(n, vptr, vadj)
-	ng := len(gptr) - 1
-	cptr, cadj := compressedAdjacency(group, gptr, gmem, vptr, vadj)
+	c := compress(a)
+	return c.expand(c.nested())
+}
+
+// nested returns the nested-dissection order of c's groups.
+func (c *compressed) nested() []int {
+	ng := c.groups()
 	d := &dissector{
-		ptr: cptr, adj: cadj, gptr: gptr,
+		ptr: c.ptr, adj: c.adj, gptr: c.gptr,
 		tag: make([]int, ng), seen: make([]int, ng), done: make([]int, ng), level: make([]int, ng),
 		set: make([]int, ng), order: make([]int, 0, ng),
 	}
@@ -46,13 +48,9 @@ func OrderNested(a *Matrix) []int {
 		nodes[g] = g
 	}
 	d.dissect(nodes)
-	g := newQuotientGraph(cptr, cadj, gptr)
+	g := newQuotientGraph(c.ptr, slices.Clone(c.adj), c.gptr)
 	g.constrain(d.set, d.nsets)
-	perm := make([]int, 0, n)
-	for _, c := range g.eliminate() {
-		perm = append(perm, gmem[gptr[c]:gptr[c+1]]...)
-	}
-	return perm
+	return g.eliminate()
 }
 
 // compressGraph merges variables with identical closed neighbourhoods (the

@@ -1,6 +1,9 @@
 package sparse
 
-import "math"
+import (
+	"math"
+	"slices"
+)
 
 // Order returns a fill-reducing permutation of the symmetric matrix a, with
 // perm[new] = old, computed by approximate minimum degree on the quotient
@@ -10,24 +13,16 @@ import "math"
 // the same pattern always yields the same permutation.
 func Order(a *Matrix) []int {
 	a.check()
-	ptr, adj := a.Adjacency()
-	return orderGraph(a.N, ptr, adj)
+	c := compress(a)
+	return c.expand(c.minimumDegree())
 }
 
-// orderGraph returns the minimum-degree order of the graph of n variables
-// whose neighbours are adj[ptr[i]:ptr[i+1]]. Variables with identical
-// closed neighbourhoods (the freedoms of one node, usually) are merged
-// first, so the quotient graph starts from the smaller graph of the groups
-// rather than from the variables.
-func orderGraph(n int, ptr, adj []int) []int {
-	group, gptr, gmem := compressGraph(n, ptr, adj)
-	cptr, cadj := compressedAdjacency(group, gptr, gmem, ptr, adj)
-	order := newQuotientGraph(cptr, cadj, gptr).eliminate()
-	perm := make([]int, 0, n)
-	for _, g := range order {
-		perm = append(perm, gmem[gptr[g]:gptr[g+1]]...)
-	}
-	return perm
+// minimumDegree returns the minimum-degree order of c's groups: the
+// quotient graph starts from the graph of the groups rather than from the
+// variables (on a copy of it, which the elimination overwrites, so that
+// the other ordering and the counts may read c at the same time).
+func (c *compressed) minimumDegree() []int {
+	return newQuotientGraph(c.ptr, slices.Clone(c.adj), c.gptr).eliminate()
 }
 
 // compressedAdjacency returns the graph of the groups of compressGraph: g
@@ -109,7 +104,7 @@ type quotientGraph struct {
 // newQuotientGraph starts minimum-degree elimination on the graph of n
 // principal variables whose neighbours are adj[ptr[i]:ptr[i+1]], variable
 // g standing for gptr[g+1]−gptr[g] original variables with identical
-// closed neighbourhoods.
+// closed neighbourhoods. The elimination overwrites adj.
 func newQuotientGraph(ptr, adj, gptr []int) *quotientGraph {
 	n := len(ptr) - 1
 	g := &quotientGraph{

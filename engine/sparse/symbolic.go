@@ -425,8 +425,21 @@ func (sym *symbolic) buildStructure(parent []int) {
 // −1 at each such ancestor and at each parent, then summing the tree from
 // the leaves up, leaves every column's count.
 func columnCounts(a *Matrix, iperm []int) (parent, count []int) {
-	n := a.N
 	ptr, idx := upperLists(a, iperm)
+	return weightedCounts(a.N, ptr, idx, nil)
+}
+
+// weightedCounts is columnCounts given the strict lower part of each row k
+// of the permuted matrix, idx[ptr[k]:ptr[k+1]] (as upperLists returns it).
+// With weights, row i stands for weight[i] rows and a count sums the
+// weights of its column's rows (compressed.counts); nil weights are all 1.
+func weightedCounts(n int, ptr, idx, weight []int) (parent, count []int) {
+	w := func(i int) int {
+		if weight == nil {
+			return 1
+		}
+		return weight[i]
+	}
 	parent = eliminationTree(n, ptr, idx)
 	post := postorder(parent)
 
@@ -457,7 +470,7 @@ func columnCounts(a *Matrix, iperm []int) (parent, count []int) {
 	}
 	for k, j := range post {
 		if first[j] == -1 {
-			count[j] = 1 // a leaf of the elimination tree
+			count[j] = w(j) // a leaf of the elimination tree
 		}
 		for ; j != -1 && first[j] == -1; j = parent[j] {
 			first[j] = k
@@ -465,7 +478,7 @@ func columnCounts(a *Matrix, iperm []int) (parent, count []int) {
 	}
 	for _, j := range post {
 		if p := parent[j]; p != -1 {
-			count[p]--
+			count[p] -= w(j)
 		}
 		for _, i := range lrow[lptr[j]:lptr[j+1]] {
 			if first[j] <= maxFirst[i] {
@@ -474,7 +487,7 @@ func columnCounts(a *Matrix, iperm []int) (parent, count []int) {
 			maxFirst[i] = first[j]
 			prev := prevLeaf[i]
 			prevLeaf[i] = j
-			count[j]++
+			count[j] += w(i)
 			if prev == -1 {
 				continue
 			}
@@ -487,7 +500,7 @@ func columnCounts(a *Matrix, iperm []int) (parent, count []int) {
 				ancestor[v] = q
 				v = up
 			}
-			count[q]--
+			count[q] -= w(i)
 		}
 		if p := parent[j]; p != -1 {
 			ancestor[j] = p
