@@ -267,6 +267,7 @@ func (c *Cholesky) numeric(ctx context.Context, a *Matrix) error {
 	reused := c.val != nil
 	if !reused {
 		c.val = make([]float64, sym.valPtr[sym.nsuper])
+		adviseHugePages(c.val)
 	}
 	f := &numeric{
 		sym:       sym,

@@ -157,7 +157,9 @@ func (p *bufferPool) get(size int) []float64 {
 		return b[:size]
 	}
 	p.mu.Unlock()
-	return make([]float64, size)
+	b := make([]float64, size)
+	adviseHugePages(b)
+	return b
 }
 
 // put returns a buffer to the pool.
