@@ -103,13 +103,16 @@ func (c *conn) handleBatch(line []byte) {
 }
 
 // reply sends a final response, or collects it into its batch when b is
-// not nil (writing the batch's array when it is the last one owed).
+// not nil (writing the batch's array when it is the last one owed). A
+// large response on a line of its own is written as it is encoded.
 func (c *conn) reply(b *batch, resp *protocol.Response) {
-	line := c.account(resp)
 	if b == nil {
-		c.w.send(line)
+		out := c.w.newLine()
+		rest, _ := c.account(resp, out)
+		out.finish(rest)
 		return
 	}
+	line, _ := c.account(resp, nil)
 	if out := b.add(line); out != nil {
 		c.w.send(out)
 	}

@@ -204,11 +204,12 @@ func (c *conn) finish(cl *call, resp *protocol.Response) {
 func (c *conn) respond(resp *protocol.Response) { c.reply(nil, resp) }
 
 // account encodes a final response, counts it if it is an error and shows
-// it to OnResponse; it returns the encoded response.
-func (c *conn) account(resp *protocol.Response) []byte {
+// it to OnResponse; it returns the encoded response, or with a sink the
+// text not yet streamed to it (see marshalResponseTo).
+func (c *conn) account(resp *protocol.Response, sink partSink) (line []byte, streamed bool) {
 	// Encoded first: a result that cannot be encoded becomes an internal
 	// error, which counts and is what OnResponse sees.
-	line := marshalResponse(resp)
+	line, streamed = marshalResponseTo(resp, sink)
 	if resp.Error != nil {
 		c.mu.Lock()
 		c.failures++
@@ -217,7 +218,7 @@ func (c *conn) account(resp *protocol.Response) []byte {
 	if c.s.OnResponse != nil {
 		c.s.OnResponse(resp)
 	}
-	return line
+	return line, streamed
 }
 
 // cancel answers a cancel request: it stops the target if it is in flight.

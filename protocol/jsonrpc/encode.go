@@ -20,16 +20,31 @@ func errorResponse(id json.RawMessage, e *protocol.Error) *protocol.Response {
 // and r is changed to that error so that callers count and report what
 // was written.
 func marshalResponse(r *protocol.Response) []byte {
+	b, _ := marshalResponseTo(r, nil)
+	return b
+}
+
+// marshalResponseTo is marshalResponse that, given a sink, streams a large
+// response to it as it is encoded (see streamJSON): it returns the text
+// not yet sent and whether anything was sent. Before anything is sent the
+// whole response is checked, so a response that cannot be encoded
+// becomes the internal error, unstreamed, as in marshalResponse.
+func marshalResponseTo(r *protocol.Response, sink partSink) (rest []byte, streamed bool) {
 	if r.ID == nil {
 		r.ID = json.RawMessage("null")
 	}
-	b, err := encode(r)
-	if err != nil {
+	b, streamed, err := streamJSON(make([]byte, 0, 4096), r, sink, streamChunk)
+	if err == nil || streamed {
+		// An error once streaming has begun cannot happen: the dry pass
+		// checked every value first.
+		return b, streamed
+	}
+	if b, err = encodeStandard(r); err != nil {
 		*r = *errorResponse(r.ID, protocol.NewError(protocol.CodeInternal, "internal error",
 			fmt.Sprintf("The result could not be encoded as JSON (%v). This is a bug: please report it with the request.", err)))
 		b, _ = encode(r)
 	}
-	return b
+	return b, false
 }
 
 // encode marshals v without HTML escaping, so that ids and strings go out

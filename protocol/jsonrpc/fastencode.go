@@ -31,17 +31,32 @@ import (
 // built from its fields, once per type. TestAppendJSONAgreesWithEncodingJSON
 // compares the bytes with encoding/json's.
 func appendJSON(b []byte, v any) ([]byte, error) {
+	out, _, err := streamJSON(b, v, nil, 0)
+	return out, err
+}
+
+// streamJSON is appendJSON that, given a sink, hands the encoding out in
+// pieces as it goes: once the text held passes limit bytes (checked
+// between values), it first checks that the whole value encodes (a dry
+// pass that formats no numbers: no NaN, infinity or type left to
+// encoding/json anywhere), then sends what it holds to the sink and goes
+// on in a buffer the sink gives. It returns the text not yet sent and
+// whether anything was sent; the pieces sent followed by the text
+// returned are appendJSON's bytes. An error with streamed false means
+// nothing was sent, so the caller can fall back to encoding/json as
+// appendJSON's callers do; with a nil sink it is appendJSON.
+func streamJSON(b []byte, v any, sink partSink, limit int) (rest []byte, streamed bool, err error) {
 	if v == nil {
-		return append(b, "null"...), nil
+		return append(b, "null"...), false, nil
 	}
 	rv := reflect.ValueOf(v)
-	var e encodeState
+	e := encodeState{sink: sink, limit: limit, root: rv}
 	last, err := encoderOf(rv.Type())(&e, b, rv)
 	if err != nil {
-		return b, err
+		return b, e.started, err
 	}
 	if e.chunks == nil {
-		return last, nil
+		return last, e.started, nil
 	}
 	// Join the pieces once, into a buffer of the exact size.
 	size := len(last)
@@ -52,15 +67,61 @@ func appendJSON(b []byte, v any) ([]byte, error) {
 	for _, c := range e.chunks {
 		out = append(out, c...)
 	}
-	return append(out, last...), nil
+	return append(out, last...), e.started, nil
+}
+
+// partSink takes the pieces of a line being written as it is encoded.
+type partSink interface {
+	// send hands p out; the encoder does not touch it again.
+	send(p []byte)
+	// buffer returns an empty buffer to go on encoding into.
+	buffer() []byte
 }
 
 // encodeState holds the finished pieces of one encoding, in order: the
 // text before a large array of numbers, then the array's pieces, each in
 // a buffer of its own sized for it, so that no buffer is copied as it
-// grows.
+// grows. When it streams (sink set) the pieces go to the sink instead;
+// a dry state checks a value without writing its numbers.
 type encodeState struct {
 	chunks [][]byte
+
+	sink    partSink
+	limit   int           // bytes held before they go to the sink
+	root    reflect.Value // the value encoded, for the dry pass
+	started bool          // something went to the sink
+	dry     bool
+}
+
+// spill is called between values: when the text held passes the limit,
+// a streaming state sends it to the sink (after the dry pass, the first
+// time) and a dry state drops it.
+func (e *encodeState) spill(b []byte) ([]byte, error) {
+	if len(b) < e.limit || e.sink == nil && !e.dry {
+		return b, nil
+	}
+	if e.dry {
+		return b[:0], nil
+	}
+	if err := e.start(); err != nil {
+		return b, err
+	}
+	e.sink.send(b)
+	return e.sink.buffer(), nil
+}
+
+// start runs the dry pass over the whole value once, before the first
+// piece is sent: after it, the encoding cannot fail half written.
+func (e *encodeState) start() error {
+	if e.started {
+		return nil
+	}
+	dry := encodeState{dry: true, limit: 64 << 10}
+	if _, err := encoderOf(e.root.Type())(&dry, make([]byte, 0, 80<<10), e.root); err != nil {
+		return err
+	}
+	e.started = true
+	return nil
 }
 
 // errFallback says a value is left to encoding/json.
@@ -141,7 +202,12 @@ func newEncoder(t reflect.Type) encoderFunc {
 			return strconv.AppendUint(b, v.Uint(), 10), nil
 		}
 	case reflect.Float64:
-		return func(e *encodeState, b []byte, v reflect.Value) ([]byte, error) { return appendFloat(b, v.Float()) }
+		return func(e *encodeState, b []byte, v reflect.Value) ([]byte, error) {
+			if e.dry {
+				return b, checkFinite(v.Float())
+			}
+			return appendFloat(b, v.Float())
+		}
 	case reflect.String:
 		return func(e *encodeState, b []byte, v reflect.Value) ([]byte, error) {
 			return appendString(b, v.String()), nil
@@ -224,6 +290,9 @@ func sliceEncoder(t reflect.Type) encoderFunc {
 			if b, err = elem(e, b, v.Index(i)); err != nil {
 				return b, err
 			}
+			if b, err = e.spill(b); err != nil {
+				return b, err
+			}
 		}
 		return append(b, ']'), nil
 	}
@@ -254,6 +323,9 @@ func mapEncoder(t reflect.Type) encoderFunc {
 			b = append(b, ':')
 			var err error
 			if b, err = elem(e, b, v.MapIndex(k)); err != nil {
+				return b, err
+			}
+			if b, err = e.spill(b); err != nil {
 				return b, err
 			}
 		}
@@ -313,6 +385,9 @@ func structEncoder(t reflect.Type) encoderFunc {
 			b = append(b, f.key...)
 			var err error
 			if b, err = f.enc(e, b, fv); err != nil {
+				return b, err
+			}
+			if b, err = e.spill(b); err != nil {
 				return b, err
 			}
 		}
@@ -395,6 +470,24 @@ func appendFloat(b []byte, f float64) ([]byte, error) {
 	return b, nil
 }
 
+// checkFinite refuses what appendFloat refuses.
+func checkFinite(f float64) error {
+	if math.IsNaN(f) || math.IsInf(f, 0) {
+		return errFallback
+	}
+	return nil
+}
+
+// checkAllFinite is checkFinite of every value.
+func checkAllFinite(x []float64) error {
+	for _, f := range x {
+		if err := checkFinite(f); err != nil {
+			return err
+		}
+	}
+	return nil
+}
+
 // parallelFloats is the number of values from which an array of numbers
 // is written in pieces on all processors at once (each piece into a buffer
 // of its own, joined in order, so the bytes do not depend on the number of
@@ -406,6 +499,9 @@ func encodeFloats(e *encodeState, b []byte, v reflect.Value) ([]byte, error) {
 		return append(b, "null"...), nil
 	}
 	x := v.Interface().([]float64)
+	if e.dry {
+		return b, checkAllFinite(x)
+	}
 	b = append(b, '[')
 	b, err := e.inPieces(b, len(x), len(x), func(b []byte, lo, hi int) ([]byte, error) {
 		return appendFloats(b, x[lo:hi], lo == 0)
@@ -421,6 +517,14 @@ func encodeFloatRows(e *encodeState, b []byte, v reflect.Value) ([]byte, error) 
 		return append(b, "null"...), nil
 	}
 	rows := v.Interface().([][]float64)
+	if e.dry {
+		for _, r := range rows {
+			if err := checkAllFinite(r); err != nil {
+				return b, err
+			}
+		}
+		return b, nil
+	}
 	count := 0
 	for _, r := range rows {
 		count += len(r)
@@ -469,8 +573,8 @@ func appendFloats(b []byte, x []float64, first bool) ([]byte, error) {
 // parallelFloats it splits [0, n) into one piece per processor, written
 // side by side, each into a buffer of its own sized for its values (24
 // bytes each with the comma, their usual width at most); b and the pieces
-// go to e's chunks and the text after them to a fresh buffer, which it
-// returns. The bytes do not depend on the number of processors.
+// go to e's chunks (or, streaming, to the sink) and the text after them
+// to a fresh buffer, which it returns. The bytes do not depend on the number of processors.
 func (e *encodeState) inPieces(b []byte, n, values int, write func(b []byte, lo, hi int) ([]byte, error)) ([]byte, error) {
 	if values < parallelFloats || n < 2 {
 		return write(slices.Grow(b, 24*values+n+2), 0, n)
@@ -494,8 +598,24 @@ func (e *encodeState) inPieces(b []byte, n, values int, write func(b []byte, lo,
 			return b, err
 		}
 	}
+	if e.sink != nil {
+		return e.sendPieces(b, out)
+	}
 	e.chunks = append(append(e.chunks, b), out...)
 	return make([]byte, 0, 4096), nil
+}
+
+// sendPieces sends b and an array's pieces to the sink, in order (after
+// the dry pass, the first time), and returns a buffer to go on in.
+func (e *encodeState) sendPieces(b []byte, pieces [][]byte) ([]byte, error) {
+	if err := e.start(); err != nil {
+		return b, err
+	}
+	e.sink.send(b)
+	for _, p := range pieces {
+		e.sink.send(p)
+	}
+	return e.sink.buffer(), nil
 }
 
 const hexDigits = "0123456789abcdef"

@@ -68,29 +68,7 @@ func randomCase(r *rand.Rand, n int) protocol.CaseResult {
 // invalid UTF-8, maps, raw ids with white space, expressions, nil and
 // empty arrays and omitted fields.
 func TestAppendJSONAgreesWithEncodingJSON(t *testing.T) {
-	r := rand.New(rand.NewPCG(19, 2))
-	var all []byte
-	for c := range 256 {
-		all = append(all, byte(c))
-	}
-	strs := []string{string(all), "plain", "é ü 漢 \U0001F600", "\u2028\u2029", "a\xffb\xc0", `"quoted" \back\slash`, "&<>"}
-	values := []any{
-		protocol.SolveResult{Cases: []protocol.CaseResult{randomCase(r, 50), randomCase(r, 3*parallelFloats)},
-			Warnings: strs, Unchecked: []protocol.Problem{{Path: "/members/0", Message: strs[0]}}, Caution: "check"},
-		protocol.SolveResult{},
-		&protocol.Response{JSONRPC: "2.0", ID: json.RawMessage(` { "a" : [1, 2] } `), Result: map[string]any{
-			"z": 1.5, "a": []any{"x", nil, true, 3.0, map[string]float64{"b": 1e-9, "a": -0.0}}, "m": strs}},
-		&protocol.Response{JSONRPC: "2.0", ID: json.RawMessage(`7`), Error: protocol.NewError(1001, "kind", "msg",
-			protocol.Problem{Path: "/x", Message: "y"})},
-		protocol.Notification{JSONRPC: "2.0", Method: "progress", Params: &protocol.Progress{Request: json.RawMessage(`"s"`), Stage: "step", Done: 3, Total: 9}},
-		[]protocol.Number{{Value: 1.25}, {Expr: "a & b < c", IsExpr: true}, {Value: math.Copysign(0, -1)}},
-		randomFloats(r, 5*parallelFloats+3),
-		map[string][]float64{"p": randomFloats(r, 4), "q": nil, "": {}},
-		nil, []any{}, (*protocol.Error)(nil),
-	}
-	for _, s := range strs {
-		values = append(values, s)
-	}
+	values := encoderCorpus()
 	for k, v := range values {
 		want, err := encodeStandard(v)
 		if err != nil {
@@ -138,4 +116,37 @@ func TestAppendJSONRefusesWhatEncodingJSONRefuses(t *testing.T) {
 			t.Errorf("value %d: encode gave %q, %v; want %q", k, got, err, want)
 		}
 	}
+}
+
+// encoderCorpus returns the values the encoder tests compare: solve
+// results with numbers of every magnitude, arrays long enough to be
+// written in parallel pieces, strings with every ASCII control character,
+// quotes, backslashes, HTML characters, U+2028, invalid UTF-8, maps, raw
+// ids with white space, expressions, nil and empty arrays and omitted
+// fields.
+func encoderCorpus() []any {
+	r := rand.New(rand.NewPCG(19, 2))
+	var all []byte
+	for c := range 256 {
+		all = append(all, byte(c))
+	}
+	strs := []string{string(all), "plain", "é ü 漢 \U0001F600", "\u2028\u2029", "a\xffb\xc0", `"quoted" \back\slash`, "&<>"}
+	values := []any{
+		protocol.SolveResult{Cases: []protocol.CaseResult{randomCase(r, 50), randomCase(r, 3*parallelFloats)},
+			Warnings: strs, Unchecked: []protocol.Problem{{Path: "/members/0", Message: strs[0]}}, Caution: "check"},
+		protocol.SolveResult{},
+		&protocol.Response{JSONRPC: "2.0", ID: json.RawMessage(` { "a" : [1, 2] } `), Result: map[string]any{
+			"z": 1.5, "a": []any{"x", nil, true, 3.0, map[string]float64{"b": 1e-9, "a": -0.0}}, "m": strs}},
+		&protocol.Response{JSONRPC: "2.0", ID: json.RawMessage(`7`), Error: protocol.NewError(1001, "kind", "msg",
+			protocol.Problem{Path: "/x", Message: "y"})},
+		protocol.Notification{JSONRPC: "2.0", Method: "progress", Params: &protocol.Progress{Request: json.RawMessage(`"s"`), Stage: "step", Done: 3, Total: 9}},
+		[]protocol.Number{{Value: 1.25}, {Expr: "a & b < c", IsExpr: true}, {Value: math.Copysign(0, -1)}},
+		randomFloats(r, 5*parallelFloats+3),
+		map[string][]float64{"p": randomFloats(r, 4), "q": nil, "": {}},
+		nil, []any{}, (*protocol.Error)(nil),
+	}
+	for _, s := range strs {
+		values = append(values, s)
+	}
+	return values
 }
