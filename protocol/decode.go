@@ -181,7 +181,7 @@ func (d *decoder) boolean(v reflect.Value) error {
 // unmarshaler hands the raw value at pos to u's own decoding.
 func (d *decoder) unmarshaler(u json.Unmarshaler) error {
 	start := d.pos
-	if err := d.skip(0); err != nil {
+	if err := d.valid(0); err != nil {
 		return err
 	}
 	if u.UnmarshalJSON(d.data[start:d.pos]) != nil {
@@ -744,26 +744,4 @@ func (d *decoder) mapping(v reflect.Value, c *codec, depth int) error {
 	})
 	v.Set(out)
 	return err
-}
-
-// skip moves past the value at pos, checking its syntax.
-func (d *decoder) skip(depth int) error {
-	if depth > maxDepth || d.pos >= len(d.data) {
-		return errUnhandled
-	}
-	switch c := d.data[d.pos]; {
-	case c == '{':
-		return d.members(func([]byte) error { return d.skip(depth + 1) })
-	case c == '[':
-		return d.elements(func() error { return d.skip(depth + 1) })
-	case c == '"':
-		_, err := d.strBytes()
-		return err
-	case c == '-' || c >= '0' && c <= '9':
-		_, err := d.numberToken()
-		return err
-	case d.literal("true") || d.literal("false") || d.literal("null"):
-		return nil
-	}
-	return errUnhandled
 }

@@ -33,8 +33,8 @@ func ObjectMembers(data []byte) (members map[string]json.RawMessage, ok bool) {
 	return members, true
 }
 
-// valid moves past the value at pos, checking its syntax as skip does,
-// without a closure per element: a request's params are most of its
+// valid moves past the value at pos, checking its syntax, with no
+// closure per element: a request's params are most of its
 // line, and this is the one pass that checks their syntax before a
 // worker decodes them.
 func (d *decoder) valid(depth int) error {
