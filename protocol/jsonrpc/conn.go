@@ -221,15 +221,19 @@ func (c *conn) account(resp *protocol.Response, sink partSink) (line []byte, str
 	return line, streamed
 }
 
-// cancel answers a cancel request: it stops the target if it is in flight.
+// cancel answers a cancel request: it marks the target stopped if it is
+// in flight, and the caller runs stop once the answer is sent, so that
+// the answer goes out before the stopped request's own (JSON-RPC leaves
+// the order of independent responses open; hosts read it this way).
 // found is false when the target is not in the table, so that a caller
 // whose earlier lines are still being admitted can look again later.
-func (c *conn) cancel(cl *call) (resp *protocol.Response, found bool) {
+func (c *conn) cancel(cl *call) (resp *protocol.Response, found bool, stop func()) {
+	stop = func() {}
 	var p protocol.CancelParams
 	if err := json.Unmarshal(cl.params, &p); err != nil || len(p.Request) == 0 {
 		return errorResponse(cl.id, protocol.NewError(protocol.CodeInvalidParams, "invalid params",
 			`cancel needs {"request": <id of the request to cancel>}.`,
-			protocol.Problem{Path: "/params/request", Message: "expected the id of a request in flight"})), true
+			protocol.Problem{Path: "/params/request", Message: "expected the id of a request in flight"})), true, stop
 	}
 	key := compactID(p.Request)
 	stopped := false
@@ -237,8 +241,8 @@ func (c *conn) cancel(cl *call) (resp *protocol.Response, found bool) {
 	target := c.inFlight[key]
 	if target != nil && !target.done {
 		target.stopped, stopped = true, true
-		target.cancel(errCancelledByHost)
+		stop = func() { target.cancel(errCancelledByHost) }
 	}
 	c.mu.Unlock()
-	return &protocol.Response{JSONRPC: "2.0", ID: cl.id, Result: protocol.CancelResult{Cancelled: stopped}}, target != nil
+	return &protocol.Response{JSONRPC: "2.0", ID: cl.id, Result: protocol.CancelResult{Cancelled: stopped}}, target != nil, stop
 }

@@ -85,9 +85,11 @@ func (c *conn) dispatch(cl *call, resp *protocol.Response, b *batch) bool {
 	case cl.method == protocol.MethodDescribe:
 		c.reply(b, &protocol.Response{JSONRPC: "2.0", ID: cl.id, Result: c.s.describeResult(c.limits)})
 	case cl.method == protocol.MethodCancel:
-		if resp, _ := c.cancel(cl); cl.id != nil {
+		resp, _, stop := c.cancel(cl)
+		if cl.id != nil {
 			c.reply(b, resp)
 		}
+		stop()
 	default:
 		return c.admit(cl)
 	}

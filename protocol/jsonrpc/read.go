@@ -70,7 +70,7 @@ func (c *conn) handleParsed(cl *call, resp *protocol.Response, size int, b *batc
 	case cl.method == protocol.MethodDescribe:
 		c.reply(b, &protocol.Response{JSONRPC: "2.0", ID: cl.id, Result: c.s.describeResult(c.limits)})
 	case cl.method == protocol.MethodCancel:
-		resp, found := c.cancel(cl)
+		resp, found, stop := c.cancel(cl)
 		if !found && !c.idle() {
 			// The target may be a line still being parsed or admitted
 			// off the reader: look again once those before it are in.
@@ -78,6 +78,7 @@ func (c *conn) handleParsed(cl *call, resp *protocol.Response, size int, b *batc
 		} else if cl.id != nil {
 			c.reply(b, resp)
 		}
+		stop()
 	case c.idle() && c.queue.fits(size):
 		if c.admit(cl) {
 			c.queue.put(cl, size)
