@@ -202,6 +202,17 @@ type Term struct {
 	Factor float64
 }
 
+// AllBars reports whether every member of m is a bar (pin-ended: its
+// displacement is linear along it unless loads cross it).
+func (m *Model) AllBars() bool {
+	for _, mem := range m.Members {
+		if mem.Kind != Bar {
+			return false
+		}
+	}
+	return true
+}
+
 // DOFsPerNode returns the translational freedom count (Dim) and the
 // rotational count (1 in 2D, 3 in 3D) of the model.
 func (m *Model) DOFsPerNode() (translational, rotational int) {

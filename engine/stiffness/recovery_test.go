@@ -119,7 +119,7 @@ func compareForces(t *testing.T, m *model.Model, want, got *CaseResult) {
 		t.Error("RecoverForces gave member results or utilisations")
 	}
 	unset := Peak{Node: -1, Member: -1}
-	if allBars(m) {
+	if m.AllBars() {
 		if got.MaxDisplacement != want.MaxDisplacement {
 			t.Errorf("largest displacement %+v, want %+v", got.MaxDisplacement, want.MaxDisplacement)
 		}

@@ -287,7 +287,7 @@ func norm(v []float64) float64 {
 func summarise(m *model.Model, cr *CaseResult, forcesOnly bool) {
 	cr.MaxDisplacement = Peak{Node: -1, Member: -1}
 	cr.MaxMoment = Peak{Node: -1, Member: -1}
-	if forcesOnly && !allBars(m) {
+	if forcesOnly && !m.AllBars() {
 		return
 	}
 	for n, d := range cr.Displacements {
@@ -309,16 +309,6 @@ func summarise(m *model.Model, cr *CaseResult, forcesOnly bool) {
 			}
 		}
 	}
-}
-
-// allBars reports whether every member of m is a bar.
-func allBars(m *model.Model) bool {
-	for _, mem := range m.Members {
-		if mem.Kind != model.Bar {
-			return false
-		}
-	}
-	return true
 }
 
 // finite reports whether every number of r is finite.
