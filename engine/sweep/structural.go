@@ -143,9 +143,7 @@ func ModelEvaluatorModal(m *model.Model, names, metrics []string, solve Solver, 
 			set(out, want, MetricMass, res.Totals.All.Mass)
 			set(out, want, MetricCarbon, res.Totals.All.Carbon)
 		}
-		if sol.ForcesOnly && needsMemberResults(mm, metrics) {
-			panic("sweep: a solver that recovers forces only (StiffnessSolverFor) serves metrics that need the members' results")
-		}
+		mustServe(sol, mm, metrics)
 		set(out, want, MetricMaxDisplacement, sol.MaxDisplacement)
 		if want[MetricMaxUtilisation] && sol.UncheckedMember != "" {
 			return nil, fault.New(fault.MissingData, "max_utilisation is unknown: member %q could not be checked (solve's unchecked list says which data is missing)", sol.UncheckedMember)
@@ -185,4 +183,13 @@ func wanted(metrics []string) (map[string]bool, error) {
 		want[name] = true
 	}
 	return want, nil
+}
+
+// mustServe panics when sol, from a solver that recovered forces only
+// (StiffnessSolverFor), is asked for metrics that need the members'
+// results: a programming error, never a result that quietly lacks them.
+func mustServe(sol *Solution, m *model.Model, metrics []string) {
+	if sol.ForcesOnly && needsMemberResults(m, metrics) {
+		panic("sweep: a solver that recovers forces only (StiffnessSolverFor) serves metrics that need the members' results")
+	}
 }
