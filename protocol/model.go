@@ -241,10 +241,10 @@ type MemberLoad struct {
 	// (intensity from value at the first end to end_value at the second),
 	// "point" (force value at distance from the first end) or "thermal"
 	// (free axial strain). On a bar (pin-jointed) the part of a load
-	// across the member goes to its two ends as nodal loads, which gives
-	// the joints and the rest of the structure the right forces, but the
-	// bar's own bending is not analysed: solve lists it in unchecked with
-	// the member's pointer. Make the member a beam to have its bending.
+	// across the member goes to its two ends as the reactions of a simple
+	// span, and the bar bends between them as that span: solve reports its
+	// moments, its checks and (given its section's second_moment) its
+	// deflection.
 	Kind string `json:"kind" jsonschema:"enum=uniform,enum=linear,enum=point,enum=thermal"`
 	// Axes is "global" (the default) or "local" (x along the member).
 	Axes string `json:"axes,omitempty" jsonschema:"enum=global,enum=local"`

@@ -57,7 +57,8 @@ type CaseResult struct {
 	// Utilisation holds per member the largest of its checks along its
 	// length (see members): N/(A·tension_limit) in tension,
 	// |N|/(χ·A·compression_limit) in compression with χ from the EN
-	// 1993-1-1 buckling curve, and for beams |M|/(W·f) and the linear
+	// 1993-1-1 buckling curve, and for beams (and bars loaded across their
+	// length) |M|/(W·f) and the linear
 	// interaction; null when a check the member needs could not be made
 	// (see unchecked).
 	Utilisation []*float64 `json:"utilisation"`
@@ -65,15 +66,16 @@ type CaseResult struct {
 	// node, or inside a member (at is then the member's id and distance
 	// is set).
 	MaxDisplacement Extreme `json:"max_displacement"`
-	// MaxMoment is the bending moment of largest magnitude in any beam
-	// (signed; force·length), its member and distance; value 0 and no
-	// member when the model has no beams. The bending of a bar loaded
-	// across its length is not analysed and is not in it: unchecked names
-	// each such bar.
+	// MaxMoment is the bending moment of largest magnitude in any beam,
+	// or in any bar loaded across its length (which bends as a simple
+	// span), signed (force·length), with its member and distance; value 0
+	// and no member when no member bends.
 	MaxMoment Extreme `json:"max_moment"`
 	// Members holds per member (aligned with model.members) its results
-	// along its length; null for a bar, whose axial force is constant
-	// along it (axial_forces) and whose check is in utilisation.
+	// along its length; null for a bar that no load crosses, whose axial
+	// force is constant along it (axial_forces) and whose check is in
+	// utilisation. A bar loaded across its length has its simple span's
+	// extremes and checks here, without stations.
 	Members []*MemberResult `json:"members"`
 	// MaxUtilisation is the largest utilisation and its member, over the
 	// members whose checks were all made (value 0 and no member when
@@ -85,9 +87,8 @@ type CaseResult struct {
 	// utilisation (N/(A·tension_limit) in tension,
 	// |N|/(χ·A·compression_limit) in compression), null where that check
 	// was not made. It is given only when some member's utilisation is
-	// null although its axial check was made (a bar loaded across its
-	// length, whose bending is not analysed; a beam whose bending could not
-	// be checked), so that the part checked is known; it is a part of the
+	// null although its axial check was made (a member whose bending
+	// could not be checked), so that the part checked is known; it is a part of the
 	// check, never the member's utilisation (unchecked says what is
 	// missing).
 	AxialUtilisation []*float64 `json:"axial_utilisation,omitempty"`

@@ -213,6 +213,28 @@ func (m *Model) AllBars() bool {
 	return true
 }
 
+// LinearBetweenEnds reports whether every member's displacement is linear
+// between its ends in every case, so that the nodes hold the largest
+// displacement: every member is a bar and no load may cross one (no case
+// has its own weight or a member load other than a thermal one; a load
+// along a bar's axis is counted too, which errs on the safe side).
+func (m *Model) LinearBetweenEnds() bool {
+	if !m.AllBars() {
+		return false
+	}
+	for _, c := range m.Cases {
+		if c.SelfWeight {
+			return false
+		}
+		for _, ml := range c.MemberLoads {
+			if ml.Kind != Thermal {
+				return false
+			}
+		}
+	}
+	return true
+}
+
 // DOFsPerNode returns the translational freedom count (Dim) and the
 // rotational count (1 in 2D, 3 in 3D) of the model.
 func (m *Model) DOFsPerNode() (translational, rotational int) {

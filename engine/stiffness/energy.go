@@ -31,9 +31,9 @@ func (cr *CaseResult) BendingShare() (share float64, member int) {
 // LoadPathCaveat returns the warning a load path of case cr needs when
 // members bend or twist: the share of the strain energy the axial measure
 // leaves out, where most of it is, and the largest bending utilisation
-// (or how many beams' bending went unchecked), and how many bars carry
-// loads across them, whose bending is not analysed at all. It is empty
-// when no member bends.
+// (or how many members' bending went unchecked), and how many bars carry
+// loads across them without a second moment of area, whose energy of
+// bending is unknown. It is empty when no member bends.
 func LoadPathCaveat(m *model.Model, cr *CaseResult) string {
 	bars := LoadedBars(cr)
 	share, member := cr.BendingShare()
@@ -41,13 +41,13 @@ func LoadPathCaveat(m *model.Model, cr *CaseResult) string {
 		if bars == 0 {
 			return ""
 		}
-		return fmt.Sprintf("%s %q: the load path counts axial forces only, and %d bars carry loads across them (their own weight, member loads), whose bending is not analysed (see solve's unchecked list): the load path, and volumes sized from it, understate what these members need",
+		return fmt.Sprintf("%s %q: the load path counts axial forces only, and %d bars carry loads across them (their own weight, member loads) and bend, with no second_moment to give the energy of their bending (see solve's unchecked list): the load path, and volumes sized from it, understate what these members need",
 			caseWord(cr), cr.ID, bars)
 	}
 	worst, unchecked := -1, 0
 	for e := range cr.Members {
 		r := &cr.Members[e]
-		if m.Members[e].Kind != model.Beam || r.BendingEnergy == 0 {
+		if !(r.BendingEnergy > 0 && m.Members[e].Kind == model.Beam || r.LoadedAcross) {
 			continue
 		}
 		if r.BendingUtilisation < 0 {
@@ -62,10 +62,10 @@ func LoadPathCaveat(m *model.Model, cr *CaseResult) string {
 		s += fmt.Sprintf("; the largest bending utilisation is %.3g (member %q)", cr.Members[worst].BendingUtilisation, m.Members[worst].ID)
 	}
 	if unchecked > 0 {
-		s += fmt.Sprintf("; the bending of %d beams is not checked (no section modulus or limit; see solve's unchecked list)", unchecked)
+		s += fmt.Sprintf("; the bending of %d members is not checked (no section modulus or limit; see solve's unchecked list)", unchecked)
 	}
 	if bars > 0 {
-		s += fmt.Sprintf("; %d bars carry loads across them, whose bending is not analysed", bars)
+		s += fmt.Sprintf("; %d bars carry loads across them with no second_moment, whose energy of bending is not in that share", bars)
 	}
 	return s + ": the load path, and volumes sized from it, understate what these members need"
 }

@@ -259,7 +259,7 @@ func recoverMember(m *model.Model, nb *numbering, ls *loadSet, u []float64, cr *
 	} else {
 		alongBar(&cr.Members[e], el, p[:n], cr.Displacements[m.Members[e].Ends[0]], cr.Displacements[m.Members[e].Ends[1]])
 		if sc.loading.transverse() {
-			cr.Members[e].Unchecked |= barBending
+			alongLoadedBar(&cr.Members[e], el, sec, &m.Materials[m.Members[e].Material], p[:n], ul[:n], &sc.loading, &sc.field)
 		}
 	}
 	cr.Utilisation[e] = checkMember(m, e, &cr.Members[e])

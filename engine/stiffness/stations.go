@@ -34,7 +34,9 @@ type Extreme struct {
 // the load (towards the second end), except at the second end itself.
 //
 // For a bar only the axial extremes and the largest displacement (at an
-// end: a bar's displacement is linear along it) are set.
+// end: a bar's displacement is linear along it) are set, unless loads
+// cross it: then it has the extremes of a simply supported span too (see
+// LoadedAcross).
 type MemberResult struct {
 	// Stations holds the distances of the stations from the first end
 	// (length units), evenly spaced with both ends; nil when stations were
@@ -78,6 +80,12 @@ type MemberResult struct {
 	BucklingReduction                                         float64
 	// Unchecked flags the checks not made, or made on an assumption.
 	Unchecked uint16
+
+	// LoadedAcross is set for a bar that carries loads across its length
+	// (its own weight, member loads): it bends as a simply supported span,
+	// and its moments, shears and (given EI) deflections above are those
+	// of the span (see alongLoadedBar), without station arrays.
+	LoadedAcross bool
 
 	// AxialEnergy, BendingEnergy and TorsionEnergy are the member's strain
 	// energy (force·length) from its axial force ∫N²/2EA, its bending
@@ -282,12 +290,13 @@ func norm(v []float64) float64 {
 // interiors) and largest moment. A member's interior wins over a node only
 // when strictly larger, so a peak at a member's end is reported at its
 // node. Without the members' results (forcesOnly) the nodes' largest
-// displacement is the answer only when every member is a bar, whose
-// displacement is linear along it; otherwise both stay unset.
+// displacement is the answer only when every member is a bar that no
+// load crosses, whose displacement is linear along it
+// (model.LinearBetweenEnds); otherwise both stay unset.
 func summarise(m *model.Model, cr *CaseResult, forcesOnly bool) {
 	cr.MaxDisplacement = Peak{Node: -1, Member: -1}
 	cr.MaxMoment = Peak{Node: -1, Member: -1}
-	if forcesOnly && !m.AllBars() {
+	if forcesOnly && !m.LinearBetweenEnds() {
 		return
 	}
 	for n, d := range cr.Displacements {
@@ -300,7 +309,7 @@ func summarise(m *model.Model, cr *CaseResult, forcesOnly bool) {
 		if v := r.PeakDisplacement.Value; v > cr.MaxDisplacement.Value {
 			cr.MaxDisplacement = Peak{Value: v, Node: -1, Member: e, At: r.PeakDisplacement.At}
 		}
-		if m.Members[e].Kind != model.Beam {
+		if m.Members[e].Kind != model.Beam && !r.LoadedAcross {
 			continue
 		}
 		for _, pk := range [2]Extreme{r.PeakMomentZ, r.PeakMomentY} {

@@ -36,15 +36,21 @@ const (
 	noModulusZ                            // bending about z, no section_modulus
 	noModulusY                            // bending about y (3D), no section_modulus_y
 	noBendingLimit                        // bending, no stress limit at all
-	barBending                            // a bar with transverse loads along it
+	noSpanInertia                         // a bar loaded across, no second moment: its deflection between the ends not known
 )
+
+// notStrength are the flags that leave the member's strength checks whole:
+// an assumed curve is on the safe side, and a loaded bar's unknown
+// deflection is a serviceability matter.
+const notStrength = curveAssumed | noSpanInertia
 
 // checkMember sets r's axial, bending and combined utilisation for member
 // e and returns the governing one: the largest of them, or −1 when a check
 // the member needs could not be made (a missing limit, section modulus or
-// second moment, or a bar loaded across its length), so that a partial
-// check never passes for a whole one. r's axial extremes, peak moments
-// and, for a bar, transverse flag must be set.
+// second moment), so that a partial check never passes for a whole one.
+// r's axial extremes and peak moments (and LoadedAcross) must be set. A
+// bar loaded across its length is checked like a beam, with its simple
+// span's moments.
 //
 // Axial: N/(A·ft) in tension; |N|/(χ·A·fc) in compression with χ from the
 // member's buckling curve at λ̄ = √(A·fc/Ncr), Ncr = π²EI/(kL)² with the
@@ -58,7 +64,7 @@ const (
 // checked.
 func checkMember(m *model.Model, e int, r *MemberResult) float64 {
 	governing := memberChecks(m, e, r)
-	if r.Unchecked&^curveAssumed != 0 {
+	if r.Unchecked&^notStrength != 0 {
 		return -1
 	}
 	return governing
@@ -89,7 +95,7 @@ func memberChecks(m *model.Model, e int, r *MemberResult) float64 {
 		}
 	}
 	governing := r.AxialUtilisation
-	if mem.Kind != model.Beam {
+	if mem.Kind != model.Beam && !r.LoadedAcross {
 		return governing
 	}
 	bending, ok := bendingUtilisation(m, sec, mat, r)
@@ -190,12 +196,13 @@ func bendingUtilisation(m *model.Model, sec *model.Section, mat *model.Material,
 }
 
 // LoadedBars returns how many bars of case cr carry loads across their
-// length (their own weight, member loads): their bending is neither
-// analysed nor checked, and their utilisation is unknown.
+// length (their own weight, member loads) and have no second moment of
+// area: their bending moments are known from statics, but not the energy
+// of their bending nor their deflection between the ends.
 func LoadedBars(cr *CaseResult) int {
 	n := 0
 	for e := range cr.Members {
-		if cr.Members[e].Unchecked&barBending != 0 {
+		if cr.Members[e].Unchecked&noSpanInertia != 0 {
 			n++
 		}
 	}
@@ -229,7 +236,7 @@ func uncheckedNotesOf(m *model.Model, memberFlags []uint16, limit int) []fault.P
 	more := 0
 	for e := range m.Members {
 		flags := memberFlags[e]
-		for bit := uint16(1); bit != 0 && bit <= barBending; bit <<= 1 {
+		for bit := uint16(1); bit != 0 && bit <= noSpanInertia; bit <<= 1 {
 			if flags&bit == 0 {
 				continue
 			}
@@ -266,16 +273,16 @@ func uncheckedNote(m *model.Model, e int, bit uint16) fault.Problem {
 			Message: fmt.Sprintf("member %q is in compression and names no buckling_curve: the lowest curve, d (α = 0.76), was used", id)}
 	case noModulusZ:
 		return fault.Problem{Path: fmt.Sprintf("/sections/%d/section_modulus", mem.Section),
-			Message: fmt.Sprintf("beam %q bends but section %q has no section_modulus (nor a shape): its bending and combined checks are not made", id, sec)}
+			Message: fmt.Sprintf("member %q bends but section %q has no section_modulus (nor a shape): its bending and combined checks are not made", id, sec)}
 	case noModulusY:
 		return fault.Problem{Path: fmt.Sprintf("/sections/%d/section_modulus_y", mem.Section),
-			Message: fmt.Sprintf("beam %q bends about local y but section %q has no section_modulus_y (nor a shape): its bending and combined checks are not made", id, sec)}
+			Message: fmt.Sprintf("member %q bends about local y but section %q has no section_modulus_y (nor a shape): its bending and combined checks are not made", id, sec)}
 	case noBendingLimit:
 		return fault.Problem{Path: fmt.Sprintf("/materials/%d", mem.Material),
-			Message: fmt.Sprintf("beam %q bends but material %q has neither a tension_limit nor a compression_limit: its bending and combined checks are not made", id, mat)}
+			Message: fmt.Sprintf("member %q bends but material %q has neither a tension_limit nor a compression_limit: its bending and combined checks are not made", id, mat)}
 	default:
-		return fault.Problem{Path: fmt.Sprintf("/members/%d/type", e),
-			Message: fmt.Sprintf("bar %q carries loads across it, which reach its ends as on a simple span: its bending is neither analysed nor checked (its axial check alone is in axial_utilisation); make it a beam", id)}
+		return fault.Problem{Path: fmt.Sprintf("/sections/%d/second_moment", mem.Section),
+			Message: fmt.Sprintf("bar %q carries loads across it and bends as a simple span, but section %q has no second_moment: its moments are known from statics, its deflection between its ends is not (max_displacement counts its ends only)", id, sec)}
 	}
 }
 

@@ -42,7 +42,7 @@ func StiffnessSolverFor(m *model.Model, cases, metrics []string) Solver {
 // needsMemberResults reports whether a metric needs what
 // stiffness.RecoverForces leaves out.
 func needsMemberResults(m *model.Model, metrics []string) bool {
-	return slices.Contains(metrics, MetricMaxUtilisation) || !m.AllBars() && slices.Contains(metrics, MetricMaxDisplacement)
+	return slices.Contains(metrics, MetricMaxUtilisation) || !m.LinearBetweenEnds() && slices.Contains(metrics, MetricMaxDisplacement)
 }
 
 // solverRecovering is StiffnessSolver recovering as much as recovery says.

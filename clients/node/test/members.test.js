@@ -49,8 +49,9 @@ test('member results by id', { skip }, async () => {
 // W = 77·0.005·5 kN across them under 100 kN at B: by hand statics the foot
 // of each carries N = −(100 + W)/(2 sin θ) − (W/2) sin θ (sin θ = 3/5),
 // checked as |N|/(χ·A·fc) with χ from EN 1993-1-1 eq. (6.49), curve d
-// (α = 0.76); their bending is not analysed, so they are not checked and
-// only the axial part is known.
+// (α = 0.76); they bend as simple spans, but the section gives no section
+// modulus, so their bending is not checked and only the axial part is
+// known.
 test('member checks by id', { skip }, async () => {
   const truss = {
     dimension: 2,

@@ -48,8 +48,9 @@ class MemberHelpersTest(unittest.TestCase):
         weight W = 77*0.005*5 kN across them under 100 kN at B: by hand
         statics the foot of each carries N = -(100 + W)/(2 sin t) - (W/2) sin t
         (sin t = 3/5), checked as |N|/(chi*A*fc) with chi from EN 1993-1-1
-        eq. (6.49), curve d (alpha 0.76); their bending is not analysed, so
-        they are not checked and only the axial part is known."""
+        eq. (6.49), curve d (alpha 0.76); they bend as simple spans, but the
+        section gives no section modulus, so their bending is not checked and
+        only the axial part is known."""
         truss = {
             "dimension": 2,
             "materials": [{"id": "steel", "elastic_modulus": E, "tension_limit": 2.35e5, "compression_limit": 2.35e5, "weight_density": 77}],

@@ -80,7 +80,7 @@ func caseSummaries(m *model.Model, c *stiffness.CaseResult, cr *protocol.CaseRes
 	cr.MaxMoment = wirePeak(m, c.MaxMoment)
 	cr.Members = make([]*protocol.MemberResult, len(c.Members))
 	for e := range c.Members {
-		if m.Members[e].Kind == model.Beam {
+		if m.Members[e].Kind == model.Beam || c.Members[e].LoadedAcross {
 			cr.Members[e] = wireMember(m, e, &c.Members[e])
 		}
 	}
@@ -99,7 +99,8 @@ func wirePeak(m *model.Model, p stiffness.Peak) protocol.Extreme {
 	return protocol.Extreme{}
 }
 
-// wireMember converts one beam's results along it.
+// wireMember converts the results along one beam, or one bar loaded
+// across its length.
 func wireMember(m *model.Model, e int, r *stiffness.MemberResult) *protocol.MemberResult {
 	along := func(x stiffness.Extreme) protocol.Along { return protocol.Along{Value: x.Value, At: x.At} }
 	check := func(u float64) *float64 {
