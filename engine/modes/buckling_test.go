@@ -187,3 +187,39 @@ func TestLoadReversal(t *testing.T) {
 		t.Errorf("factor %g (reversal %v, critical %v), want −%g", md.Factor, md.LoadReversal, res.HasCritical, euler)
 	}
 }
+
+// TestAboveShift checks that AboveShift finds the least positive factor
+// where load reversals lie nearer zero: two separate pinned columns, a
+// 5 m one pushed by the load (Euler load π²EI/25 as its factor) and a
+// 20 m one pulled by it (reversals at −k²·π²EI/400, the first three
+// nearer zero than π²EI/25) (S. P. Timoshenko and J. M. Gere, "Theory of
+// Elastic Stability", 2nd ed., McGraw-Hill 1961, §2.1; from memory).
+func TestAboveShift(t *testing.T) {
+	b := newTestModel(2)
+	short := b.line([]float64{0, 0}, []float64{0, 5}, 8, model.Beam)
+	long := b.line([]float64{3, 0}, []float64{3, 20}, 24, model.Beam)
+	for _, c := range [][]int{short, long} {
+		b.fix(c[0], model.X, model.Y)
+		b.fix(c[len(c)-1], model.X)
+	}
+	b.load(short[len(short)-1], 0, -1)
+	b.load(long[len(long)-1], 0, 1)
+	euler := math.Pi * math.Pi * testE * testI
+	nearest, err := Buckling(context.Background(), b.m, Options{Count: 3})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for k, md := range nearest.Modes {
+		want := -float64((k+1)*(k+1)) * euler / 400
+		if rel := math.Abs(md.Factor-want) / -want; rel > 1e-3 || nearest.HasCritical {
+			t.Errorf("nearest zero, mode %d: %g (critical %v), want the reversal %g", k+1, md.Factor, nearest.HasCritical, want)
+		}
+	}
+	above, err := Buckling(context.Background(), b.m, Options{Count: 1, AboveShift: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if want := euler / 25; !above.HasCritical || math.Abs(above.Critical-want)/want > 1e-3 {
+		t.Errorf("above the shift: critical %g (found %v), want Euler's %g", above.Critical, above.HasCritical, want)
+	}
+}

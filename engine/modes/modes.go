@@ -46,6 +46,13 @@ type Options struct {
 	// shift beyond the first critical factor (or first frequency) is an
 	// error. 0 means none.
 	Shift float64
+	// AboveShift seeks only the factors above Shift (Buckling): with the
+	// shift 0, the least positive factors, even where load reversals
+	// (negative factors) lie nearer zero, as they do for a double-layer
+	// grid supported along its top layer's edges, whose bottom layer has
+	// free edges. The least positive factor is then Critical whenever the
+	// Lanczos process converges. Vibration seeks only those anyway.
+	AboveShift bool
 	// Tolerance is the largest accepted residual, the backward error
 	// ‖K·φ − λ·B·φ‖ / ((‖K‖ + |λ|·‖B‖)·‖φ‖) of each mode on the scaled
 	// matrices; 0 means DefaultTolerance.
@@ -190,7 +197,7 @@ func Buckling(ctx context.Context, m *model.Model, opt Options) (*Result, error)
 	}
 	res := &Result{Kind: KindBuckling, Case: caseID, Warnings: bucklingWarnings(m)}
 	res.Stats.Assemble = time.Since(start)
-	pairs, err := solvePencil(ctx, mx, b, opt, false, res)
+	pairs, err := solvePencil(ctx, mx, b, opt, opt.AboveShift, res)
 	if se := (*shiftError)(nil); errors.As(err, &se) {
 		return nil, fault.New(fault.NoSolution, "K + %g·K_G is not positive definite: the shift %g lies at or beyond a critical load factor; choose one nearer zero", opt.Shift, opt.Shift)
 	}

@@ -54,7 +54,7 @@ func modalMetrics(ctx context.Context, mm *model.Model, want map[string]bool, mo
 		}
 		least := math.Inf(1)
 		for _, id := range cases {
-			res, err := modes.Buckling(ctx, mm, modes.Options{Case: id, Count: modal.Count, Workers: 1, Analysis: modal.analysis})
+			res, err := modes.Buckling(ctx, mm, modes.Options{Case: id, Count: modal.Count, Workers: 1, Analysis: modal.analysis, AboveShift: true})
 			if err != nil {
 				return err
 			}
