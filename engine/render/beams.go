@@ -48,8 +48,8 @@ const beamLabels = 8
 // magnified by a stated round factor) over the undeformed model, with
 // the largest displacement labelled. Members without a curve (bars) are
 // drawn straight between their nodes. A beam end released in bending
-// (model.Member.Releases, rz) is marked in the moment diagram by an open
-// circle on the beam just inside its node, which the caption explains.
+// (model.Member.Releases, rz) is marked in both panels by an open circle
+// on the beam just inside its node, which the caption explains.
 // The caption carries the caution.
 // It returns the first write error and panics for a 3D model or a curve
 // whose arrays differ in length.
@@ -118,19 +118,10 @@ func Beams(w io.Writer, m *model.Model, nodeDisp [][]float64, curves []BeamCurve
 	if title == "" {
 		title = "Moments and deflections along the members"
 	}
-	c.caption(20, top2+h2+30, title, withHingeNote(len(releasedEnds(m, model.RZ)) > 0,
+	c.caption(20, top2+h2+30, title, releaseNotes(len(releasedEnds(m, model.RZ)) > 0, false,
 		fmt.Sprintf("Moment scale: 1 %s of drawing = %.4g %s; largest moment %.4g %s.", lengthUnit, momentScale, momentUnit, maxM, momentUnit),
 		fmt.Sprintf("Displacements magnified ×%.4g; largest displacement %.4g %s (undeformed members dotted grey).", magnify, maxU, lengthUnit))...)
 	return c.close()
-}
-
-// withHingeNote returns notes, followed by the sentence on hinge marks
-// when any are drawn.
-func withHingeNote(hinges bool, notes ...string) []string {
-	if hinges {
-		notes = append(notes, hingeNote)
-	}
-	return notes
 }
 
 // niceAbove returns the smallest 1, 2 or 5 × 10ᵏ not below x > 0.
@@ -252,10 +243,34 @@ func drawDeflected(c *canvas, f frame, m *model.Model, nodeDisp [][]float64, byM
 		c.printf(`<polyline points="%s" fill="none" stroke="%s" stroke-width="2"/>`+"\n", strings.TrimSpace(pts.String()), DeflectedColour)
 	}
 	drawSupports(c, f, m)
+	for _, end := range releasedEnds(m, model.RZ) {
+		at, next := movedEnd(m, nodeDisp, byMember, magnify, end)
+		c.hingeMark(f.x(at[0]), f.y(at[1]), f.x(next[0]), f.y(next[1]))
+	}
 	if best > 0 {
 		c.circle(f.x(bestAt[0]), f.y(bestAt[1]), 3, DeflectedColour)
 		labelInside(c, f, f.x(bestAt[0]), f.y(bestAt[1]), 5, 14, fmt.Sprintf("largest %.4g %s", best, unit))
 	}
+}
+
+// movedEnd returns the magnified displaced position of a member's end
+// (member index, side) in the deflected shape and the next point drawn
+// along the member from it: the neighbouring station of its curve, or,
+// for a member drawn straight, its other end.
+func movedEnd(m *model.Model, nodeDisp [][]float64, byMember map[int]*BeamCurve, magnify float64, end [2]int) (at, next [2]float64) {
+	if bc, ok := byMember[end[0]]; ok && len(bc.Stations) >= 2 {
+		k, step := 0, 1
+		if end[1] == 1 {
+			k, step = len(bc.Stations)-1, -1
+		}
+		return movedPoint(m, *bc, k, magnify), movedPoint(m, *bc, k+step, magnify)
+	}
+	moved := func(v int) [2]float64 {
+		p, d := node(m, v), nodeDisp[v]
+		return [2]float64{p[0] + magnify*d[0], p[1] + magnify*d[1]}
+	}
+	ends := m.Members[end[0]].Ends
+	return moved(ends[end[1]]), moved(ends[1-end[1]])
 }
 
 func nearestStation(stations []float64, at float64) int {

@@ -22,8 +22,10 @@ import (
 // round factor) over the undeformed model. A curve's MomentY holds My.
 // Members without a curve (bars) are drawn straight between their nodes.
 // Beam ends released about local z are marked by open circles in the Mz
-// panel, those released about local y in the My panel (hingeMark). The
-// caption carries the caution. It returns the first write error and
+// panel, those released about local y in the My panel (hingeMark), and
+// both in the deflected shape, where an end released in torsion only is
+// marked by an open diamond (torsionMark); the caption explains the marks
+// drawn and carries the caution. It returns the first write error and
 // panics for a 2D model or a curve whose arrays differ in length.
 func Beams3D(w io.Writer, m *model.Model, nodeDisp [][]float64, curves []BeamCurve, opt Options) error {
 	if m.Dim != 3 {
@@ -74,7 +76,7 @@ func Beams3D(w io.Writer, m *model.Model, nodeDisp [][]float64, curves []BeamCur
 	if title == "" {
 		title = "Moments and deflections along the members"
 	}
-	c.caption(20, 36+ph+30, title, withHingeNote(len(releasedEnds(m, model.RY))+len(releasedEnds(m, model.RZ)) > 0,
+	c.caption(20, 36+ph+30, title, releaseNotes(len(bendingReleasedEnds(m)) > 0, len(torsionReleasedEnds(m)) > 0,
 		fmt.Sprintf("Isometric views; moments drawn on the tension side. Moment scale: 1 %s of drawing = %.4g %s; largest moment %.4g %s.", lengthUnit, sc.momentScale, momentUnit, sc.maxM, momentUnit),
 		fmt.Sprintf("Displacements magnified ×%.4g; largest displacement %.4g %s (undeformed members dotted grey).", sc.magnify, sc.maxU, lengthUnit))...)
 	return c.close()
@@ -240,8 +242,34 @@ func (sc *spaceCurves) drawMomentPanel(c *canvas, f frame, pts func(bc *BeamCurv
 	}
 }
 
+// movedEnd returns in frame f the magnified displaced position of a
+// member's end (member index, side) and of the next point drawn along the
+// member from it: the neighbouring station of its curve, or, for a member
+// drawn straight, its other end.
+func (sc *spaceCurves) movedEnd(f frame, end [2]int) (x, y, ox, oy float64) {
+	if bc, ok := sc.byMember[end[0]]; ok && len(bc.Stations) >= 2 {
+		k, step := 0, 1
+		if end[1] == 1 {
+			k, step = len(bc.Stations)-1, -1
+		}
+		x, y = pt(f, sc.moved(bc, k))
+		ox, oy = pt(f, sc.moved(bc, k+step))
+		return x, y, ox, oy
+	}
+	moved := func(v int) (float64, float64) {
+		p, d := sc.m.Node(v), sc.nodeDisp[v]
+		return pt(f, [3]float64{p[0] + sc.magnify*d[0], p[1] + sc.magnify*d[1], p[2] + sc.magnify*d[2]})
+	}
+	ends := sc.m.Members[end[0]].Ends
+	x, y = moved(ends[end[1]])
+	ox, oy = moved(ends[1-end[1]])
+	return x, y, ox, oy
+}
+
 // drawDeflectedPanel draws the undeformed members dotted and the
-// deflected shape along them, and marks the largest displacement.
+// deflected shape along them, marks the released member ends (open
+// circles in bending, open diamonds in torsion only) and the largest
+// displacement.
 func (sc *spaceCurves) drawDeflectedPanel(c *canvas, f frame, unit string) {
 	sc.drawMembersAndSupports(c, f, "zero", 1, "")
 	best, bx, by := -1.0, 0.0, 0.0
@@ -267,6 +295,14 @@ func (sc *spaceCurves) drawDeflectedPanel(c *canvas, f frame, unit string) {
 			}
 		}
 		c.printf(`<polyline points="%s" fill="none" stroke="%s" stroke-width="2"/>`+"\n", strings.TrimSpace(s.String()), DeflectedColour)
+	}
+	for _, end := range bendingReleasedEnds(sc.m) {
+		x, y, ox, oy := sc.movedEnd(f, end)
+		c.hingeMark(x, y, ox, oy)
+	}
+	for _, end := range torsionReleasedEnds(sc.m) {
+		x, y, ox, oy := sc.movedEnd(f, end)
+		c.torsionMark(x, y, ox, oy)
 	}
 	if best > 0 {
 		c.circle(bx, by, 3, DeflectedColour)

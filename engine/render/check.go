@@ -5,18 +5,22 @@ import (
 	"encoding/xml"
 	"fmt"
 	"io"
+	"math"
 	"strconv"
 	"strings"
 )
 
 // LabelReport counts the label defects of a picture, as a reader would
 // see them: texts whose estimated boxes overlap another text, an
-// arrowhead or a hinge mark (the open circle of a released member end),
-// and texts without a white halo lying on a drawn line. Hinges counts the
-// hinge marks read.
+// arrowhead or a release mark (the open circle of a member end released in
+// bending, the open diamond of one released in torsion only), and texts
+// without a white halo lying on a drawn line. Hinges and TorsionMarks
+// count the two kinds of release mark read; HingeOverlaps lists the texts
+// on either.
 type LabelReport struct {
 	Texts          int
 	Hinges         int
+	TorsionMarks   int
 	TextOverlaps   []string
 	ArrowOverlaps  []string
 	HingeOverlaps  []string
@@ -30,8 +34,9 @@ func (r LabelReport) Defects() int {
 
 // CheckLabels reads an SVG picture and reports its label defects. It
 // reads <text> elements (position, anchor, class; rotated texts are left
-// out), <line> elements (an arrowhead where marker-end is set) and the
-// <circle> elements of class "hinge" (their bounding boxes), with
+// out), <line> elements (an arrowhead where marker-end is set), the
+// <circle> elements of class "hinge" and the <polygon> elements of class
+// "torsion-release" (their bounding boxes), with
 // the same box estimates the placement uses; it is meant for tests of
 // every picture Gusset writes, including pictures drawn outside this
 // package.
@@ -53,12 +58,13 @@ type checkedText struct {
 
 // pictureMarks are the marks of a picture CheckLabels compares: its
 // unrotated texts, its lines (leaders left out), its arrowheads' boxes and
-// its hinge marks' boxes.
+// its release marks' boxes (hinges, then torsion marks).
 type pictureMarks struct {
-	texts  []checkedText
-	segs   []segment
-	heads  []rect
-	hinges []rect
+	texts    []checkedText
+	segs     []segment
+	heads    []rect
+	hinges   []rect
+	torsions []rect
 }
 
 // readMarks decodes the <text> and <line> elements of an SVG picture.
@@ -95,6 +101,10 @@ func readMarks(svg []byte) (pictureMarks, error) {
 				x, y, r := f("cx"), f("cy"), f("r")
 				pm.hinges = append(pm.hinges, rect{x - r, y - r, x + r, y + r})
 			}
+		case "polygon":
+			if attr("class") == "torsion-release" {
+				pm.torsions = append(pm.torsions, pointsBox(attr("points")))
+			}
 		case "line":
 			if attr("class") == "leader" {
 				continue // a leader ends at its label by design
@@ -127,7 +137,7 @@ func readMarks(svg []byte) (pictureMarks, error) {
 // that lies on a line without a halo.
 func (pm pictureMarks) report() LabelReport {
 	var rep LabelReport
-	rep.Texts, rep.Hinges = len(pm.texts), len(pm.hinges)
+	rep.Texts, rep.Hinges, rep.TorsionMarks = len(pm.texts), len(pm.hinges), len(pm.torsions)
 	for i, a := range pm.texts {
 		for _, b := range pm.texts[:i] {
 			if a.box.overlaps(shrink(b.box)) {
@@ -140,9 +150,13 @@ func (pm pictureMarks) report() LabelReport {
 				break
 			}
 		}
-		for _, h := range pm.hinges {
+		for i, h := range append(pm.hinges[:len(pm.hinges):len(pm.hinges)], pm.torsions...) {
 			if shrink(a.box).overlaps(h) {
-				rep.HingeOverlaps = append(rep.HingeOverlaps, fmt.Sprintf("%q on a hinge mark", a.s))
+				kind := "hinge"
+				if i >= len(pm.hinges) {
+					kind = "torsion"
+				}
+				rep.HingeOverlaps = append(rep.HingeOverlaps, fmt.Sprintf("%q on a %s mark", a.s, kind))
 				break
 			}
 		}
@@ -161,3 +175,19 @@ func (pm pictureMarks) report() LabelReport {
 // shrink takes the one-pixel margin off a label box, so that two labels
 // merely touching do not count as overlapping.
 func shrink(r rect) rect { return rect{r.x0 + 1, r.y0 + 1, r.x1 - 1, r.y1 - 1} }
+
+// pointsBox is the bounding box of an SVG points list ("x,y x,y ..."); an
+// empty or unreadable list gives the box of the pairs it could read.
+func pointsBox(points string) rect {
+	b := rect{math.Inf(1), math.Inf(1), math.Inf(-1), math.Inf(-1)}
+	for _, pair := range strings.Fields(points) {
+		xs, ys, ok := strings.Cut(pair, ",")
+		x, errX := strconv.ParseFloat(xs, 64)
+		y, errY := strconv.ParseFloat(ys, 64)
+		if !ok || errX != nil || errY != nil {
+			continue
+		}
+		b = rect{math.Min(b.x0, x), math.Min(b.y0, y), math.Max(b.x1, x), math.Max(b.y1, y)}
+	}
+	return b
+}

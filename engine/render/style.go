@@ -97,6 +97,7 @@ text { font-family: ` + FontFamily + `; fill: ` + InkColour + `; font-size: 12px
 .support { stroke: ` + InkColour + `; fill: #ffffff; stroke-width: 1.3; }
 .hatch { stroke: ` + InkColour + `; stroke-width: 0.9; fill: none; }
 .hinge { stroke: ` + InkColour + `; fill: #ffffff; stroke-width: 1.5; }
+.torsion-release { stroke: ` + InkColour + `; fill: #ffffff; stroke-width: 1.5; }
 .tension-band { stroke: ` + TensionBandColour + `; fill: none; stroke-linecap: butt; }
 .compression-band { stroke: ` + CompressionBandColour + `; fill: none; stroke-linecap: butt; }
 .zero-band { stroke: #e4e4e4; fill: none; stroke-linecap: butt; }
