@@ -39,7 +39,7 @@ func (c *conn) run(cl *call) (resp *protocol.Response) {
 	c.mu.Lock()
 	cl.start = time.Now()
 	c.mu.Unlock()
-	result, err := c.s.methods[cl.method](ctx, cl.params, &stream{c: c, cl: cl})
+	result, err := c.s.methods[cl.method](ctx, cl.takeParams(), &stream{c: c, cl: cl})
 	return c.outcome(ctx, cl, result, err)
 }
 

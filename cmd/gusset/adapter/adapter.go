@@ -123,44 +123,48 @@ func (a *Adapter) decode(method string, params json.RawMessage, v any) error {
 }
 
 // decodeModel decodes params into p (see decode) and compiles the model w
-// that p holds.
-func (a *Adapter) decodeModel(ctx context.Context, method string, params json.RawMessage, p any, w *protocol.Model) (*model.Model, error) {
+// that p holds; it returns the compiled model and the Spec it was
+// compiled from.
+func (a *Adapter) decodeModel(ctx context.Context, method string, params json.RawMessage, p any, w *protocol.Model) (*model.Model, *model.Spec, error) {
 	if err := a.decode(method, params, p); err != nil {
-		return nil, err
+		return nil, nil, err
 	}
-	m, err := a.compile(ctx, w, "/params/model")
+	m, spec, err := a.compile(ctx, w, "/params/model")
 	if err != nil && a.validator != nil {
 		// The sample left the model's elements to the compiler; when it
 		// finds fault, report what the schema says if the schema rejects
 		// the params too, so codes and pointers are the schema's.
 		if e := a.validator.ValidateFull(method, params); e != nil {
-			return nil, e
+			return nil, nil, e
 		}
 	}
-	return m, err
+	return m, spec, err
 }
 
-// compile checks the model against the size limits and compiles it.
-func (a *Adapter) compile(ctx context.Context, w *protocol.Model, pointer string) (*model.Model, error) {
+// compile checks the model against the size limits and compiles it; it
+// returns the compiled model and the Spec it was compiled from (nil
+// when the limits refuse the model).
+func (a *Adapter) compile(ctx context.Context, w *protocol.Model, pointer string) (*model.Model, *model.Spec, error) {
 	if n := len(w.Nodes); n > a.Limits.MaxNodes {
 		e := protocol.NewError(protocol.CodeLimitExceeded, "limit exceeded",
 			fmt.Sprintf("The model has %d nodes, more than the limit of %d. Start the server with a larger --max-nodes or split the model.", n, a.Limits.MaxNodes),
 			protocol.Problem{Path: pointer + "/nodes", Message: fmt.Sprintf("%d nodes; the limit is %d", n, a.Limits.MaxNodes)})
 		e.Data.Detail = map[string]int{"limit": a.Limits.MaxNodes, "value": n}
-		return nil, e
+		return nil, nil, e
 	}
 	if n := len(w.Members); n > a.Limits.MaxMembers {
 		e := protocol.NewError(protocol.CodeLimitExceeded, "limit exceeded",
 			fmt.Sprintf("The model has %d members, more than the limit of %d. Start the server with a larger --max-members or split the model.", n, a.Limits.MaxMembers),
 			protocol.Problem{Path: pointer + "/members", Message: fmt.Sprintf("%d members; the limit is %d", n, a.Limits.MaxMembers)})
 		e.Data.Detail = map[string]int{"limit": a.Limits.MaxMembers, "value": n}
-		return nil, e
+		return nil, nil, e
 	}
 	if err := ctx.Err(); err != nil {
-		return nil, err
+		return nil, nil, err
 	}
-	m, err := model.Compile(specOf(w))
-	return m, at(pointer, err)
+	spec := specOf(w)
+	m, err := model.Compile(spec)
+	return m, spec, at(pointer, err)
 }
 
 // checkCases reports every id in ids that names neither a load case nor a

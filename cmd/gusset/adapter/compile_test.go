@@ -34,7 +34,7 @@ func prepare(v *schema.Validator, params []byte) error {
 	if err := a.decode("solve", params, &p); err != nil {
 		return err
 	}
-	_, err := a.compile(context.Background(), &p.Model, "/params/model")
+	_, _, err := a.compile(context.Background(), &p.Model, "/params/model")
 	return err
 }
 

@@ -37,7 +37,7 @@ func (a *Adapter) findForm(ctx context.Context, r *request[protocol.FindFormPara
 	if err != nil {
 		return nil, at("/params/model", err)
 	}
-	ready := res.Ready(specOf(&p.Model))
+	ready := res.Ready(r.Spec)
 	out := formResult(res, ready)
 	out.LoadPath = protocol.FormLoadPath{LoadPath: lp.LoadPath, TensionLoadPath: lp.TensionLoadPath,
 		CompressionLoadPath: lp.CompressionLoadPath, Constant: lp.Constant, RelativeResidual: lp.RelativeResidual}

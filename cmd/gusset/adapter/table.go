@@ -70,7 +70,13 @@ type request[P any] struct {
 	// Params are the decoded params.
 	Params *P
 	// Model is the compiled model of Params.Model, nil when P has no model.
+	// Once it is compiled, Params.Model keeps only its dimension, units
+	// and parameters (see releaseWire).
 	Model *model.Model
+	// Spec is the Spec Model was compiled from, for the methods in
+	// keepsSpec only; nil otherwise, so that it is not held while the
+	// request runs.
+	Spec *model.Spec
 	// Stream sends the request's progress notifications.
 	Stream jsonrpc.Stream
 	// Warnings locate what the request leaves out of its model: load cases
@@ -108,25 +114,19 @@ func method[P, R any](name, summary string, h func(a *Adapter, ctx context.Conte
 				}
 			} else {
 				w := fields.Field(modelField).Addr().Interface().(*protocol.Model)
-				m, err := a.decodeModel(ctx, name, raw, r.Params, w)
-				if err != nil && casesField >= 0 {
-					// Problems only in cases the request does not use
-					// are warnings: compile again without those cases.
-					if warnings, ok := dropUnusedBadCases(w, fields.Field(casesField).Interface().([]string), err); ok {
-						if m, err = a.compile(ctx, w, "/params/model"); err == nil {
-							r.Warnings = warnings
-						}
-					}
+				var cases func() []string
+				if casesField >= 0 {
+					cases = func() []string { return fields.Field(casesField).Interface().([]string) }
 				}
+				m, spec, warnings, err := a.prepareModel(ctx, name, raw, r.Params, w, cases)
 				if err != nil {
 					return nil, err
 				}
-				r.Model = m
-				if casesField >= 0 {
-					if err := checkCases(m, fields.Field(casesField).Interface().([]string), "/params/cases"); err != nil {
-						return nil, err
-					}
+				r.Model, r.Warnings = m, warnings
+				if keepsSpec[name] {
+					r.Spec = spec
 				}
+				releaseWire(w)
 			}
 			out, err := h(a, ctx, r)
 			if err != nil {
@@ -136,6 +136,47 @@ func method[P, R any](name, summary string, h func(a *Adapter, ctx context.Conte
 		}
 	}
 	return entry{name: name, summary: summary, params: pt, result: reflect.TypeFor[R](), bind: bind}
+}
+
+// prepareModel decodes raw into params (see Adapter.decode), compiles the
+// model w that params hold and, when cases is not nil, checks that the ids
+// it returns name the model's cases or combinations (errors at
+// /params/cases). Problems only in cases the request does not use are
+// warnings: the model is then compiled again without those cases. It
+// returns the compiled model, the Spec it was compiled from and the
+// warnings.
+func (a *Adapter) prepareModel(ctx context.Context, name string, raw json.RawMessage, params any, w *protocol.Model, cases func() []string) (*model.Model, *model.Spec, []protocol.Problem, error) {
+	m, spec, err := a.decodeModel(ctx, name, raw, params, w)
+	var warnings []protocol.Problem
+	if err != nil && cases != nil {
+		if dropped, ok := dropUnusedBadCases(w, cases(), err); ok {
+			if m, spec, err = a.compile(ctx, w, "/params/model"); err == nil {
+				warnings = dropped
+			}
+		}
+	}
+	if err != nil {
+		return nil, nil, nil, err
+	}
+	if cases != nil {
+		if err := checkCases(m, cases(), "/params/cases"); err != nil {
+			return nil, nil, nil, err
+		}
+	}
+	return m, spec, warnings, nil
+}
+
+// keepsSpec names the methods whose handlers read request.Spec: find-form
+// builds the model of its answer from the Spec it was given.
+var keepsSpec = map[string]bool{protocol.MethodFindForm: true}
+
+// releaseWire drops the arrays of a compiled request's wire model, so
+// that the memory they hold (tens of megabytes for a large model) can
+// serve the engine while the request runs; handlers read the compiled
+// model, and the Spec when they keep it, never the wire model's arrays.
+// Dimension, units and parameters stay.
+func releaseWire(w *protocol.Model) {
+	*w = protocol.Model{Dimension: w.Dimension, Units: w.Units, Parameters: w.Parameters}
 }
 
 // field returns the index of t's top-level field called name of type ft,
