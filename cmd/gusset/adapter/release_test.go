@@ -3,7 +3,9 @@ package adapter
 import (
 	"context"
 	"encoding/json"
+	"runtime"
 	"testing"
+	"weak"
 
 	"gusset/protocol"
 	"gusset/schema"
@@ -43,4 +45,47 @@ func TestCompiledRequestReleasesWire(t *testing.T) {
 			t.Errorf("%s: Spec %+v is not the request's model", name, seen.Spec)
 		}
 	}
+}
+
+// TestCompiledModelHoldsNoInput checks that the compiled model does not
+// keep the wire model's or the Spec's arrays live (through shared slices
+// or the compiler's closures), so that releasing them frees their memory:
+// once the request drops them, they are collected while the model stays.
+func TestCompiledModelHoldsNoInput(t *testing.T) {
+	v, err := schema.NewValidator(paramsDefinitions())
+	if err != nil {
+		t.Fatal(err)
+	}
+	a := &Adapter{Limits: protocol.Limits{}.WithDefaults(), validator: v}
+	var p protocol.SolveParams
+	m, spec, _, err := a.prepareModel(context.Background(), protocol.MethodSolve, json.RawMessage(`{"model":`+triangle+`}`), &p, &p.Model, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	held := map[string]func() bool{
+		"wire members": weakly(&p.Model.Members[0]), "wire nodes": weakly(&p.Model.Nodes[0]),
+		"wire node coordinates": weakly(&p.Model.Nodes[0].At[0]),
+		"spec members":          weakly(&spec.Members[0]), "spec nodes": weakly(&spec.Nodes[0]),
+		"spec node coordinates": weakly(&spec.Nodes[0].At[0]),
+	}
+	spec = nil
+	releaseWire(&p.Model)
+	for range 5 {
+		runtime.GC()
+	}
+	for what, live := range held {
+		if live() {
+			t.Errorf("the compiled model keeps the %s live", what)
+		}
+	}
+	if len(m.Members) != 3 || m.Members[2].ID != "AB" || m.NodeIDs[2] != "C" {
+		t.Errorf("compiled model changed: %+v", m.Members)
+	}
+}
+
+// weakly returns a function that reports whether the object p points
+// into is still live.
+func weakly[T any](p *T) func() bool {
+	w := weak.Make(p)
+	return func() bool { return w.Value() != nil }
 }
