@@ -72,6 +72,11 @@ func realRoots(out *roots, c []float64, lo, hi float64) {
 		quadraticRoots(out, c[0], c[1], c[2], lo, hi)
 		return
 	}
+	// From degree 4 a proof that p has no root here saves the search
+	// below (a cubic's own search is as cheap as the proof).
+	if len(c) > 4 && clearOfRoots(c, lo, hi) {
+		return
+	}
 	var d [maxDegree + 1]float64
 	deriv := polyDerivative(&d, c)
 	var crit roots
@@ -91,6 +96,64 @@ func realRoots(out *roots, c []float64, lo, hi float64) {
 		}
 		a, fa = b, fb
 	}
+}
+
+// clearOfRoots reports whether the polynomial c (degree ≥ 1) provably
+// has no root in [lo, hi], so that realRoots may skip the search for the
+// roots of its derivatives. On the interval p is Σ bᵢ·Bᵢ(u), u = (s −
+// lo)/(hi − lo), in the Bernstein basis Bᵢ(u) = C(n,i)·uⁱ(1 − u)ⁿ⁻ⁱ, whose
+// members are non-negative and sum to 1, so p lies between the least and
+// the largest bᵢ; when every bᵢ has the same strict sign, p has no root
+// there (Farouki & Rajan, "On the numerical condition of polynomials in
+// Bernstein form", 1987, from memory; the convex hull property). The
+// answer is "clear" only with a margin of 1e-10 of the polynomial's scale
+// Σ |cₖ|·max(|lo|, |hi|)ᵏ, far above the round-off of the change of basis
+// (a few hundred ε for the degrees used here), so a root realRoots would
+// find is never skipped; a false "not clear" only costs the search.
+func clearOfRoots(c []float64, lo, hi float64) bool {
+	var a [maxDegree + 1]float64
+	n := copy(a[:], c)
+	// The Taylor shift to lo by repeated synthetic division (Horner's
+	// scheme), then the scaling to u: a[k] is the coefficient of uᵏ.
+	for i := 0; i < n-1; i++ {
+		for j := n - 2; j >= i; j-- {
+			a[j] += lo * a[j+1]
+		}
+	}
+	h, power := hi-lo, 1.0
+	for k := range n {
+		a[k] *= power
+		power *= h
+	}
+	x := math.Max(math.Abs(lo), math.Abs(hi))
+	scale := 0.0
+	power = 1
+	for k := range n {
+		scale += math.Abs(c[k]) * power
+		power *= x
+	}
+	margin := 1e-10 * scale
+	// bᵢ = Σₖ≤ᵢ C(i,k)/C(d,k)·aₖ for degree d = n − 1.
+	d := n - 1
+	sign := 0.0
+	for i := range n {
+		b, ratio := 0.0, 1.0 // ratio = C(i,k)/C(d,k), from k = 0
+		for k := 0; k <= i; k++ {
+			b += ratio * a[k]
+			if k < i {
+				ratio *= float64(i-k) / float64(d-k)
+			}
+		}
+		switch {
+		case b > margin && sign >= 0:
+			sign = 1
+		case b < -margin && sign <= 0:
+			sign = -1
+		default:
+			return false
+		}
+	}
+	return true
 }
 
 // quadraticRoots appends the roots of c0 + c1·s + c2·s² inside (lo, hi),
