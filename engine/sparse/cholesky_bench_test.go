@@ -3,6 +3,7 @@ package sparse
 import (
 	"context"
 	"fmt"
+	"math"
 	"testing"
 	"time"
 )
@@ -115,4 +116,78 @@ func BenchmarkChooseOrder(b *testing.B) {
 			})
 		}
 	}
+}
+
+// BenchmarkConditionEstimate times the 1-norm condition estimate of a
+// factorised 2D braced grid (gridTruss2D, 2 freedoms a node: Hager's
+// iteration creeps along the grid and runs to its bound, 11 solves) and
+// of the 2D Laplacian (the sign vector repeats on the second iterate)
+// beside the estimate as it was before it stopped on a repeated sign
+// vector (hagerBaseline), interleaved in one run; "ratio" is the mean
+// time of the estimate over the baseline's, and both estimates must be
+// equal.
+func BenchmarkConditionEstimate(b *testing.B) {
+	for _, tc := range []struct {
+		name string
+		a    *Matrix
+	}{{"truss2D", gridTruss2D(100, 100, 1)}, {"laplacian2D", laplacian2D(300)}} {
+		a := tc.a
+		c, err := Factorize(context.Background(), a, Options{})
+		if err != nil {
+			b.Fatal(err)
+		}
+		b.Run(fmt.Sprintf("%s/n=%d", tc.name, a.N), func(b *testing.B) {
+			var now, was time.Duration
+			for range b.N {
+				start := time.Now()
+				est := c.inverseNorm1()
+				mid := time.Now()
+				base := hagerBaseline(c)
+				was += time.Since(mid)
+				now += mid.Sub(start)
+				if est != base {
+					b.Fatalf("estimate %g, baseline %g", est, base)
+				}
+			}
+			b.ReportMetric(now.Seconds()*1e3/float64(b.N), "estimate-ms")
+			b.ReportMetric(was.Seconds()*1e3/float64(b.N), "baseline-ms")
+			b.ReportMetric(now.Seconds()/was.Seconds(), "ratio")
+		})
+	}
+}
+
+// hagerBaseline is inverseNorm1 as it was: Hager's iteration with a test
+// after every second solve, then the alternating-sign vector on its own.
+func hagerBaseline(c *Cholesky) float64 {
+	n := c.sym.n
+	x := make([]float64, n)
+	for i := range x {
+		x[i] = 1 / float64(n)
+	}
+	y, z := make([]float64, n), make([]float64, n)
+	est, last := 0.0, -1
+	for range 5 {
+		c.Solve(y, x)
+		est = max(est, norm1(y))
+		signs(z, y)
+		c.Solve(z, z)
+		j, zmax := 0, -1.0
+		ztx := 0.0
+		for i, v := range z {
+			if math.Abs(v) > zmax {
+				j, zmax = i, math.Abs(v)
+			}
+			ztx += v * x[i]
+		}
+		if zmax <= ztx || j == last {
+			break
+		}
+		clear(x)
+		x[j], last = 1, j
+	}
+	for i := range x {
+		x[i] = (1 - 2*float64(i%2)) * (1 + float64(i)/float64(max(n-1, 1)))
+	}
+	c.Solve(y, x)
+	return max(est, 2*norm1(y)/(3*float64(n)))
 }

@@ -495,8 +495,18 @@ func TestConditionEstimate(t *testing.T) {
 	if got, want := c.ConditionEstimate(), 4*25.0*26/2; !scalar.EqualWithinAbsOrRel(got, want, 1e-9, 1e-9) {
 		t.Errorf("1D Laplacian n=50: estimate %v, want %v", got, want)
 	}
-	for _, kind := range []string{"random", "banded", "arrow"} {
-		a := randomSPD(60, kind, 12)
+	for _, tc := range []struct {
+		kind string
+		a    *Matrix
+	}{
+		{"random", randomSPD(60, "random", 12)},
+		{"banded", randomSPD(60, "banded", 12)},
+		{"arrow", randomSPD(60, "arrow", 12)},
+		{"2D truss", gridTruss2D(12, 9, 3)},
+		{"double-layer grid", doubleLayerGrid(4, 5)},
+		{"cube truss", cubeTruss(3, 7)},
+	} {
+		kind, a := tc.kind, tc.a
 		c, err := Factorize(context.Background(), a, Options{})
 		if err != nil {
 			t.Fatal(err)
@@ -510,6 +520,11 @@ func TestConditionEstimate(t *testing.T) {
 		// a factor 3 of it (Higham 1988, from memory).
 		if got := c.ConditionEstimate(); got > exact*(1+1e-9) || got < exact/3 {
 			t.Errorf("%s: estimate %v, exact κ₁ %v", kind, got, exact)
+		}
+		// Stopping on a repeated sign vector changes the work, not the
+		// estimate.
+		if got, was := c.inverseNorm1(), hagerBaseline(c); got != was {
+			t.Errorf("%s: ‖A⁻¹‖₁ estimate %v, Hager's loop as it was %v", kind, got, was)
 		}
 	}
 }
