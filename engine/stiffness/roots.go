@@ -51,7 +51,9 @@ func (r *roots) list() []float64 { return r.x[:r.n] }
 
 // realRoots adds to out the real roots of Σ c[k]·s^k that lie strictly
 // inside (lo, hi) and at which the polynomial changes sign, in increasing
-// order. The roots of p′ split the interval into pieces on which p is
+// order. On (0, hi) the signs of the polynomial's Bernstein coefficients
+// settle most cases at once (bernstein.isolate); otherwise, and where
+// they cannot, the roots of p′ split the interval into pieces on which p is
 // monotone (found the same way, recursively); each piece whose ends differ
 // in sign holds exactly one root, found by safeguarded Newton steps. The
 // answer is exact to round-off for the degrees used here (at most
@@ -72,6 +74,20 @@ func realRoots(out *roots, c []float64, lo, hi float64) {
 		quadraticRoots(out, c[0], c[1], c[2], lo, hi)
 		return
 	}
+	if lo == 0 && hi > 0 {
+		var bz bernstein
+		if bz.set(c, hi) {
+			bz.isolate(out, c, 0, hi, 0)
+			return
+		}
+	}
+	derivativeRoots(out, c, lo, hi)
+}
+
+// derivativeRoots is realRoots by the roots of p′ for a polynomial of
+// degree 3 or more: they split (lo, hi) into pieces on which p is
+// monotone, each of which holds one root when its ends differ in sign.
+func derivativeRoots(out *roots, c []float64, lo, hi float64) {
 	// From degree 4 a proof that p has no root here saves the search
 	// below (a cubic's own search is as cheap as the proof).
 	if len(c) > 4 && clearOfRoots(c, lo, hi) {
@@ -202,4 +218,130 @@ func monotoneRoot(c, deriv []float64, a, b, fa float64) float64 {
 		x = next
 	}
 	return x
+}
+
+// bernsteinRatio[n][i][k] is C(i, k)/C(n, k): the weight of the power
+// coefficient k in the Bernstein coefficient i of a polynomial of degree n
+// on [0, 1] (Farouki & Rajan, "Algorithms for polynomials in Bernstein
+// form", Computer Aided Geometric Design 5, 1988, §2).
+var bernsteinRatio = func() (r [maxDegree + 1][maxDegree + 1][maxDegree + 1]float64) {
+	choose := func(n, k int) float64 {
+		v := 1.0
+		for j := 1; j <= k; j++ {
+			v = v * float64(n-k+j) / float64(j)
+		}
+		return v
+	}
+	for n := range maxDegree + 1 {
+		for i := range n + 1 {
+			for k := range i + 1 {
+				r[n][i][k] = choose(i, k) / choose(n, k)
+			}
+		}
+	}
+	return r
+}()
+
+// bernstein is a polynomial of degree n in Bernstein form on an interval:
+// its coefficients b and, for each, a bound on the size of the terms that
+// made it (size), from which the rounding error of b is judged.
+type bernstein struct {
+	n       int
+	b, size [maxDegree + 1]float64
+}
+
+// sure reports whether every coefficient has a sure sign: none lies within
+// a wide margin of its rounding error (below (n + depth)·ε·size).
+func (bz *bernstein) sure() bool {
+	for i := range bz.n + 1 {
+		if !(math.Abs(bz.b[i]) > 1e-12*bz.size[i]) {
+			return false
+		}
+	}
+	return true
+}
+
+// set makes bz the Bernstein form of Σ c[k]·s^k on [0, h] and reports
+// whether every coefficient has a sure sign.
+func (bz *bernstein) set(c []float64, h float64) bool {
+	bz.n = len(c) - 1
+	var q, size [maxDegree + 1]float64
+	w := 1.0
+	for k := range c {
+		q[k] = c[k] * w
+		size[k] = math.Abs(q[k])
+		w *= h
+	}
+	ratio := &bernsteinRatio[bz.n]
+	for i := range bz.n + 1 {
+		var b, bound float64
+		for k := range i + 1 {
+			b += ratio[i][k] * q[k]
+			bound += ratio[i][k] * size[k]
+		}
+		bz.b[i], bz.size[i] = b, bound
+	}
+	return bz.sure()
+}
+
+// variations returns the number of sign changes of the coefficients.
+func (bz *bernstein) variations() int {
+	v := 0
+	for i := 1; i <= bz.n; i++ {
+		if (bz.b[i] < 0) != (bz.b[i-1] < 0) {
+			v++
+		}
+	}
+	return v
+}
+
+// halves splits bz at the middle of its interval by de Casteljau's
+// algorithm (convex combinations, stable), the sizes alongside.
+func (bz *bernstein) halves(left, right *bernstein) {
+	left.n, right.n = bz.n, bz.n
+	b, size := bz.b, bz.size
+	for i := 0; i <= bz.n; i++ {
+		left.b[i], left.size[i] = b[0], size[0]
+		right.b[bz.n-i], right.size[bz.n-i] = b[bz.n-i], size[bz.n-i]
+		for j := 0; j < bz.n-i; j++ {
+			b[j] = 0.5 * (b[j] + b[j+1])
+			size[j] = 0.5 * (size[j] + size[j+1])
+		}
+	}
+}
+
+// maxSplits bounds the halvings of bernstein.isolate before it hands a
+// piece to derivativeRoots.
+const maxSplits = 6
+
+// isolate adds the sign-changing roots of c in (a, b), on which bz is c's
+// Bernstein form with sure signs, in increasing order. By Descartes' rule
+// of signs in Bernstein form the roots in the open interval, counted with
+// multiplicity, are at most the coefficients' sign changes and of the same
+// parity (Farouki & Rajan 1988, §4): none means no root, one exactly one,
+// simple, found by monotoneRoot's safeguarded Newton steps; more are
+// halved, and a piece still unsettled after maxSplits halvings, or whose
+// middle value has no sure sign, goes to derivativeRoots, which is exact
+// whatever the roots. The ends a and b are never roots (their
+// coefficients have sure signs).
+func (bz *bernstein) isolate(out *roots, c []float64, a, b float64, splits int) {
+	switch bz.variations() {
+	case 0:
+		return
+	case 1:
+		var d [maxDegree + 1]float64
+		out.add(monotoneRoot(c, polyDerivative(&d, c), a, b, bz.b[0]))
+		return
+	}
+	var left, right bernstein
+	if splits < maxSplits {
+		bz.halves(&left, &right)
+		if left.sure() && right.sure() {
+			mid := 0.5 * (a + b)
+			left.isolate(out, c, a, mid, splits+1)
+			right.isolate(out, c, mid, b, splits+1)
+			return
+		}
+	}
+	derivativeRoots(out, c, a, b)
 }
