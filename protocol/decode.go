@@ -35,6 +35,13 @@ func DecodeStrict(data []byte, v any) error {
 		return errUnhandled
 	}
 	d := &decoder{data: data}
+	return d.top(rv)
+}
+
+// top decodes data, one value with optional white space around it, into
+// the value the pointer rv points to, and zeroes that value when it
+// declines.
+func (d *decoder) top(rv reflect.Value) error {
 	d.space()
 	err := d.value(rv.Elem(), codecOf(rv.Elem().Type()), 0)
 	d.space()
@@ -64,6 +71,8 @@ type decoder struct {
 	numberSlab []Number
 	floatSlab  []float64
 	stringSlab []string
+	// sinks take the elements of some arrays (see DecodeStrictEach).
+	sinks []Sink
 }
 
 // maxDepth bounds the nesting DecodeStrict follows (encoding/json's own
@@ -429,6 +438,9 @@ func (d *decoder) strings(dst *[]string) (err error) {
 // array decodes an array into the slice v, which is nil (a zero value is
 // decoded into: see DecodeStrict); c is the slice type's codec.
 func (d *decoder) array(v reflect.Value, c *codec, depth int) error {
+	if s := d.sinkFor(c.elem.t); s != nil {
+		return d.drain(v, c, s, depth)
+	}
 	out := reflect.New(c.t).Elem() // addressable, so that it grows
 	out.Set(reflect.MakeSlice(c.t, 0, 0))
 	n, counted := 0, c.elem.how != asStruct

@@ -45,6 +45,8 @@ func agree(t *testing.T, name string, data []byte, fresh func() any) bool {
 		t.Errorf("%s: DecodeStrict accepted what encoding/json refuses (%v)", name, stdErr)
 	case err == nil && !reflect.DeepEqual(got, want):
 		t.Errorf("%s: DecodeStrict gives\n%+v\nencoding/json gives\n%+v", name, got, want)
+	case stdErr == nil:
+		agreeEach(t, name, data, fresh, want, err)
 	}
 	return err == nil
 }

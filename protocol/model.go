@@ -28,6 +28,11 @@ type Model struct {
 	// Patterns generate combinations for pattern loading (every on/off
 	// pattern of variable cases), which solve reports and envelopes.
 	Patterns []Pattern `json:"patterns,omitempty"`
+	// Decoded is not part of the wire format: when the server decoded
+	// the model's nodes and members straight into a form of its own (see
+	// DecodeStrictEach), leaving Nodes and Members empty, it holds them;
+	// nil otherwise.
+	Decoded any `json:"-"`
 }
 
 // Units names the unit of length and of force. Both default to m and kN.

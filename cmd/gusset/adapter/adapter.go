@@ -101,7 +101,16 @@ func at(prefix string, err error) error {
 // element. When either step fails, the full schema validation of the
 // original bytes supplies precise pointers.
 func (a *Adapter) decode(method string, params json.RawMessage, v any) error {
-	err := protocol.DecodeStrict(params, v)
+	_, err := a.decodeEach(method, params, v)
+	return err
+}
+
+// decodeEach is decode with sinks for protocol.DecodeStrictEach; it
+// reports whether the sinks took their arrays' elements (strict true),
+// which they did not when the input went to encoding/json.
+func (a *Adapter) decodeEach(method string, params json.RawMessage, v any, sinks ...protocol.Sink) (strict bool, err error) {
+	err = protocol.DecodeStrictEach(params, v, sinks...)
+	strict = err == nil
 	if err != nil {
 		dec := json.NewDecoder(bytes.NewReader(params))
 		dec.DisallowUnknownFields()
@@ -109,25 +118,31 @@ func (a *Adapter) decode(method string, params json.RawMessage, v any) error {
 	}
 	if err == nil {
 		if e := a.validator.ValidateSample(method, v); e == nil {
-			return nil
+			return strict, nil
 		} else if full := a.validator.ValidateFull(method, params); full != nil {
-			return full
+			return false, full
 		} else {
-			return e
+			return false, e
 		}
 	}
 	if e := a.validator.ValidateFull(method, params); e != nil {
-		return e
+		return false, e
 	}
-	return protocol.NewError(protocol.CodeInvalidParams, "invalid params", "The params could not be decoded: "+err.Error()+".")
+	return false, protocol.NewError(protocol.CodeInvalidParams, "invalid params", "The params could not be decoded: "+err.Error()+".")
 }
 
 // decodeModel decodes params into p (see decode) and compiles the model w
 // that p holds; it returns the compiled model and the Spec it was
-// compiled from.
+// compiled from. The model's nodes and members are decoded straight into
+// the compiler's input and kept in w.Decoded (see straight).
 func (a *Adapter) decodeModel(ctx context.Context, method string, params json.RawMessage, p any, w *protocol.Model) (*model.Model, *model.Spec, error) {
-	if err := a.decode(method, params, p); err != nil {
+	st := &straight{}
+	strict, err := a.decodeEach(method, params, p, st.sinks(w)...)
+	if err != nil {
 		return nil, nil, err
+	}
+	if strict {
+		w.Decoded = st
 	}
 	m, spec, err := a.compile(ctx, w, "/params/model")
 	if err != nil && a.validator != nil {
@@ -145,14 +160,18 @@ func (a *Adapter) decodeModel(ctx context.Context, method string, params json.Ra
 // returns the compiled model and the Spec it was compiled from (nil
 // when the limits refuse the model).
 func (a *Adapter) compile(ctx context.Context, w *protocol.Model, pointer string) (*model.Model, *model.Spec, error) {
-	if n := len(w.Nodes); n > a.Limits.MaxNodes {
+	nodes, members := len(w.Nodes), len(w.Members)
+	if st, ok := w.Decoded.(*straight); ok {
+		nodes, members = len(st.nodes), len(st.members)
+	}
+	if n := nodes; n > a.Limits.MaxNodes {
 		e := protocol.NewError(protocol.CodeLimitExceeded, "limit exceeded",
 			fmt.Sprintf("The model has %d nodes, more than the limit of %d. Start the server with a larger --max-nodes or split the model.", n, a.Limits.MaxNodes),
 			protocol.Problem{Path: pointer + "/nodes", Message: fmt.Sprintf("%d nodes; the limit is %d", n, a.Limits.MaxNodes)})
 		e.Data.Detail = map[string]int{"limit": a.Limits.MaxNodes, "value": n}
 		return nil, nil, e
 	}
-	if n := len(w.Members); n > a.Limits.MaxMembers {
+	if n := members; n > a.Limits.MaxMembers {
 		e := protocol.NewError(protocol.CodeLimitExceeded, "limit exceeded",
 			fmt.Sprintf("The model has %d members, more than the limit of %d. Start the server with a larger --max-members or split the model.", n, a.Limits.MaxMembers),
 			protocol.Problem{Path: pointer + "/members", Message: fmt.Sprintf("%d members; the limit is %d", n, a.Limits.MaxMembers)})

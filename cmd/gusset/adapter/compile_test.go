@@ -5,6 +5,7 @@ import (
 	"encoding/json"
 	"fmt"
 	"math/rand/v2"
+	"reflect"
 	"testing"
 
 	"gusset/engine/model/modelgen"
@@ -27,14 +28,13 @@ func solveRequestParams(members int) []byte {
 }
 
 // prepare is what every method does before engine work: validate and
-// decode the params, and compile the model.
+// decode the params, and compile the model (decodeModel, the server's
+// path, with nodes and members decoded straight into the compiler's
+// input).
 func prepare(v *schema.Validator, params []byte) error {
 	a := &Adapter{Limits: protocol.Limits{}.WithDefaults(), validator: v}
 	var p protocol.SolveParams
-	if err := a.decode("solve", params, &p); err != nil {
-		return err
-	}
-	_, _, err := a.compile(context.Background(), &p.Model, "/params/model")
+	_, _, err := a.decodeModel(context.Background(), "solve", params, &p, &p.Model)
 	return err
 }
 
@@ -209,8 +209,12 @@ func fastPathAgrees(t *testing.T, v *schema.Validator, k int) {
 			if v.ValidateFull("solve", b) == nil {
 				t.Fatal("the full schema accepts the mutation; the test is wrong")
 			}
+			full := v.ValidateFull("solve", b)
 			if err := prepare(v, b); err == nil {
 				t.Error("the fast path accepted what the schema rejects")
+			} else if !reflect.DeepEqual(Classify(err), full) {
+				// The schema's own code and pointers, not the compiler's.
+				t.Errorf("the fast path reports\n%+v\nthe schema\n%+v", Classify(err).Data, full.Data)
 			}
 		})
 	}

@@ -8,7 +8,9 @@ import (
 )
 
 // specOf converts the wire model to the engine's input form. It copies
-// field by field; all checking is the compiler's.
+// field by field; all checking is the compiler's. Nodes and members that
+// the decode took straight into the engine's form (w.Decoded) are used as
+// they are.
 func specOf(w *protocol.Model) *model.Spec {
 	s := &model.Spec{Dimension: w.Dimension}
 	if w.Units != nil {
@@ -36,15 +38,14 @@ func specOf(w *protocol.Model) *model.Spec {
 		s.Sections[i] = model.SectionSpec{ID: c.ID, Area: areaOf(c.Area), Shape: shapeOf(c.Shape), SectionModulus: optional(c.SectionModulus), SectionModulusY: optional(c.SectionModulusY), SecondMoment: optional(c.SecondMoment),
 			SecondMomentY: optional(c.SecondMomentY), TorsionConstant: optional(c.TorsionConstant)}
 	}
-	s.Nodes = nodeSpecs(w.Nodes)
-	s.Members = make([]model.MemberSpec, len(w.Members))
-	for i := range w.Members {
-		// Field by field into the array, in one pass: no copy of either
-		// struct (a large model's members are tens of megabytes).
-		m, ms := &w.Members[i], &s.Members[i]
-		ms.ID, ms.Ends, ms.Material, ms.Section, ms.Type = m.ID, memberEnds(m.Ends), m.Material, m.Section, m.Type
-		ms.BucklingCurve, ms.Orientation, ms.BucklingFactor = m.BucklingCurve, m.Orientation, m.BucklingFactor
-		ms.Behaviour, ms.Pretension, ms.Releases = m.Behaviour, m.Pretension, releasesSpec(m.Releases)
+	if st, ok := w.Decoded.(*straight); ok {
+		s.Nodes, s.Members = st.nodes, st.members
+	} else {
+		s.Nodes = nodeSpecs(w.Nodes)
+		s.Members = make([]model.MemberSpec, len(w.Members))
+		for i := range w.Members {
+			memberSpecOf(&s.Members[i], &w.Members[i])
+		}
 	}
 	s.Supports = make([]model.SupportSpec, len(w.Supports))
 	for i, p := range w.Supports {
@@ -71,6 +72,14 @@ func specOf(w *protocol.Model) *model.Spec {
 	}
 	s.Patterns = patternSpecs(w.Patterns)
 	return s
+}
+
+// memberSpecOf writes the wire member m into ms field by field: no copy
+// of either struct (a large model's members are tens of megabytes).
+func memberSpecOf(ms *model.MemberSpec, m *protocol.Member) {
+	ms.ID, ms.Ends, ms.Material, ms.Section, ms.Type = m.ID, memberEnds(m.Ends), m.Material, m.Section, m.Type
+	ms.BucklingCurve, ms.Orientation, ms.BucklingFactor = m.BucklingCurve, m.Orientation, m.BucklingFactor
+	ms.Behaviour, ms.Pretension, ms.Releases = m.Behaviour, m.Pretension, releasesSpec(m.Releases)
 }
 
 // nodeSpecs converts the nodes; their coordinates share one array (one

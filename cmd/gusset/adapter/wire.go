@@ -53,7 +53,8 @@ func WireModel(s *model.Spec) *protocol.Model {
 	}
 	for _, m := range s.Members {
 		w.Members = append(w.Members, protocol.Member{ID: m.ID, Ends: []string{m.Ends[0], m.Ends[1]}, Material: m.Material, Section: m.Section,
-			Type: m.Type, Orientation: m.Orientation, BucklingFactor: m.BucklingFactor, BucklingCurve: m.BucklingCurve})
+			Type: m.Type, Orientation: m.Orientation, BucklingFactor: m.BucklingFactor, BucklingCurve: m.BucklingCurve,
+			Behaviour: m.Behaviour, Pretension: m.Pretension})
 	}
 	for i, m := range s.Members {
 		w.Members[i].Releases = releasesWire(m.Releases)
