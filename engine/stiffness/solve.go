@@ -84,6 +84,7 @@ func solve(ctx context.Context, m *model.Model, opt Options, an *Analysis) (*Res
 		return nil, err
 	}
 	r.res.Stats.Solve = time.Since(start)
+	r.releaseSystem(condition)
 	if err := r.recoverAll(solutions); err != nil {
 		return nil, err
 	}
@@ -269,6 +270,29 @@ func (r *run) startCondition() chan estimate {
 		condition <- estimate{value: r.sys.fac.condition()}
 	}
 	return condition
+}
+
+// releaseSystem waits for the condition estimate and then, unless an
+// Analysis keeps them for its next solve, drops the factor and K, which
+// recovery does not read, so that the results of a large model are laid
+// out in their memory instead of beside it. The collector would find them
+// dead only when the heap had doubled since its last run, after the
+// results had taken fresh pages, so for a factor of 4M entries (32 MiB)
+// and more a collection is forced here: on the 2D grid of 270,600 bars
+// (a factor of 141 MiB, results about as large) the whole request's peak
+// fell from 698 to 513 MB, with fewer page faults. The estimate stays in
+// condition for finish.
+func (r *run) releaseSystem(condition chan estimate) {
+	est := <-condition
+	condition <- est
+	if r.an != nil {
+		return
+	}
+	big := r.res.Stats.NonzerosFactor >= 1<<22
+	r.sys.fac, r.sys.k = nil, nil
+	if big {
+		runtime.GC()
+	}
 }
 
 // recoverAll turns each request's displacements into its results, the
