@@ -145,3 +145,26 @@ func TestLoadedBarWithoutInertia(t *testing.T) {
 		t.Errorf("no note on the unknown deflection: %+v", res.Unchecked)
 	}
 }
+
+// TestLoadedBarTurnedSection: a 3D bar names no orientation, so its
+// bending check must hold whichever way its section is turned: loaded
+// across in one plane only (M = qL²/8, Roark Table 8.1 case 2e), its
+// utilisation is M·√(1/Wz² + 1/Wy²)/f, not less than M/(W_min·f), the
+// section turned with its weak axis against the moment.
+func TestLoadedBarTurnedSection(t *testing.T) {
+	const l, q, wz, wy, f = 6.0, -4.0, 1e-3, 2e-4, 2.35e5
+	b := newBuilder(3, 2.1e8, 8e7, 1e-2, 2e-4, 5e-5, 1e-5)
+	b.m.Sections[0].SectionModulus, b.m.Sections[0].SectionModulusY = wz, wy
+	b.m.Materials[0].TensionLimit, b.m.Materials[0].CompressionLimit = f, f
+	n0, n1 := b.node(0, 0, 0), b.node(l, 0, 0)
+	b.bar(n0, n1)
+	b.fix(n0, model.X, model.Y, model.Z)
+	b.fix(n1, model.Y, model.Z)
+	b.memberLoad(model.MemberLoad{Member: 0, Kind: model.Uniform, Local: true, Value: [3]float64{0, q, 0}})
+	mr := solve1(t, b.m, Options{}).Members[0]
+	m := math.Abs(q) * l * l / 8
+	near(t, "bending", mr.BendingUtilisation, m*math.Hypot(1/wz, 1/wy)/f, 1e-12)
+	if mr.BendingUtilisation < m/(wy*f) {
+		t.Errorf("bending %g below the weak axis's %g", mr.BendingUtilisation, m/(wy*f))
+	}
+}

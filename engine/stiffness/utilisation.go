@@ -188,11 +188,25 @@ func bendingUtilisation(m *model.Model, sec *model.Section, mat *model.Material,
 	if !ok {
 		return 0, false
 	}
+	if m.Dim == 3 && r.LoadedAcross {
+		return turnedSection(r, sec) / f, true
+	}
 	u := math.Abs(r.PeakMomentZ.Value) / (sec.SectionModulus * f)
 	if m.Dim == 3 {
 		u += math.Abs(r.PeakMomentY.Value) / (sec.SectionModulusY * f)
 	}
 	return u, true
+}
+
+// turnedSection returns the largest bending stress of a 3D bar's span
+// whichever way its section is turned about its axis (a bar names no
+// orientation, so its local y and z are not its section's): at any
+// section the moment |M| ≤ √(My,max² + Mz,max²), and with the principal
+// axes at any angle φ to it the stress |M|(|cos φ|/Wy + |sin φ|/Wz) is at
+// most |M|·√(1/Wy² + 1/Wz²) (Cauchy–Schwarz), which is therefore safe.
+func turnedSection(r *MemberResult, sec *model.Section) float64 {
+	moment := math.Hypot(r.PeakMomentY.Value, r.PeakMomentZ.Value)
+	return moment * math.Hypot(1/sec.SectionModulus, 1/sec.SectionModulusY)
 }
 
 // LoadedBars returns how many bars of case cr carry loads across their
