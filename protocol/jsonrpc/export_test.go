@@ -7,3 +7,11 @@ func SetStreamChunk(n int) (restore func()) {
 	streamChunk = n
 	return func() { streamChunk = old }
 }
+
+// Encode, EncodeStandard and CPUTime are encode, encodeStandard and
+// cpuTime, for the external benchmarks.
+var (
+	Encode         = encode
+	EncodeStandard = encodeStandard
+	CPUTime        = cpuTime
+)
