@@ -2,9 +2,11 @@ package jsonrpc_test
 
 import (
 	"bytes"
+	"cmp"
 	"context"
 	"encoding/json"
 	"fmt"
+	"os"
 	"testing"
 
 	"gusset/cmd/gusset/adapter"
@@ -31,63 +33,87 @@ func BenchmarkEncodeSolved(b *testing.B) {
 		{"grid2d-300", func() *model.Spec { return modelgen.GridTruss2D(300, 300) }},
 		{"frame3d-10k", func() *model.Spec { return modelgen.Frame3D(20, 20, 8) }},
 	} {
-		resp := solvedResponse(b, tc.spec())
-		want, err := jsonrpc.EncodeStandard(resp)
-		if err != nil {
-			b.Fatal(err)
-		}
-		size := float64(len(want))
-		run := func(name string, enc func() (int, error)) {
-			b.Run(tc.name+"/"+name, func(b *testing.B) {
-				b.SetBytes(int64(size))
-				b.ReportMetric(size/1e6, "MB-out")
-				cpu0 := jsonrpc.CPUTime()
-				for b.Loop() {
-					n, err := enc()
-					if err != nil || n != len(want) {
-						b.Fatalf("%d bytes (want %d), error %v", n, len(want), err)
-					}
+		b.Run(tc.name, func(b *testing.B) { encodeSolved(b, solvedResponse(b, tc.spec())) })
+	}
+}
+
+// encodeSolved runs BenchmarkEncodeSolved's sub-benchmarks on one
+// response, after checking that encode's bytes are encoding/json's.
+func encodeSolved(b *testing.B, resp *protocol.Response) {
+	want, err := jsonrpc.EncodeStandard(resp)
+	if err != nil {
+		b.Fatal(err)
+	}
+	size := float64(len(want))
+	run := func(name string, enc func() (int, error)) {
+		b.Run(name, func(b *testing.B) {
+			b.SetBytes(int64(size))
+			b.ReportMetric(size/1e6, "MB-out")
+			cpu0 := jsonrpc.CPUTime()
+			for b.Loop() {
+				n, err := enc()
+				if err != nil || n != len(want) {
+					b.Fatalf("%d bytes (want %d), error %v", n, len(want), err)
 				}
-				b.ReportMetric(size*float64(b.N)/1e6/(jsonrpc.CPUTime()-cpu0).Seconds(), "MB/cpu-s")
-			})
-		}
-		got, err := jsonrpc.Encode(resp)
-		if err != nil || !bytes.Equal(got, want) {
-			b.Fatalf("%s: encode differs from encoding/json (error %v)", tc.name, err)
-		}
-		got = nil
-		run("encoding-json", func() (int, error) { out, err := jsonrpc.EncodeStandard(resp); return len(out), err })
-		run("encode", func() (int, error) { out, err := jsonrpc.Encode(resp); return len(out), err })
-		s := &jsonrpc.Server{Name: "gusset", Version: "bench", Limits: protocol.Limits{Workers: 1}}
-		s.Handle(protocol.Method{Name: "replay"}, func(context.Context, json.RawMessage, jsonrpc.Stream) (any, error) {
-			return resp.Result, nil
-		})
-		line := []byte(`{"jsonrpc":"2.0","id":1,"method":"replay"}` + "\n")
-		run("serve", func() (int, error) {
-			var out countWriter
-			_, err := s.Serve(context.Background(), bytes.NewReader(line), &out)
-			return int(out.n) - 1, err // without the newline
+			}
+			b.ReportMetric(size*float64(b.N)/1e6/(jsonrpc.CPUTime()-cpu0).Seconds(), "MB/cpu-s")
 		})
 	}
+	if got, err := jsonrpc.Encode(resp); err != nil || !bytes.Equal(got, want) {
+		b.Fatalf("encode differs from encoding/json (error %v)", err)
+	}
+	run("encoding-json", func() (int, error) { out, err := jsonrpc.EncodeStandard(resp); return len(out), err })
+	run("encode", func() (int, error) { out, err := jsonrpc.Encode(resp); return len(out), err })
+	s := &jsonrpc.Server{Name: "gusset", Version: "bench", Limits: protocol.Limits{Workers: 1}}
+	s.Handle(protocol.Method{Name: "replay"}, func(context.Context, json.RawMessage, jsonrpc.Stream) (any, error) {
+		return resp.Result, nil
+	})
+	line := []byte(`{"jsonrpc":"2.0","id":1,"method":"replay"}` + "\n")
+	run("serve", func() (int, error) {
+		var out countWriter
+		_, err := s.Serve(context.Background(), bytes.NewReader(line), &out)
+		return int(out.n) - 1, err // without the newline
+	})
 }
 
 // solvedResponse solves spec through the real solve method and returns
 // its response, result and all, as the server was about to write it.
 func solvedResponse(b *testing.B, spec *model.Spec) *protocol.Response {
+	return solvedResponseOf(b, protocol.SolveParams{Model: *adapter.WireModel(spec)})
+}
+
+// TestWriteFrameRequest is a tool run by hand, not a test: with
+// GUSSET_FRAME_REQUEST=FILE (and GUSSET_FRAME_SIZE=NXxNYxSTOREYS, default
+// 20x20x78: 100,254 members) it writes a solve request of that 3D
+// building frame with the default 11 stations per member to FILE, for
+// measuring the real binary on a response of about 1 GB (issue 14: the
+// results of a 100k-member frame hold one copy of the station arrays),
+// for example (10x10x294 is a taller, narrower frame of as many members
+// whose factor has 87M entries)
+//
+//	GUSSET_FRAME_REQUEST=/tmp/f.jsonl go test -count=1 -run TestWriteFrameRequest ./protocol/jsonrpc
+//	/usr/bin/time -f '%e s %M KiB' env GODEBUG=gctrace=1 gusset serve < /tmp/f.jsonl | wc -c
+//
+// Without the variable it is skipped: the file is far too large for the
+// repository and the run too long for the shared machine's tests.
+func TestWriteFrameRequest(t *testing.T) {
+	path := os.Getenv("GUSSET_FRAME_REQUEST")
+	if path == "" {
+		t.Skip("GUSSET_FRAME_REQUEST not set")
+	}
+	var nx, ny, storeys int
+	size := cmp.Or(os.Getenv("GUSSET_FRAME_SIZE"), "20x20x78")
+	if _, err := fmt.Sscanf(size, "%dx%dx%d", &nx, &ny, &storeys); err != nil {
+		t.Fatalf("GUSSET_FRAME_SIZE %q: %v", size, err)
+	}
+	spec := modelgen.Frame3D(nx, ny, storeys)
 	params, err := json.Marshal(protocol.SolveParams{Model: *adapter.WireModel(spec)})
 	if err != nil {
-		b.Fatal(err)
+		t.Fatal(err)
 	}
-	s := &jsonrpc.Server{Name: "gusset", Version: "bench"}
-	if err := adapter.Register(s); err != nil {
-		b.Fatal(err)
-	}
-	var resp *protocol.Response
-	s.OnResponse = func(r *protocol.Response) { resp = r }
 	line := fmt.Appendf(nil, `{"jsonrpc":"2.0","id":1,"method":"solve","params":%s}`+"\n", params)
-	var out countWriter
-	if failures, err := s.Serve(context.Background(), bytes.NewReader(line), &out); failures != 0 || err != nil || resp == nil {
-		b.Fatalf("failures %d, error %v", failures, err)
+	if err := os.WriteFile(path, line, 0o644); err != nil {
+		t.Fatal(err)
 	}
-	return resp
+	t.Logf("%s: %d members, %d nodes, %.1f MB", path, len(spec.Members), len(spec.Nodes), float64(len(line))/1e6)
 }

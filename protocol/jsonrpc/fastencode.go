@@ -12,6 +12,7 @@ import (
 	"strconv"
 	"sync"
 	"unicode/utf8"
+	"unsafe"
 
 	"gusset/protocol"
 )
@@ -498,7 +499,7 @@ func encodeFloats(e *encodeState, b []byte, v reflect.Value) ([]byte, error) {
 	if v.IsNil() {
 		return append(b, "null"...), nil
 	}
-	x := v.Interface().([]float64)
+	x := floatsOf(v)
 	if e.dry {
 		return b, checkAllFinite(x)
 	}
@@ -516,7 +517,7 @@ func encodeFloatRows(e *encodeState, b []byte, v reflect.Value) ([]byte, error) 
 	if v.IsNil() {
 		return append(b, "null"...), nil
 	}
-	rows := v.Interface().([][]float64)
+	rows := unsafe.Slice((*[]float64)(v.UnsafePointer()), v.Len())
 	if e.dry {
 		for _, r := range rows {
 			if err := checkAllFinite(r); err != nil {
@@ -552,6 +553,13 @@ func encodeFloatRows(e *encodeState, b []byte, v reflect.Value) ([]byte, error) 
 		return b, err
 	}
 	return append(b, ']'), nil
+}
+
+// floatsOf returns the []float64 v holds, without the allocation that
+// v.Interface() makes for a slice reached through a pointer or a field
+// (one per array: a frame's members have eight each).
+func floatsOf(v reflect.Value) []float64 {
+	return unsafe.Slice((*float64)(v.UnsafePointer()), v.Len())
 }
 
 // appendFloats writes x separated by commas, with a comma before the first

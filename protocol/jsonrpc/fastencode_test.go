@@ -52,12 +52,36 @@ func randomCase(r *rand.Rand, n int) protocol.CaseResult {
 			u := randomFloat(r)
 			c.Utilisation[i] = &u
 		}
+		if i%5 == 0 {
+			c.Members[i] = randomMember(r, i)
+		}
 	}
 	d := 2.5
 	c.MaxDisplacement = protocol.Extreme{Value: randomFloat(r), At: "m1", Distance: &d}
 	c.Reactions = []protocol.Reaction{{Node: "A", Force: randomFloats(r, 3), Moment: nil},
 		{Node: "B\u2028", Force: []float64{}, Moment: randomFloats(r, 3), LocalForce: randomFloats(r, 3)}}
 	return c
+}
+
+// randomMember returns a beam's results along it with random numbers at
+// 11 stations, in 3D or (i odd) 2D, some checks not made.
+func randomMember(r *rand.Rand, i int) *protocol.MemberResult {
+	m := &protocol.MemberResult{ID: "m" + string(rune('a'+i%26)), Stations: randomFloats(r, 11), Axial: randomFloats(r, 11),
+		ShearY: randomFloats(r, 11), MomentZ: randomFloats(r, 11), Displacements: make([][]float64, 11),
+		PeakMomentZ: protocol.Along{Value: randomFloat(r), At: randomFloat(r)}, BucklingReduction: randomFloat(r),
+		StrainEnergy: protocol.StrainEnergy{Axial: randomFloat(r), Bending: randomFloat(r)}}
+	for k := range m.Displacements {
+		m.Displacements[k] = randomFloats(r, 3-i%2)
+	}
+	if i%2 == 0 {
+		m.ShearZ, m.Torsion, m.MomentY = randomFloats(r, 11), randomFloats(r, 11), randomFloats(r, 11)
+		m.PeakMomentY = &protocol.Along{Value: randomFloat(r), At: 1}
+	}
+	if i%3 != 0 {
+		u := randomFloat(r)
+		m.AxialUtilisation, m.CombinedUtilisation = &u, &u
+	}
+	return m
 }
 
 // TestAppendJSONAgreesWithEncodingJSON compares appendJSON's bytes with
@@ -96,8 +120,13 @@ func TestAppendJSONRefusesWhatEncodingJSONRefuses(t *testing.T) {
 	r := rand.New(rand.NewPCG(3, 4))
 	big := randomFloats(r, 3*parallelFloats)
 	big[2*parallelFloats+5] = math.Inf(-1)
+	long := make([]*float64, 4105)
+	nan := math.NaN()
+	long[len(long)-5] = &nan
+	members := randomCase(r, 4096).Members
+	members[len(members)-6].MomentZ[3] = math.Inf(1) // a beam's (every fifth is one)
 	for k, v := range []any{math.NaN(), []float64{1, math.Inf(1)}, big, [][]float64{{1}, {math.NaN()}},
-		protocol.Extreme{Value: math.NaN()}} {
+		protocol.Extreme{Value: math.NaN()}, long, members} {
 		if _, err := appendJSON(nil, v); !errors.Is(err, errFallback) {
 			t.Errorf("value %d: appendJSON error %v, want a refusal", k, err)
 		}
@@ -132,7 +161,8 @@ func encoderCorpus() []any {
 	}
 	strs := []string{string(all), "plain", "é ü 漢 \U0001F600", "\u2028\u2029", "a\xffb\xc0", `"quoted" \back\slash`, "&<>"}
 	values := []any{
-		protocol.SolveResult{Cases: []protocol.CaseResult{randomCase(r, 50), randomCase(r, 3*parallelFloats)},
+		protocol.SolveResult{Cases: []protocol.CaseResult{randomCase(r, 50), randomCase(r, 3*parallelFloats),
+			randomCase(r, 4227)},
 			Warnings: strs, Unchecked: []protocol.Problem{{Path: "/members/0", Message: strs[0]}}, Caution: "check"},
 		protocol.SolveResult{},
 		&protocol.Response{JSONRPC: "2.0", ID: json.RawMessage(` { "a" : [1, 2] } `), Result: map[string]any{
@@ -144,9 +174,30 @@ func encoderCorpus() []any {
 		randomFloats(r, 5*parallelFloats+3),
 		map[string][]float64{"p": randomFloats(r, 4), "q": nil, "": {}},
 		nil, []any{}, (*protocol.Error)(nil),
+		longSliceWithPieces(r),
 	}
 	for _, s := range strs {
 		values = append(values, s)
 	}
 	return values
+}
+
+// longSliceWithPieces returns a long slice of numbers, strings, nulls and
+// maps with arrays of numbers long enough to be written in pieces inside
+// it.
+func longSliceWithPieces(r *rand.Rand) []any {
+	v := make([]any, 6145)
+	for i := range v {
+		switch i % 7 {
+		case 0:
+			v[i] = randomFloat(r)
+		case 1:
+			v[i] = "s\n" + string(rune(i))
+		case 2:
+			v[i] = map[string]any{"k": randomFloats(r, 2), "j": nil}
+		}
+	}
+	v[259] = randomFloats(r, 2*parallelFloats+1)
+	v[len(v)-1] = randomFloats(r, parallelFloats)
+	return v
 }
