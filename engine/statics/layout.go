@@ -79,61 +79,100 @@ func FixedComponents(m *model.Model) [][6]bool {
 }
 
 // NodeComponents returns the components a node has in a model of dimension
-// dim: the translations, then the rotations when rotational is true.
+// dim: the translations, then the rotations when rotational is true. The
+// slice is shared: callers must not modify it.
 func NodeComponents(dim int, rotational bool) []int {
 	switch {
 	case dim == 2 && rotational:
-		return []int{model.X, model.Y, model.RZ}
+		return planeFrameComponents[:]
 	case dim == 2:
-		return []int{model.X, model.Y}
+		return planeComponents[:]
 	case rotational:
-		return []int{model.X, model.Y, model.Z, model.RX, model.RY, model.RZ}
+		return spaceFrameComponents[:]
 	}
-	return []int{model.X, model.Y, model.Z}
+	return spaceComponents[:]
 }
 
-// beamQuantities and planeBeamQuantities are the force quantities of a
-// 3D and a 2D beam, in column order.
+// The components of a node, by dimension and rotational freedom, shared by
+// every call of NodeComponents (one small allocation per node added up to
+// megabytes on a large model).
 var (
+	planeComponents      = [...]int{model.X, model.Y}
+	planeFrameComponents = [...]int{model.X, model.Y, model.RZ}
+	spaceComponents      = [...]int{model.X, model.Y, model.Z}
+	spaceFrameComponents = [...]int{model.X, model.Y, model.Z, model.RX, model.RY, model.RZ}
+)
+
+// barQuantities, beamQuantities and planeBeamQuantities are the force
+// quantities of a bar, a 3D beam and a 2D beam, in column order.
+var (
+	barQuantities       = [...]Quantity{Axial}
 	beamQuantities      = [...]Quantity{Axial, Torsion, MomentZ1, MomentZ2, MomentY1, MomentY2}
 	planeBeamQuantities = [...]Quantity{Axial, MomentZ1, MomentZ2}
 )
 
-// NewLayout returns the layout of m's equilibrium matrix.
+// NewLayout returns the layout of m's equilibrium matrix. Its rows and
+// columns are counted first and allocated once: grown by append they cost
+// about five times their size on a large model.
 func NewLayout(m *model.Model) *Layout {
 	rot := RotationalNodes(m)
 	fixed := FixedComponents(m)
 	free, _ := FreeRotations(m) // a skew free rotation is reported by Analyse
 	l := &Layout{}
+	hasRow := func(n, c int) bool {
+		return !fixed[n][c] && (free == nil || c < model.RX || free[n]&model.ReleaseBit(c) == 0)
+	}
+	rows := 0
 	for n := range m.NodeCount() {
 		for _, c := range NodeComponents(m.Dim, rot[n]) {
-			if fixed[n][c] {
+			if hasRow(n, c) {
+				rows++
+			} else if fixed[n][c] {
 				l.Constraints++
-				continue
 			}
-			if free != nil && c >= model.RX && free[n]&model.ReleaseBit(c) != 0 {
-				continue // no member resists it: no freedom (release.go)
-			}
-			l.Rows = append(l.Rows, Freedom{Node: n, Component: c})
 		}
 	}
-	for e, mem := range m.Members {
-		if mem.Kind == model.Bar {
-			l.Columns = append(l.Columns, Column{e, Axial})
-			continue
-		}
-		l.HasBeams = true
-		qs := beamQuantities[:]
-		if m.Dim == 2 {
-			qs = planeBeamQuantities[:]
-		}
-		for _, q := range qs {
-			if !Released(&m.Members[e], q) {
-				l.Columns = append(l.Columns, Column{e, q})
+	l.Rows = make([]Freedom, 0, rows)
+	for n := range m.NodeCount() {
+		for _, c := range NodeComponents(m.Dim, rot[n]) {
+			if hasRow(n, c) {
+				l.Rows = append(l.Rows, Freedom{Node: n, Component: c})
 			}
 		}
+	}
+	qs := beamQuantities[:]
+	if m.Dim == 2 {
+		qs = planeBeamQuantities[:]
+	}
+	columns := 0
+	for e := range m.Members {
+		columns += memberColumns(&m.Members[e], qs, nil)
+	}
+	l.Columns = make([]Column, 0, columns)
+	for e, mem := range m.Members {
+		l.HasBeams = l.HasBeams || mem.Kind != model.Bar
+		memberColumns(&m.Members[e], qs, func(q Quantity) { l.Columns = append(l.Columns, Column{e, q}) })
 	}
 	return l
+}
+
+// memberColumns returns how many force quantities member mem carries (a
+// bar its axial force, a beam those of qs that no release makes zero) and
+// passes each to add when add is not nil.
+func memberColumns(mem *model.Member, qs []Quantity, add func(Quantity)) int {
+	if mem.Kind == model.Bar {
+		qs = barQuantities[:]
+	}
+	count := 0
+	for _, q := range qs {
+		if mem.Kind == model.Bar || !Released(mem, q) {
+			count++
+			if add != nil {
+				add(q)
+			}
+		}
+	}
+	return count
 }
 
 // MemberAxes returns the local axes of member e as the rows of a 3×3

@@ -51,27 +51,39 @@ func hasComponent(dim, c int, rotational bool) bool {
 	return c >= model.RX && (dim == 3 || c == model.RZ)
 }
 
+// newNumbering numbers m's freedoms node by node and its equations in
+// freedom order. Its per-freedom arrays are counted first and allocated
+// once (grown by append they cost several times their size).
 func newNumbering(m *model.Model) *numbering {
 	nb := &numbering{dim: m.Dim, rotational: statics.RotationalNodes(m)}
 	nb.first = make([]int, m.NodeCount())
 	for n := range m.NodeCount() {
 		nb.first[n] = nb.total
+		nb.total += len(statics.NodeComponents(m.Dim, nb.rotational[n]))
+	}
+	nb.node = make([]int, 0, nb.total)
+	nb.component = make([]int, 0, nb.total)
+	for n := range m.NodeCount() {
 		for _, c := range statics.NodeComponents(m.Dim, nb.rotational[n]) {
 			nb.node = append(nb.node, n)
 			nb.component = append(nb.component, c)
-			nb.total++
 		}
 	}
 	fixed := nb.setSupports(m)
 	nb.equation = make([]int, nb.total)
 	for f := range nb.total {
+		if !fixed[f] {
+			nb.equations++
+		}
+	}
+	nb.freedomOf = make([]int, 0, nb.equations)
+	for f := range nb.total {
 		if fixed[f] {
 			nb.equation[f] = -1
 			continue
 		}
-		nb.equation[f] = nb.equations
+		nb.equation[f] = len(nb.freedomOf)
 		nb.freedomOf = append(nb.freedomOf, f)
-		nb.equations++
 	}
 	return nb
 }

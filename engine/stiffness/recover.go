@@ -88,29 +88,43 @@ func recoverMembers(m *model.Model, nb *numbering, ls *loadSet, u []float64, cr 
 				}
 			}
 		}
-	} else {
-		// Members in chunks over the workers, their nodal forces kept per
-		// member and gathered afterwards in member order.
-		const chunk = 2048
-		fg := make([]float64, 12*len(m.Members))
-		fe := make([]float64, 12*len(m.Members))
-		loaded := make([]bool, len(m.Members))
-		chunks := (len(m.Members) + chunk - 1) / chunk
-		_ = parallel(workers, chunks, func(c int) error {
-			var el element
-			var sc memberScratch
-			for e := c * chunk; e < min((c+1)*chunk, len(m.Members)); e++ {
-				loaded[e] = recoverMember(m, nb, ls, u, cr, e, &el, &sc, fg[12*e:12*e+12], fe[12*e:12*e+12])
+		return nodeForce, equivalent
+	}
+	// Members in chunks over the workers, their nodal forces kept per
+	// member and gathered afterwards in member order. They are packed
+	// like the end forces (as many as the member has freedoms, not 12),
+	// and those of member loads are kept only when the case has some.
+	const chunk = 2048
+	off := make([]int, len(m.Members)+1)
+	for e := range m.Members {
+		off[e+1] = off[e] + len(cr.EndForces[e])
+	}
+	fg := make([]float64, off[len(m.Members)])
+	var fe []float64
+	if ls.hasMember {
+		fe = make([]float64, off[len(m.Members)])
+	}
+	loaded := make([]bool, len(m.Members))
+	chunks := (len(m.Members) + chunk - 1) / chunk
+	_ = parallel(workers, chunks, func(c int) error {
+		var el element
+		var sc memberScratch
+		var unused [12]float64
+		for e := c * chunk; e < min((c+1)*chunk, len(m.Members)); e++ {
+			fee := unused[:]
+			if fe != nil {
+				fee = fe[off[e]:off[e+1]]
 			}
-			return nil
-		}, nil)
-		var dofs [12]int
-		for e, mem := range m.Members {
-			for i, f := range memberFreedoms(m, nb, mem, &dofs) {
-				nodeForce[f] += fg[12*e+i]
-				if loaded[e] {
-					equivalent[f] += fe[12*e+i]
-				}
+			loaded[e] = recoverMember(m, nb, ls, u, cr, e, &el, &sc, fg[off[e]:off[e+1]], fee)
+		}
+		return nil
+	}, nil)
+	var dofs [12]int
+	for e, mem := range m.Members {
+		for i, f := range memberFreedoms(m, nb, mem, &dofs) {
+			nodeForce[f] += fg[off[e]+i]
+			if loaded[e] {
+				equivalent[f] += fe[off[e]+i]
 			}
 		}
 	}
