@@ -186,7 +186,8 @@ func (env *Envelope) Add(k int, c *stiffness.CaseResult) {
 
 // addMember folds member e of case k into mem.
 func (env *Envelope) addMember(mem *Member, c *stiffness.CaseResult, e, k int) {
-	r := &c.Members[e]
+	var scratch stiffness.MemberResult
+	r := c.Member(e, &scratch)
 	axial := r.Ranges[stiffness.RangeAxial]
 	mem.Axial.see(axial.Max.Value, k, axial.Max.At)
 	mem.Axial.see(axial.Min.Value, k, axial.Min.At)

@@ -184,7 +184,7 @@ func checkAgainst(t *testing.T, m *model.Model, env *Envelope, cases []*stiffnes
 				func(c *stiffness.CaseResult) (float64, float64, float64, float64) { return scalarOf(c.EndForces[e][i]) })
 		}
 		check(fmt.Sprintf("member %d axial", e), mem.Axial, func(c *stiffness.CaseResult) (float64, float64, float64, float64) {
-			r := c.Members[e]
+			r := *c.Member(e, nil)
 			return r.MinAxial.Value, r.MaxAxial.Value, r.MinAxial.At, r.MaxAxial.At
 		})
 		for q := range mem.Along {
@@ -212,7 +212,7 @@ func checkAgainst(t *testing.T, m *model.Model, env *Envelope, cases []*stiffnes
 // from the stations, widened to the exact peak values.
 func stationRange(t *testing.T, m *model.Model, c *stiffness.CaseResult, e, q int) (lo, hi, loAt, hiAt float64) {
 	t.Helper()
-	r := c.Members[e]
+	r := *c.Member(e, nil)
 	columns := [stiffness.RangeCount][]float64{r.Axial, r.ShearY, r.ShearZ, r.Torsion, r.MomentY, r.MomentZ}
 	col := columns[q]
 	rg := r.Ranges[q]

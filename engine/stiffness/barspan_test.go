@@ -34,7 +34,7 @@ func TestLoadedBarSimpleSpan(t *testing.T) {
 	const l, w, e, iz = 10.0, 10.0, 2.1e8, 1e-4
 	b := loadedBar(l, iz, model.MemberLoad{Member: 0, Kind: model.Uniform, Value: [3]float64{0, -w}})
 	r := solve1(t, b.m, Options{})
-	mr := r.Members[0]
+	mr := *r.Member(0, nil)
 	near(t, "uniform: M", mr.PeakMomentZ.Value, w*l*l/8, 1e-12)
 	near(t, "uniform: M at", mr.PeakMomentZ.At, l/2, 1e-9)
 	near(t, "uniform: v", mr.PeakDeflectionY.Value, -5*w*l*l*l*l/(384*e*iz), 1e-12)
@@ -51,7 +51,7 @@ func TestLoadedBarSimpleSpan(t *testing.T) {
 	const p, a = 20.0, 7.0
 	bb := l - a
 	b = loadedBar(l, iz, model.MemberLoad{Member: 0, Kind: model.Point, Distance: a, Value: [3]float64{0, -p}})
-	mr = solve1(t, b.m, Options{}).Members[0]
+	mr = *solve1(t, b.m, Options{}).Member(0, nil)
 	near(t, "point: M", mr.PeakMomentZ.Value, p*a*bb/l, 1e-12)
 	near(t, "point: M at", mr.PeakMomentZ.At, a, 1e-12)
 	want := -p * bb * math.Pow(l*l-bb*bb, 1.5) / (9 * math.Sqrt(3) * e * iz * l)
@@ -69,8 +69,8 @@ func TestLoadedBarAsBeam(t *testing.T) {
 		beam := checkedSpan(thrust, "b")
 		bar := checkedSpan(thrust, "b")
 		bar.m.Members[0].Kind = model.Bar
-		want := solve1(t, beam.m, Options{}).Members[0]
-		got := solve1(t, bar.m, Options{}).Members[0]
+		want := *solve1(t, beam.m, Options{}).Member(0, nil)
+		got := *solve1(t, bar.m, Options{}).Member(0, nil)
 		for _, c := range []struct {
 			what      string
 			got, want float64
@@ -104,7 +104,7 @@ func TestLoadedBarInclinedAndSpatial(t *testing.T) {
 	b.fix(n0, pinned2...)
 	b.fix(n1, pinned2...)
 	b.m.Cases[0].SelfWeight = true
-	mr := solve1(t, b.m, Options{}).Members[0]
+	mr := *solve1(t, b.m, Options{}).Member(0, nil)
 	near(t, "inclined: |M|", math.Abs(mr.PeakMomentZ.Value), density*area*0.6*25/8, 1e-12)
 	near(t, "inclined: at", mr.PeakMomentZ.At, 2.5, 1e-9)
 
@@ -115,7 +115,7 @@ func TestLoadedBarInclinedAndSpatial(t *testing.T) {
 	b.fix(n0, model.X, model.Y, model.Z)
 	b.fix(n1, model.Y, model.Z)
 	b.memberLoad(model.MemberLoad{Member: 0, Kind: model.Uniform, Local: true, Value: [3]float64{0, qy, qz}})
-	mr = solve1(t, b.m, Options{}).Members[0]
+	mr = *solve1(t, b.m, Options{}).Member(0, nil)
 	near(t, "3D: |Mz|", math.Abs(mr.PeakMomentZ.Value), math.Abs(qy)*l*l/8, 1e-12)
 	near(t, "3D: |My|", math.Abs(mr.PeakMomentY.Value), math.Abs(qz)*l*l/8, 1e-12)
 	near(t, "3D: v", mr.PeakDeflectionY.Value, 5*qy*l*l*l*l/(384*e*iz), 1e-12)
@@ -134,7 +134,7 @@ func TestLoadedBarWithoutInertia(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	mr := res.Cases[0].Members[0]
+	mr := *res.Cases[0].Member(0, nil)
 	near(t, "M", mr.PeakMomentZ.Value, w*l*l/8, 1e-12)
 	near(t, "governing", res.Cases[0].Utilisation[0], w*l*l/8/(1e-3*2.35e5), 1e-12)
 	found := false
@@ -161,7 +161,7 @@ func TestLoadedBarTurnedSection(t *testing.T) {
 	b.fix(n0, model.X, model.Y, model.Z)
 	b.fix(n1, model.Y, model.Z)
 	b.memberLoad(model.MemberLoad{Member: 0, Kind: model.Uniform, Local: true, Value: [3]float64{0, q, 0}})
-	mr := solve1(t, b.m, Options{}).Members[0]
+	mr := *solve1(t, b.m, Options{}).Member(0, nil)
 	m := math.Abs(q) * l * l / 8
 	near(t, "bending", mr.BendingUtilisation, m*math.Hypot(1/wz, 1/wy)/f, 1e-12)
 	if mr.BendingUtilisation < m/(wy*f) {

@@ -13,8 +13,9 @@ import (
 func (cr *CaseResult) BendingShare() (share float64, member int) {
 	var axial, other, most float64
 	member = -1
-	for e := range cr.Members {
-		r := &cr.Members[e]
+	var scratch MemberResult
+	for e := range cr.MemberCount() {
+		r := cr.Member(e, &scratch)
 		axial += r.AxialEnergy
 		u := r.BendingEnergy + r.TorsionEnergy
 		other += u
@@ -45,21 +46,22 @@ func LoadPathCaveat(m *model.Model, cr *CaseResult) string {
 			caseWord(cr), cr.ID, bars)
 	}
 	worst, unchecked := -1, 0
-	for e := range cr.Members {
-		r := &cr.Members[e]
+	var scratch MemberResult
+	for e := range cr.MemberCount() {
+		r := cr.Member(e, &scratch)
 		if !(r.BendingEnergy > 0 && m.Members[e].Kind == model.Beam || r.LoadedAcross) {
 			continue
 		}
 		if r.BendingUtilisation < 0 {
 			unchecked++
-		} else if worst < 0 || r.BendingUtilisation > cr.Members[worst].BendingUtilisation {
+		} else if worst < 0 || r.BendingUtilisation > cr.Member(worst, nil).BendingUtilisation {
 			worst = e
 		}
 	}
 	s := fmt.Sprintf("%s %q: the load path counts axial forces only, but bending and torsion hold %.3g %% of the strain energy (most in member %q)",
 		caseWord(cr), cr.ID, 100*share, m.Members[member].ID)
 	if worst >= 0 {
-		s += fmt.Sprintf("; the largest bending utilisation is %.3g (member %q)", cr.Members[worst].BendingUtilisation, m.Members[worst].ID)
+		s += fmt.Sprintf("; the largest bending utilisation is %.3g (member %q)", cr.Member(worst, nil).BendingUtilisation, m.Members[worst].ID)
 	}
 	if unchecked > 0 {
 		s += fmt.Sprintf("; the bending of %d members is not checked (no section modulus or limit; see solve's unchecked list)", unchecked)

@@ -31,9 +31,11 @@ func (r *run) keep(i int, cr *CaseResult) {
 	if f.flags == nil {
 		f.flags = make([]uint16, len(r.m.Members))
 	}
-	for e := range cr.Members {
-		f.flags[e] |= cr.Members[e].Unchecked
-		f.bending = f.bending || cr.Members[e].BendingUtilisation >= 0
+	var scratch MemberResult
+	for e := range cr.MemberCount() {
+		r := cr.Member(e, &scratch)
+		f.flags[e] |= r.Unchecked
+		f.bending = f.bending || r.BendingUtilisation >= 0
 	}
 	f.dropped = true
 	r.res.Cases[i] = summaryOf(cr)

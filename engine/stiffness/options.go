@@ -57,7 +57,7 @@ type Options struct {
 	SkipCondition bool
 	// Stations is the number of evenly spaced stations (both ends
 	// included) at which each beam's internal forces and displacements are
-	// reported in CaseResult.Members; 0 means DefaultStations and a
+	// reported by CaseResult.Member; 0 means DefaultStations and a
 	// negative value none. The exact extremes along each member are found
 	// whatever the stations.
 	Stations int
@@ -96,7 +96,7 @@ const (
 	// rotations, reactions, external forces, sums, balance and residual)
 	// and each member's end forces, axial force and stress, which are what
 	// Maxwell's load path and the material volume need, and nothing along
-	// the members: CaseResult.Members and Utilisation are nil (no member
+	// the members: CaseResult.MemberCount is 0 and Utilisation nil (no member
 	// is checked, and Result.Unchecked does not list them), MaxMoment is
 	// unset (Member and Node −1) and MaxDisplacement is that of the nodes
 	// when every member is a bar (exact then: a bar's displacement is

@@ -26,7 +26,7 @@ func TestRangesOfSimplySupportedBeam(t *testing.T) {
 	b.fix(n1, model.Y)
 	b.memberLoad(model.MemberLoad{Member: 0, Kind: model.Uniform, Value: [3]float64{0, -w}})
 	b.memberLoad(model.MemberLoad{Member: 0, Kind: model.Point, Value: [3]float64{0, -p}, Distance: a})
-	r := solve1(t, b.m, Options{}).Members[0].Ranges
+	r := solve1(t, b.m, Options{}).Member(0, nil).Ranges
 	r1, r2 := w*length/2+p*(length-a)/length, w*length/2+p*a/length
 	// The table shear R₁ − wx is 26.75 − 3x before a: positive there, and
 	// 26.75 − 9 − 20 < 0 just past a, so the moment peaks at a.

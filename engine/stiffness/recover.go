@@ -14,7 +14,7 @@ import (
 // how much to work out along each member (Options.Recovery).
 func recoverCase(m *model.Model, nb *numbering, sys *system, ls *loadSet, u []float64, workers int, along recovery) (*CaseResult, error) {
 	nb.fromAxes(u) // u arrives with inclined nodes in their supports' axes
-	cr := newCaseResult(m, nb, u, along)
+	cr := newCaseResult(m, nb, ls, u, along)
 	nodeForce, equivalent := recoverMembers(m, nb, ls, u, cr, workers)
 	reactions(m, nb, ls, u, cr, nodeForce)
 	externalForces(m, nb, ls, cr, equivalent)
@@ -26,12 +26,12 @@ func recoverCase(m *model.Model, nb *numbering, sys *system, ls *loadSet, u []fl
 	return cr, nil
 }
 
-// newCaseResult allocates a case's result with its displacements copied
-// from u. The rows of the per-node and per-member arrays share one backing
-// array each: one allocation instead of one per node or member. The
-// members' results along their length and checks are left out (nil) when
-// along.forcesOnly.
-func newCaseResult(m *model.Model, nb *numbering, u []float64, along recovery) *CaseResult {
+// newCaseResult allocates a case's result, whose loads are ls, with its
+// displacements copied from u. The rows of the per-node and per-member
+// arrays share one backing array each: one allocation instead of one per
+// node or member. The members' results along their length and checks are
+// left out (nil) when along.forcesOnly.
+func newCaseResult(m *model.Model, nb *numbering, ls *loadSet, u []float64, along recovery) *CaseResult {
 	_, rotational := m.DOFsPerNode()
 	cr := &CaseResult{
 		Displacements: make([][]float64, m.NodeCount()),
@@ -45,7 +45,7 @@ func newCaseResult(m *model.Model, nb *numbering, u []float64, along recovery) *
 	}
 	if !along.forcesOnly {
 		cr.Utilisation = make([]float64, len(m.Members))
-		cr.Members = make([]MemberResult, len(m.Members))
+		cr.members = newCaseMembers(m, ls)
 	}
 	nodal := make([]float64, 0, nb.total)
 	for n := range cr.Displacements {
@@ -240,7 +240,7 @@ const recoverParallel = 8192
 
 // recoverMember computes member e's end forces (into cr.EndForces[e],
 // which has its length), axial force and stress into cr and, unless
-// cr.Members is nil (RecoverForces), its results along its length and its
+// cr has no results along the members (RecoverForces), its results along its length and its
 // utilisation; the forces it exerts on its freedoms (global axes)
 // into fg and, when it carries member loads (the result), their equivalent
 // nodal loads into fe; el is scratch space.
@@ -263,20 +263,29 @@ func recoverMember(m *model.Model, nb *numbering, ls *loadSet, u []float64, cr *
 	el.toGlobal(fg, p[:])
 	sec := &m.Sections[m.Members[e].Section]
 	cr.Stress[e] = cr.AxialForce[e] / sec.Area
-	if cr.Members == nil {
+	if cr.MemberCount() == 0 {
 		return loaded // RecoverForces: nothing along the member
+	}
+	r := cr.kept(e)
+	if r == nil {
+		// A bar no load touches: its results are worked out again when
+		// asked for (caseMembers).
+		var scratch MemberResult
+		mem := &m.Members[e]
+		cr.Utilisation[e] = plainBar(m, e, el, p[:n], cr.Displacements[mem.Ends[0]], cr.Displacements[mem.Ends[1]], &scratch)
+		return loaded
 	}
 	sc.loading.gather(ls, m, el, e, loaded)
 	if el.beam {
 		el.restoreReleased(ul[:n]) // end releases (release.go)
-		alongBeam(&cr.Members[e], el, sec, &m.Materials[m.Members[e].Material], p[:n], ul[:n], &sc.loading, &sc.field)
+		alongBeam(r, el, sec, &m.Materials[m.Members[e].Material], p[:n], ul[:n], &sc.loading, &sc.field)
 	} else {
-		alongBar(&cr.Members[e], el, p[:n], cr.Displacements[m.Members[e].Ends[0]], cr.Displacements[m.Members[e].Ends[1]])
+		alongBar(r, el, p[:n], cr.Displacements[m.Members[e].Ends[0]], cr.Displacements[m.Members[e].Ends[1]])
 		if sc.loading.transverse() {
-			alongLoadedBar(&cr.Members[e], el, sec, &m.Materials[m.Members[e].Material], p[:n], ul[:n], &sc.loading, &sc.field)
+			alongLoadedBar(r, el, sec, &m.Materials[m.Members[e].Material], p[:n], ul[:n], &sc.loading, &sc.field)
 		}
 	}
-	cr.Utilisation[e] = checkMember(m, e, &cr.Members[e])
+	cr.Utilisation[e] = checkMember(m, e, r)
 	return loaded
 }
 
@@ -336,8 +345,9 @@ func (cr *CaseResult) finite() bool {
 			return false
 		}
 	}
-	for e := range cr.Members {
-		if !cr.Members[e].finite() {
+	var scratch MemberResult
+	for e := range cr.MemberCount() {
+		if !cr.Member(e, &scratch).finite() {
 			return false
 		}
 	}

@@ -87,9 +87,10 @@ type CaseResult struct {
 	LoadSum      []float64
 	ReactionSum  []float64
 	BalanceError float64
-	// Members holds per member its results along its length: internal
-	// forces and displacements at the stations, and exact extremes.
-	Members []MemberResult
+	// members holds per member its results along its length: internal
+	// forces and displacements at the stations, and exact extremes (see
+	// Member and MemberCount).
+	members caseMembers
 	// MaxDisplacement is the largest translation magnitude anywhere, at
 	// the nodes and inside the members (length units).
 	MaxDisplacement Peak

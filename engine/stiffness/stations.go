@@ -152,7 +152,7 @@ func layoutStations(m *model.Model, cr *CaseResult, n int) {
 		if mem.Kind != model.Beam {
 			continue
 		}
-		r := &cr.Members[e]
+		r := cr.kept(e) // a beam keeps its results
 		r.Stations = at[b*n : (b+1)*n : (b+1)*n]
 		r.Displacements = rows[b*n : (b+1)*n : (b+1)*n]
 		r.Axial, r.ShearY, r.MomentZ = column(), column(), column()
@@ -304,8 +304,9 @@ func summarise(m *model.Model, cr *CaseResult, forcesOnly bool) {
 			cr.MaxDisplacement = Peak{Value: v, Node: n, Member: -1}
 		}
 	}
-	for e := range cr.Members {
-		r := &cr.Members[e]
+	var scratch MemberResult
+	for e := range cr.MemberCount() {
+		r := cr.Member(e, &scratch)
 		if v := r.PeakDisplacement.Value; v > cr.MaxDisplacement.Value {
 			cr.MaxDisplacement = Peak{Value: v, Node: -1, Member: e, At: r.PeakDisplacement.At}
 		}

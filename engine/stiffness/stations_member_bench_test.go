@@ -28,7 +28,7 @@ func BenchmarkAlongMembers(b *testing.B) {
 		copy(u[nb.first[n]+m.Dim:], c.Rotations[n])
 	}
 	ls := newLoadSet(m, nb, []model.Term{{Case: 0, Factor: 1}})
-	cr := newCaseResult(m, nb, u, recovery{})
+	cr := newCaseResult(m, nb, ls, u, recovery{})
 	var el element
 	var sc memberScratch
 	var fg, fe [12]float64
@@ -44,7 +44,7 @@ func BenchmarkAlongMembers(b *testing.B) {
 	// the wall-clock time.
 	b.ReportMetric(float64((cpuTime()-before).Microseconds())/1000/float64(b.N), "cpu-ms/op")
 	for e := range m.Members {
-		if got, want := cr.Members[e].PeakMomentZ, c.Members[e].PeakMomentZ; got != want {
+		if got, want := cr.Member(e, nil).PeakMomentZ, c.Member(e, nil).PeakMomentZ; got != want {
 			b.Fatalf("member %d: peak moment %+v, want %+v", e, got, want)
 		}
 	}

@@ -36,7 +36,7 @@ func TestSimpleSpanUniform(t *testing.T) {
 	b.fix(n1, model.Y)
 	b.memberLoad(model.MemberLoad{Member: 0, Kind: model.Uniform, Value: [3]float64{0, -w}})
 	r := solve1(t, b.m, Options{})
-	mr := r.Members[0]
+	mr := *r.Member(0, nil)
 	near(t, "peak moment", mr.PeakMomentZ.Value, w*l*l/8, 1e-12)
 	near(t, "peak moment at", mr.PeakMomentZ.At, l/2, 1e-12)
 	delta := 5 * w * l * l * l * l / (384 * e * i)
@@ -73,7 +73,7 @@ func TestOffCentrePoint(t *testing.T) {
 	b, _ := simpleSpan(l, 1)
 	b.memberLoad(model.MemberLoad{Member: 0, Kind: model.Point, Value: [3]float64{0, -p}, Distance: a})
 	r := solve1(t, b.m, Options{Stations: 17})
-	mr := r.Members[0]
+	mr := *r.Member(0, nil)
 	near(t, "largest deflection", mr.PeakDeflectionY.Value, -p*bb*math.Pow(l*l-bb*bb, 1.5)/(9*math.Sqrt(3)*ei*l), 1e-12)
 	near(t, "where", mr.PeakDeflectionY.At, math.Sqrt((l*l-bb*bb)/3), 1e-9)
 	near(t, "moment under the load", mr.PeakMomentZ.Value, p*a*bb/l, 1e-12)
@@ -105,7 +105,7 @@ func TestProppedCantileverSpan(t *testing.T) {
 	b.fix(nodes[1], model.Y)
 	b.memberLoad(model.MemberLoad{Member: 0, Kind: model.Uniform, Value: [3]float64{0, -w}})
 	r := solve1(t, b.m, Options{})
-	mr := r.Members[0]
+	mr := *r.Member(0, nil)
 	// The fixed-end moment wL²/8 is larger in magnitude than the span's.
 	near(t, "peak moment (fixed end)", mr.PeakMomentZ.Value, -w*l*l/8, 1e-12)
 	// The span moment is the largest positive moment: the zero of the
@@ -125,7 +125,7 @@ func momentAt(t *testing.T, m *model.Model, x float64) float64 {
 	t.Helper()
 	// 17 stations put one at 5L/8 = 10/16 L.
 	r := solve1(t, m, Options{Stations: 17})
-	mr := r.Members[0]
+	mr := *r.Member(0, nil)
 	best := math.Inf(-1)
 	for k, s := range mr.Stations {
 		if math.Abs(s-x) < 1e-9 {
@@ -145,7 +145,7 @@ func TestFixedFixedUniform(t *testing.T) {
 	b.fix(nodes[1], fixed2...)
 	b.memberLoad(model.MemberLoad{Member: 0, Kind: model.Uniform, Value: [3]float64{0, -w}})
 	r := solve1(t, b.m, Options{})
-	mr := r.Members[0]
+	mr := *r.Member(0, nil)
 	near(t, "mid-span moment", mr.MomentZ[5], w*l*l/24, 1e-12)
 	near(t, "end moment", mr.MomentZ[0], -w*l*l/12, 1e-12)
 	near(t, "end moment", mr.MomentZ[10], -w*l*l/12, 1e-12)
@@ -170,7 +170,7 @@ func TestCantileverLinearLoad(t *testing.T) {
 		}
 		b.memberLoad(model.MemberLoad{Member: 0, Kind: model.Linear, Value: start, EndValue: end})
 		r := solve1(t, b.m, Options{})
-		mr := r.Members[0]
+		mr := *r.Member(0, nil)
 		if !rising {
 			for k, x := range mr.Stations {
 				near(t, "M(x), falling", mr.MomentZ[k], -w0*math.Pow(l-x, 3)/(6*l), 1e-12)
@@ -207,7 +207,7 @@ func TestBiaxialTorsion3D(t *testing.T) {
 	}
 	b.force(n1, f, mo)
 	r := solve1(t, b.m, Options{})
-	mr := r.Members[0]
+	mr := *r.Member(0, nil)
 	for k, x := range mr.Stations {
 		near(t, "Mz(x)", mr.MomentZ[k], py*(l-x), 1e-10)
 		near(t, "My(x)", mr.MomentY[k], -pz*(l-x), 1e-10)
@@ -234,7 +234,7 @@ func TestBiaxialTorsion3D(t *testing.T) {
 	b.fix(n1, fixed3...)
 	b.memberLoad(model.MemberLoad{Member: 0, Kind: model.Uniform, Local: true, Value: [3]float64{0, wy, wz}})
 	r = solve1(t, b.m, Options{})
-	mr = r.Members[0]
+	mr = *r.Member(0, nil)
 	// Upward load (+y): hogging at mid-span in the sign of Mz, −wL²/24;
 	// My = −(the x–z plane's moment), so +wz·L²/24 with wz < 0 flips too.
 	near(t, "Mz mid-span", mr.MomentZ[5], -wy*l*l/24, 1e-10)
@@ -294,7 +294,7 @@ func TestStationsEquilibrium(t *testing.T) {
 		b.m.Materials[0].WeightDensity = 78
 		r := solve1(t, b.m, Options{Stations: 7})
 		for e, mem := range b.m.Members {
-			mr := r.Members[e]
+			mr := *r.Member(e, nil)
 			p := r.EndForces[e]
 			last := len(mr.Stations) - 1
 			scale := 0.0
@@ -370,7 +370,7 @@ func TestStationsAgreeWithRefinedModel(t *testing.T) {
 		coarse := solve1(t, one.m, Options{Stations: parts + 1})
 		many, nodes := build(parts)
 		fine := solve1(t, many.m, Options{})
-		mr := coarse.Members[0]
+		mr := *coarse.Member(0, nil)
 		for k := range parts + 1 {
 			for c := range dim {
 				near(t, "displacement", mr.Displacements[k][c], fine.Displacements[nodes[k]][c], 1e-9)

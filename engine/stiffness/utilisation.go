@@ -215,8 +215,8 @@ func turnedSection(r *MemberResult, sec *model.Section) float64 {
 // of their bending nor their deflection between the ends.
 func LoadedBars(cr *CaseResult) int {
 	n := 0
-	for e := range cr.Members {
-		if cr.Members[e].Unchecked&noSpanInertia != 0 {
+	for e := range cr.MemberCount() {
+		if r := cr.kept(e); r != nil && r.Unchecked&noSpanInertia != 0 { // a bar no load touches has no span
 			n++
 		}
 	}
@@ -234,10 +234,11 @@ func uncheckedNotes(m *model.Model, cases []CaseResult, limit int) []fault.Probl
 // flags over the cases.
 func memberUncheckedFlags(m *model.Model, cases []CaseResult) []uint16 {
 	out := make([]uint16, len(m.Members))
+	var scratch MemberResult
 	for e := range out {
 		for c := range cases {
-			if len(cases[c].Members) > e {
-				out[e] |= cases[c].Members[e].Unchecked
+			if cases[c].MemberCount() > e {
+				out[e] |= cases[c].Member(e, &scratch).Unchecked
 			}
 		}
 	}
@@ -307,8 +308,9 @@ const maxUncheckedNotes = 50
 // beam's bending was checked.
 func bendingCaveat(m *model.Model, cases []CaseResult) []string {
 	for c := range cases {
-		for e := range cases[c].Members {
-			if cases[c].Members[e].BendingUtilisation >= 0 {
+		for e := range cases[c].MemberCount() {
+			// A bar no load touches is not checked in bending.
+			if r := cases[c].kept(e); r != nil && r.BendingUtilisation >= 0 {
 				return []string{bendingCaveatText}
 			}
 		}

@@ -59,7 +59,7 @@ func checkedSpan(thrust float64, curve string) *builder {
 func TestBendingAndCombined(t *testing.T) {
 	b := checkedSpan(0, "b")
 	r := solve1(t, b.m, Options{})
-	mr := r.Members[0]
+	mr := *r.Member(0, nil)
 	near(t, "bending", mr.BendingUtilisation, 125.0/235, 1e-12)
 	near(t, "axial", mr.AxialUtilisation, 0, 1e-12)
 	near(t, "governing", r.Utilisation[0], 125.0/235, 1e-12)
@@ -67,7 +67,7 @@ func TestBendingAndCombined(t *testing.T) {
 	const thrust = 300.0
 	b = checkedSpan(thrust, "b")
 	r = solve1(t, b.m, Options{})
-	mr = r.Members[0]
+	mr = *r.Member(0, nil)
 	squash := 1e-2 * 2.35e5
 	ncr := math.Pi * math.Pi * 2.1e8 * 1e-4 / 100
 	chi := BucklingReduction(math.Sqrt(squash/ncr), 0.34)

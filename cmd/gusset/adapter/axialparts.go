@@ -9,12 +9,13 @@ import "gusset/engine/stiffness"
 // otherwise, so that a case whose checks were all made, or none, carries
 // no second array.
 func axialParts(c *stiffness.CaseResult) []*float64 {
-	if len(c.Members) != len(c.Utilisation) {
+	if c.MemberCount() != len(c.Utilisation) {
 		return nil
 	}
 	partial := false
+	var scratch stiffness.MemberResult
 	for e, u := range c.Utilisation {
-		if u < 0 && c.Members[e].AxialUtilisation >= 0 {
+		if u < 0 && c.Member(e, &scratch).AxialUtilisation >= 0 {
 			partial = true
 			break
 		}
@@ -22,9 +23,9 @@ func axialParts(c *stiffness.CaseResult) []*float64 {
 	if !partial {
 		return nil
 	}
-	out := make([]*float64, len(c.Members))
-	for e := range c.Members {
-		if a := c.Members[e].AxialUtilisation; a >= 0 {
+	out := make([]*float64, c.MemberCount())
+	for e := range c.MemberCount() {
+		if a := c.Member(e, &scratch).AxialUtilisation; a >= 0 {
 			out[e] = &a
 		}
 	}

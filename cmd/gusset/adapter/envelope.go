@@ -169,7 +169,7 @@ func (plan *envelopePlan) finish(m *model.Model, res *stiffness.Result) *protoco
 		return nil
 	}
 	for i := range res.Cases {
-		if res.Cases[i].Members != nil || len(m.Members) == 0 {
+		if res.Cases[i].MemberCount() > 0 || len(m.Members) == 0 {
 			plan.add(i, &res.Cases[i])
 		}
 	}

@@ -78,10 +78,13 @@ func caseSummaries(m *model.Model, c *stiffness.CaseResult, cr *protocol.CaseRes
 	cr.AxialUtilisation = axialParts(c)
 	cr.MaxDisplacement = wirePeak(m, c.MaxDisplacement)
 	cr.MaxMoment = wirePeak(m, c.MaxMoment)
-	cr.Members = make([]*protocol.MemberResult, len(c.Members))
-	for e := range c.Members {
-		if m.Members[e].Kind == model.Beam || c.Members[e].LoadedAcross {
-			cr.Members[e] = wireMember(m, e, &c.Members[e])
+	cr.Members = make([]*protocol.MemberResult, c.MemberCount())
+	var scratch stiffness.MemberResult
+	for e := range c.MemberCount() {
+		// A beam's or loaded bar's results are the case's own (not
+		// scratch), which the wire member may share.
+		if r := c.Member(e, &scratch); m.Members[e].Kind == model.Beam || r.LoadedAcross {
+			cr.Members[e] = wireMember(m, e, r)
 		}
 	}
 }
@@ -158,8 +161,9 @@ func solvePicture(m *model.Model, res *stiffness.Result) (string, error) {
 	c := &res.Cases[0]
 	var svg bytes.Buffer
 	var curves []render.BeamCurve
-	for e := range c.Members {
-		r := &c.Members[e]
+	var scratch stiffness.MemberResult
+	for e := range c.MemberCount() {
+		r := c.Member(e, &scratch)
 		if len(r.Stations) == 0 {
 			continue
 		}
