@@ -304,9 +304,13 @@ func summarise(m *model.Model, cr *CaseResult, forcesOnly bool) {
 			cr.MaxDisplacement = Peak{Value: v, Node: n, Member: -1}
 		}
 	}
-	var scratch MemberResult
 	for e := range cr.MemberCount() {
-		r := cr.Member(e, &scratch)
+		// A bar no load touches peaks at an end, at its node's value
+		// (the same norm of the same numbers): never strictly larger.
+		r := cr.kept(e)
+		if r == nil {
+			continue
+		}
 		if v := r.PeakDisplacement.Value; v > cr.MaxDisplacement.Value {
 			cr.MaxDisplacement = Peak{Value: v, Node: -1, Member: e, At: r.PeakDisplacement.At}
 		}
