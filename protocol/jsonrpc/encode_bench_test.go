@@ -3,7 +3,6 @@ package jsonrpc_test
 import (
 	"bytes"
 	"cmp"
-	"context"
 	"encoding/json"
 	"fmt"
 	"os"
@@ -64,14 +63,10 @@ func encodeSolved(b *testing.B, resp *protocol.Response) {
 	}
 	run("encoding-json", func() (int, error) { out, err := jsonrpc.EncodeStandard(resp); return len(out), err })
 	run("encode", func() (int, error) { out, err := jsonrpc.Encode(resp); return len(out), err })
-	s := &jsonrpc.Server{Name: "gusset", Version: "bench", Limits: protocol.Limits{Workers: 1}}
-	s.Handle(protocol.Method{Name: "replay"}, func(context.Context, json.RawMessage, jsonrpc.Stream) (any, error) {
-		return resp.Result, nil
-	})
-	line := []byte(`{"jsonrpc":"2.0","id":1,"method":"replay"}` + "\n")
+	replay := replayer(resp.Result)
 	run("serve", func() (int, error) {
 		var out countWriter
-		_, err := s.Serve(context.Background(), bytes.NewReader(line), &out)
+		err := replay(&out)
 		return int(out.n) - 1, err // without the newline
 	})
 }

@@ -5,6 +5,7 @@ import (
 	"context"
 	"encoding/json"
 	"fmt"
+	"io"
 	"testing"
 
 	"gusset/cmd/gusset/adapter"
@@ -41,17 +42,27 @@ func TestEncodeSolvedAgreesWithEncodingJSON(t *testing.T) {
 		if err != nil || !bytes.Equal(got, want) {
 			t.Errorf("%s: encode differs from encoding/json (%d and %d bytes, error %v)", tc.name, len(got), len(want), err)
 		}
-		s := &jsonrpc.Server{Name: "gusset", Version: "test", Limits: protocol.Limits{Workers: 1}}
-		s.Handle(protocol.Method{Name: "replay"}, func(context.Context, json.RawMessage, jsonrpc.Stream) (any, error) {
-			return resp.Result, nil
-		})
 		var out bytes.Buffer
-		if _, err := s.Serve(context.Background(), bytes.NewReader([]byte(`{"jsonrpc":"2.0","id":1,"method":"replay"}`+"\n")), &out); err != nil {
+		if err := replayer(resp.Result)(&out); err != nil {
 			t.Fatal(err)
 		}
 		if !bytes.Equal(out.Bytes(), append(want, '\n')) {
 			t.Errorf("%s: the streamed response differs from encoding/json's (%d and %d bytes)", tc.name, out.Len(), len(want)+1)
 		}
+	}
+}
+
+// replayer returns a function that serves one request of a method
+// answering result, with id 1, writing the server's output to w.
+func replayer(result any) func(w io.Writer) error {
+	s := &jsonrpc.Server{Name: "gusset", Version: "test", Limits: protocol.Limits{Workers: 1}}
+	s.Handle(protocol.Method{Name: "replay"}, func(context.Context, json.RawMessage, jsonrpc.Stream) (any, error) {
+		return result, nil
+	})
+	line := []byte(`{"jsonrpc":"2.0","id":1,"method":"replay"}` + "\n")
+	return func(w io.Writer) error {
+		_, err := s.Serve(context.Background(), bytes.NewReader(line), w)
+		return err
 	}
 }
 
