@@ -89,13 +89,7 @@ func Solved(w io.Writer, m *model.Model, disp [][]float64, axial []float64, opt 
 		return p
 	}
 	vs := views(m.Dim)
-	width := opt.Width
-	if width <= 0 {
-		width = 640
-		if len(vs) > 1 {
-			width = 1100
-		}
-	}
+	width := solvedWidth(opt, len(vs))
 	pw := (width - 40 - float64(len(vs)-1)*20) / float64(len(vs))
 	var ph float64
 	boxes := make([]box, len(vs))
@@ -135,6 +129,18 @@ func Solved(w io.Writer, m *model.Model, disp [][]float64, axial []float64, opt 
 		fmt.Sprintf("Largest displacement %.4g %s; largest axial force %.4g %s.", maxU, unitOr(m.Units.Length, "m"), maxT, unitOr(m.Units.Force, "kN")),
 	}, written, m)...)
 	return c.close()
+}
+
+// solvedWidth is the picture's width: opt.Width, or 640 for one view and
+// 1100 for several side by side.
+func solvedWidth(opt Options, views int) float64 {
+	switch {
+	case opt.Width > 0:
+		return opt.Width
+	case views > 1:
+		return 1100
+	}
+	return 640
 }
 
 func dotSlice(a, b []float64) float64 {
