@@ -150,15 +150,12 @@ func clearOfRoots(c []float64, lo, hi float64) bool {
 	}
 	margin := 1e-10 * scale
 	// bᵢ = Σₖ≤ᵢ C(i,k)/C(d,k)·aₖ for degree d = n − 1.
-	d := n - 1
+	ratio := &bernsteinRatio[n-1]
 	sign := 0.0
 	for i := range n {
-		b, ratio := 0.0, 1.0 // ratio = C(i,k)/C(d,k), from k = 0
+		b := 0.0
 		for k := 0; k <= i; k++ {
-			b += ratio * a[k]
-			if k < i {
-				ratio *= float64(i-k) / float64(d-k)
-			}
+			b += ratio[i][k] * a[k]
 		}
 		switch {
 		case b > margin && sign >= 0:
